@@ -1,0 +1,63 @@
+import fs from "node:fs";
+import path from "node:path";
+import express from "express";
+import helmet from "helmet";
+import { rateLimit } from "express-rate-limit";
+import { toNodeHandler } from "better-auth/node";
+import { auth } from "./auth/auth";
+import { env } from "./env";
+import { requestLog } from "./log";
+import { problemHandler, sendProblem } from "./http/problem";
+import { apiRouter } from "./routes";
+
+export function createApp() {
+  const e = env();
+  const app = express();
+  app.disable("x-powered-by");
+  app.set("trust proxy", "loopback");
+  app.use(requestLog);
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          defaultSrc: ["'self'"],
+          imgSrc: ["'self'", "data:", "blob:"],
+          workerSrc: ["'self'", "blob:"],
+          // opencv.js (tracking assist) compiles WebAssembly in a worker
+          scriptSrc: ["'self'", "'wasm-unsafe-eval'"],
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          connectSrc: ["'self'"],
+          fontSrc: ["'self'", "data:"],
+          objectSrc: ["'none'"],
+          frameAncestors: ["'none'"],
+        },
+      },
+      crossOriginEmbedderPolicy: false,
+    }),
+  );
+
+  const limiter = (limit: number) =>
+    rateLimit({
+      windowMs: 60_000, limit, standardHeaders: "draft-8", legacyHeaders: false, skip: () => !e.RATE_LIMIT,
+      handler: (_req, res) => sendProblem(res, 429, "rate_limited", "Too many attempts. Wait a minute and try again."),
+    });
+  app.use("/api/auth/sign-in", limiter(10));
+  app.use("/api/teams/:teamId/invitations", (req, res, next) => (req.method === "GET" ? next() : limiter(30)(req, res, next)));
+
+  // better-auth reads its own body: mount before express.json().
+  const authHandler = toNodeHandler(auth());
+  app.all("/api/auth/*splat", (req, res) => void authHandler(req, res));
+
+  app.use("/api", express.json({ limit: "2mb" }));
+  app.use("/api", apiRouter());
+  app.use("/api", (_req, res) => sendProblem(res, 404, "not_found", "No such API route."));
+
+  const dist = path.resolve("dist");
+  if (fs.existsSync(path.join(dist, "index.html"))) {
+    app.use("/assets", express.static(path.join(dist, "assets"), { immutable: true, maxAge: "1y", index: false }));
+    app.use(express.static(dist, { index: false, maxAge: "1h" }));
+    app.get("/{*splat}", (_req, res) => res.sendFile(path.join(dist, "index.html")));
+  }
+  app.use(problemHandler);
+  return app;
+}

@@ -1,0 +1,22 @@
+import { desc, eq } from "drizzle-orm";
+import { db } from "../db/client";
+import { auditLog, user } from "../db/schema";
+
+export type AuditAction =
+  | "member.role_changed" | "member.removed" | "member.joined"
+  | "invitation.created" | "invitation.resent" | "invitation.cancelled"
+  | "clip.deleted" | "shot.deleted" | "shot.shared" | "stick.deleted" | "bench_test.deleted";
+
+export async function recordAudit(e: { teamId: string; actorId: string | null; action: AuditAction; targetType: string; targetId?: string; detail?: Record<string, unknown> }) {
+  await db().insert(auditLog).values({ ...e, detail: e.detail ?? {} });
+}
+
+export async function listAudit(teamId: string, limit = 200) {
+  return db()
+    .select({ id: auditLog.id, action: auditLog.action, targetType: auditLog.targetType, targetId: auditLog.targetId, detail: auditLog.detail, createdAt: auditLog.createdAt, actorName: user.name })
+    .from(auditLog)
+    .leftJoin(user, eq(user.id, auditLog.actorId))
+    .where(eq(auditLog.teamId, teamId))
+    .orderBy(desc(auditLog.createdAt))
+    .limit(limit);
+}

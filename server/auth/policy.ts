@@ -1,0 +1,50 @@
+import type { Role } from "../../shared/schemas/roster";
+
+// The one authorization policy. Pure functions over (actor, resource): no I/O, so every route
+// asks the same question the same way and the whole table is unit-tested without a server.
+// A team admin can do everything a coach can (VOCABULARY.md: admin manages the team itself).
+
+export interface Actor {
+  userId: string;
+  teamId: string;
+  role: Role;
+}
+
+/** What a shot-like resource exposes to the policy. */
+export interface OwnedResource {
+  teamId: string;
+  playerId: string | null;
+  /** Users the shot was explicitly shared with. */
+  sharedWith?: readonly string[];
+}
+
+const STAFF: readonly Role[] = ["admin", "coach", "analyst"];
+export const isStaff = (a: Actor) => STAFF.includes(a.role);
+const sameTeam = (a: Actor, r: { teamId: string }) => a.teamId === r.teamId;
+
+export const policy = {
+  manageRoster: (a: Actor) => a.role === "admin",
+  viewAuditLog: (a: Actor) => a.role === "admin",
+  manageTeamSettings: (a: Actor) => a.role === "admin",
+  viewMembers: (a: Actor) => isStaff(a),
+
+  uploadClip: (a: Actor) => isStaff(a),
+  listClips: (a: Actor) => isStaff(a),
+  viewClip: (a: Actor, c: OwnedResource) => sameTeam(a, c) && (isStaff(a) || c.playerId === a.userId || (c.sharedWith ?? []).includes(a.userId)),
+  editClip: (a: Actor, c: { teamId: string }) => sameTeam(a, c) && isStaff(a),
+  deleteClip: (a: Actor, c: { teamId: string }) => sameTeam(a, c) && (a.role === "admin" || a.role === "coach" || a.role === "analyst"),
+
+  viewShot: (a: Actor, s: OwnedResource) => sameTeam(a, s) && (isStaff(a) || s.playerId === a.userId || (s.sharedWith ?? []).includes(a.userId)),
+  editShot: (a: Actor, s: { teamId: string }) => sameTeam(a, s) && isStaff(a),
+  shareShot: (a: Actor, s: { teamId: string }) => sameTeam(a, s) && (a.role === "admin" || a.role === "coach"),
+  /** A player compares own shots; staff compare any two in the team. */
+  compareShots: (a: Actor, x: OwnedResource, y: OwnedResource) =>
+    x.teamId === y.teamId && policy.viewShot(a, x) && policy.viewShot(a, y),
+  viewProgress: (a: Actor, playerId: string) => isStaff(a) || playerId === a.userId,
+
+  viewStick: (a: Actor, s: { teamId: string; ownerId: string | null }) => sameTeam(a, s) && (isStaff(a) || s.ownerId === a.userId),
+  editStick: (a: Actor, s: { teamId: string }) => sameTeam(a, s) && isStaff(a),
+  runBenchTest: (a: Actor, s: { teamId: string }) => sameTeam(a, s) && isStaff(a),
+} as const;
+
+export type PolicyAction = keyof typeof policy;

@@ -1,0 +1,21 @@
+import { drizzle } from "drizzle-orm/node-postgres";
+import pg from "pg";
+import * as schema from "./schema";
+import { env } from "../env";
+
+export type Db = ReturnType<typeof makeDb>;
+
+export function makeDb(url: string) {
+  // Bounded waits: a request must never hang forever on a dead database.
+  const pool = new pg.Pool({ connectionString: url, max: 10, connectionTimeoutMillis: 5_000, idleTimeoutMillis: 30_000, query_timeout: 30_000 });
+  pool.on("error", () => {
+    /* a dropped idle client is replaced on next use */
+  });
+  return Object.assign(drizzle(pool, { schema }), { pool });
+}
+
+let cached: Db | undefined;
+export function db(): Db {
+  cached ??= makeDb(env().DATABASE_URL);
+  return cached;
+}

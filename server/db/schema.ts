@@ -1,0 +1,191 @@
+// Loadframe's tables. The better-auth tables (user, session, account, verification,
+// organization = team, member, invitation) are generated into auth-schema.ts; ours follow.
+// Every domain row carries its team id so that a single `where team_id = $active` keeps teams apart.
+import { sql } from "drizzle-orm";
+import { bigint, boolean, date, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
+import { organization, user } from "./auth-schema";
+
+export * from "./auth-schema";
+
+const teamRef = () => text("team_id").notNull().references(() => organization.id, { onDelete: "cascade" });
+const createdAt = () => timestamp("created_at", { withTimezone: true }).defaultNow().notNull();
+
+export const teamSettings = pgTable("team_settings", {
+  teamId: text("team_id").primaryKey().references(() => organization.id, { onDelete: "cascade" }),
+  /** Warn when a stick measures below this share of its rated flex. */
+  flexAlertPercent: integer("flex_alert_percent").notNull().default(85),
+  quotaBytes: bigint("quota_bytes", { mode: "number" }),
+});
+
+export const userPrefs = pgTable("user_prefs", {
+  userId: text("user_id").primaryKey().references(() => user.id, { onDelete: "cascade" }),
+  units: text("units", { enum: ["metric", "imperial"] }).notNull().default("metric"),
+  notifyClipReady: boolean("notify_clip_ready").notNull().default(true),
+  notifyShotShared: boolean("notify_shot_shared").notNull().default(true),
+});
+
+/** A training or testing date at a venue ("Session" in the vocabulary). */
+export const trainingSession = pgTable(
+  "training_session",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    teamId: teamRef(),
+    date: date("date").notNull(),
+    venue: text("venue").notNull().default(""),
+    drill: text("drill").notNull().default(""),
+    createdAt: createdAt(),
+  },
+  (t) => [index("training_session_team_idx").on(t.teamId, t.date)],
+);
+
+export const stick = pgTable(
+  "stick",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    teamId: teamRef(),
+    ownerId: text("owner_id").references(() => user.id, { onDelete: "set null" }),
+    label: text("label").notNull(),
+    ratedFlex: doublePrecision("rated_flex"),
+    lengthMm: doublePrecision("length_mm"),
+    bladeCurve: text("blade_curve").notNull().default(""),
+    lie: text("lie").notNull().default(""),
+    firstUseDate: date("first_use_date"),
+    notes: text("notes").notNull().default(""),
+    createdAt: createdAt(),
+  },
+  (t) => [index("stick_team_idx").on(t.teamId)],
+);
+
+export const benchTest = pgTable(
+  "bench_test",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    teamId: teamRef(),
+    stickId: uuid("stick_id").notNull().references(() => stick.id, { onDelete: "cascade" }),
+    testedOn: date("tested_on").notNull(),
+    spanMm: doublePrecision("span_mm").notNull(),
+    loadPointMm: doublePrecision("load_point_mm").notNull(),
+    /** Readings in SI: [{ loadN, deflectionMm }]. */
+    readings: jsonb("readings").notNull(),
+    /** The fit as computed by shared/mechanics (stiffness, r2, flags …). */
+    fit: jsonb("fit").notNull(),
+    measuredFlex: doublePrecision("measured_flex").notNull(),
+    eiNm2: doublePrecision("ei_nm2").notNull(),
+    createdBy: text("created_by").references(() => user.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("bench_test_stick_idx").on(t.stickId, t.testedOn)],
+);
+
+export const clipStatus = ["uploading", "probing", "extracting", "ready", "failed"] as const;
+export type ClipStatus = (typeof clipStatus)[number];
+
+export const clip = pgTable(
+  "clip",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    teamId: teamRef(),
+    sessionId: uuid("session_id").references(() => trainingSession.id, { onDelete: "set null" }),
+    playerId: text("player_id").references(() => user.id, { onDelete: "set null" }),
+    stickId: uuid("stick_id").references(() => stick.id, { onDelete: "set null" }),
+    uploadedBy: text("uploaded_by").references(() => user.id, { onDelete: "set null" }),
+    title: text("title").notNull().default(""),
+    shotType: text("shot_type", { enum: ["slap", "wrist", "snap", "backhand"] }).notNull().default("slap"),
+    cameraView: text("camera_view", { enum: ["side", "front", "overhead", "other"] }).notNull().default("side"),
+    /** The rate the camera captured at; every speed uses this, never the stored rate. */
+    captureFps: doublePrecision("capture_fps").notNull(),
+    captureFpsConfirmed: boolean("capture_fps_confirmed").notNull().default(false),
+    storedFps: doublePrecision("stored_fps"),
+    exposureUs: doublePrecision("exposure_us"),
+    notes: text("notes").notNull().default(""),
+    status: text("status", { enum: clipStatus }).notNull().default("uploading"),
+    failureReason: text("failure_reason"),
+    framesDone: integer("frames_done").notNull().default(0),
+    frameCount: integer("frame_count"),
+    width: integer("width"),
+    height: integer("height"),
+    durationS: doublePrecision("duration_s"),
+    rotationDeg: integer("rotation_deg").notNull().default(0),
+    variableFrameRate: boolean("variable_frame_rate").notNull().default(false),
+    codec: text("codec"),
+    probe: jsonb("probe"),
+    /** Real presentation time of each frame in seconds, index 0 = frame 1. */
+    frameTimes: jsonb("frame_times").$type<number[]>(),
+    frameFormat: text("frame_format").notNull().default("jpg"),
+    sha256: text("sha256"),
+    sizeBytes: bigint("size_bytes", { mode: "number" }),
+    originalName: text("original_name").notNull().default(""),
+    /** Calibration for every shot in this clip (scale bar or plane), validated by shared/mechanics. */
+    calibration: jsonb("calibration"),
+    createdAt: createdAt(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).defaultNow().notNull(),
+  },
+  (t) => [
+    index("clip_team_created_idx").on(t.teamId, t.createdAt),
+    index("clip_team_player_idx").on(t.teamId, t.playerId),
+    uniqueIndex("clip_team_sha_idx").on(t.teamId, t.sha256).where(sql`${t.sha256} is not null`),
+  ],
+);
+
+export const shot = pgTable(
+  "shot",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    teamId: teamRef(),
+    clipId: uuid("clip_id").notNull().references(() => clip.id, { onDelete: "cascade" }),
+    playerId: text("player_id").references(() => user.id, { onDelete: "set null" }),
+    stickId: uuid("stick_id").references(() => stick.id, { onDelete: "set null" }),
+    label: text("label").notNull().default(""),
+    frameStart: integer("frame_start").notNull().default(1),
+    frameEnd: integer("frame_end"),
+    /** { puck: [[frame, x, y], …], bladeHeel: …, … } in original frame pixels. */
+    marks: jsonb("marks").notNull().default({}),
+    /** { iceStrike?, puckStrike?, peakBend?, release? } as frame numbers. */
+    events: jsonb("events").notNull().default({}),
+    /** Optimistic concurrency: every save names the version it started from. */
+    version: integer("version").notNull().default(1),
+    updatedBy: text("updated_by").references(() => user.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).defaultNow().notNull(),
+  },
+  (t) => [index("shot_team_player_idx").on(t.teamId, t.playerId), index("shot_clip_idx").on(t.clipId)],
+);
+
+export const shotResult = pgTable("shot_result", {
+  shotId: uuid("shot_id").primaryKey().references(() => shot.id, { onDelete: "cascade" }),
+  teamId: teamRef(),
+  engineVersion: text("engine_version").notNull(),
+  /** Null with `error` set when the marks are not yet enough to compute. */
+  results: jsonb("results"),
+  error: text("error"),
+  shotVersion: integer("shot_version").notNull(),
+  computedAt: timestamp("computed_at", { withTimezone: true }).defaultNow().notNull(),
+});
+
+export const shotShare = pgTable(
+  "shot_share",
+  {
+    shotId: uuid("shot_id").notNull().references(() => shot.id, { onDelete: "cascade" }),
+    userId: text("user_id").notNull().references(() => user.id, { onDelete: "cascade" }),
+    teamId: teamRef(),
+    sharedBy: text("shared_by").references(() => user.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.shotId, t.userId] }), index("shot_share_user_idx").on(t.userId)],
+);
+
+export const auditLog = pgTable(
+  "audit_log",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    teamId: teamRef(),
+    actorId: text("actor_id").references(() => user.id, { onDelete: "set null" }),
+    action: text("action").notNull(),
+    targetType: text("target_type").notNull(),
+    targetId: text("target_id"),
+    detail: jsonb("detail").notNull().default({}),
+    createdAt: createdAt(),
+  },
+  (t) => [index("audit_team_idx").on(t.teamId, t.createdAt)],
+);
+

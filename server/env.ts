@@ -1,0 +1,55 @@
+import { z } from "zod";
+
+// The whole server configuration, validated once at start-up. A bad or missing value stops the
+// process with one readable line per problem rather than failing later in a request.
+const bool = z
+  .enum(["true", "false", "1", "0"])
+  .transform((v) => v === "true" || v === "1");
+
+const EnvSchema = z.object({
+  NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
+  HOST: z.string().default("127.0.0.1"),
+  PORT: z.coerce.number().int().min(1).max(65535).default(3000),
+  PUBLIC_URL: z.string().url().default("http://127.0.0.1:3000"),
+  DATABASE_URL: z.string().url({ message: "DATABASE_URL must be a postgres:// URL" }),
+  AUTH_SECRET: z.string().min(32, "AUTH_SECRET must be at least 32 characters"),
+  SMTP_HOST: z.string().default("127.0.0.1"),
+  SMTP_PORT: z.coerce.number().int().default(1025),
+  MAIL_FROM: z.string().default("Loadframe <no-reply@loadframe.local>"),
+  MAIL_INBOX_URL: z.string().default("http://127.0.0.1:1080"),
+  UPLOAD_DIR: z.string().default("uploads"),
+  STORAGE: z.enum(["local", "s3"]).default("local"),
+  S3_ENDPOINT: z.string().optional(),
+  S3_BUCKET: z.string().default("loadframe"),
+  S3_ACCESS_KEY_ID: z.string().optional(),
+  S3_SECRET_ACCESS_KEY: z.string().optional(),
+  S3_REGION: z.string().default("us-east-1"),
+  FFMPEG_PATH: z.string().default("ffmpeg"),
+  FFPROBE_PATH: z.string().default("ffprobe"),
+  FRAME_FORMAT: z.enum(["jpg", "webp"]).default("jpg"),
+  FRAME_QUALITY: z.coerce.number().int().min(1).max(31).default(3),
+  MAX_UPLOAD_BYTES: z.coerce.number().int().positive().default(4 * 1024 ** 3),
+  MAX_PIXELS: z.coerce.number().int().positive().default(3840 * 2160),
+  TEAM_QUOTA_BYTES: z.coerce.number().int().positive().default(200 * 1024 ** 3),
+  EMBEDDED_WORKER: bool.default(true),
+  RATE_LIMIT: bool.default(true),
+  LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).default("info"),
+});
+
+export type Env = z.infer<typeof EnvSchema>;
+
+export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
+  const parsed = EnvSchema.safeParse(source);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join(".") || "(env)"}: ${i.message}`);
+    throw new Error(`Loadframe cannot start, the environment is not valid:\n${lines.join("\n")}`);
+  }
+  return parsed.data;
+}
+
+let cached: Env | undefined;
+/** The validated environment of this process (parsed on first use). */
+export function env(): Env {
+  cached ??= parseEnv();
+  return cached;
+}

@@ -1,0 +1,55 @@
+import type { ErrorRequestHandler, Response } from "express";
+import { ZodError } from "zod";
+
+/** An error the API answers as problem+json (RFC 9457) with a stable machine `code`. */
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly errors?: { path: string; message: string }[],
+  ) {
+    super(message);
+  }
+}
+
+const titles: Record<number, string> = {
+  400: "Bad request", 401: "Sign-in needed", 403: "Not allowed", 404: "Not found", 409: "Conflict",
+  410: "Gone", 413: "Too large", 415: "Unsupported media type", 422: "Invalid input", 429: "Too many requests",
+  500: "Server error", 503: "Unavailable",
+};
+
+export const notFound = (what = "That item") => new HttpError(404, "not_found", `${what} was not found, or you do not have access to it.`);
+export const forbidden = (detail = "Your role in this team does not allow this.") => new HttpError(403, "forbidden", detail);
+export const unauthenticated = () => new HttpError(401, "unauthenticated", "Please sign in to continue.");
+
+export function sendProblem(res: Response, status: number, code: string, detail: string, errors?: HttpError["errors"]) {
+  res
+    .status(status)
+    .type("application/problem+json")
+    .send(JSON.stringify({ type: "about:blank", title: titles[status] ?? "Error", status, code, detail, ...(errors ? { errors } : {}) }));
+}
+
+export function zodToHttp(err: ZodError): HttpError {
+  const errors = err.issues.map((i) => ({ path: i.path.join("."), message: i.message }));
+  const first = errors[0];
+  return new HttpError(422, "validation_failed", first ? (first.path ? `${first.path}: ${first.message}` : first.message) : "Invalid input", errors);
+}
+
+/** Last middleware: every thrown error becomes problem+json; unknown ones are logged, not shown. */
+export const problemHandler: ErrorRequestHandler = (err, req, res, _next) => {
+  if (res.headersSent) return;
+  if (err instanceof HttpError) return sendProblem(res, err.status, err.code, err.message, err.errors);
+  if (err instanceof ZodError) {
+    const h = zodToHttp(err);
+    return sendProblem(res, h.status, h.code, h.message, h.errors);
+  }
+  // body-parser errors carry a `type` and a status
+  if (err?.type === "entity.parse.failed") return sendProblem(res, 400, "malformed_json", "The request body is not valid JSON.");
+  if (err?.type === "entity.too.large") return sendProblem(res, 413, "too_large", "The request body is too large.");
+  if (typeof err?.status === "number" && err.status >= 400 && err.status < 500)
+    return sendProblem(res, err.status, err.code ?? "bad_request", err.message ?? "Bad request");
+  req.log?.error({ err }, "unhandled error");
+  if (!req.log) console.error(err);
+  sendProblem(res, 500, "internal", "Something went wrong on our side. Try again; if it keeps happening, tell your team admin.");
+};

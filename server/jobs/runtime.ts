@@ -1,0 +1,54 @@
+import PgBoss from "pg-boss";
+import { env } from "../env";
+import { log } from "../log";
+import { jobPolicies, type JobName, type JobTypes } from "./types";
+import { handlers } from "./handlers";
+
+let boss: PgBoss | undefined;
+
+/** Start the queue (pg-boss on our PostgreSQL); with work=true this process also runs jobs. */
+export async function startJobs({ work }: { work: boolean }) {
+  boss = new PgBoss({ connectionString: env().DATABASE_URL, schema: "pgboss", max: 5 });
+  boss.on("error", (err) => log.error({ err }, "queue error"));
+  await boss.start();
+  for (const name of Object.keys(jobPolicies) as JobName[]) {
+    // pg-boss 10: a queue must exist before send(), or send silently returns null.
+    const p = jobPolicies[name];
+    await boss.createQueue(name, { name, retryLimit: p.retryLimit, retryDelay: p.retryDelaySeconds, retryBackoff: p.retryBackoff, expireInSeconds: p.expireInSeconds });
+  }
+  if (work) {
+    for (const name of Object.keys(handlers) as JobName[]) {
+      const handler = handlers[name];
+      if (!handler) continue;
+      const p = jobPolicies[name];
+      // pg-boss 10 has no per-call concurrency: one work() subscription per slot.
+      for (let slot = 0; slot < p.concurrency; slot++) {
+        await boss.work(name, { batchSize: 1, includeMetadata: true, pollingIntervalSeconds: 1 }, async ([job]) => {
+          const jl = log.child({ job: name, jobId: job.id, reqId: (job.data as { reqId?: string }).reqId });
+          jl.info("job started");
+          // eslint-disable-next-line @typescript-eslint/no-explicit-any
+          await (handler as any)(job.data, { jobId: job.id, log: jl, retryCount: job.retryCount });
+          jl.info("job done");
+        });
+      }
+    }
+  }
+  return boss;
+}
+
+export async function enqueue<N extends JobName>(name: N, data: JobTypes[N], opts: { singletonKey?: string } = {}) {
+  if (!boss) throw new Error("job queue not started");
+  return boss.send(name, data as object, opts);
+}
+
+export function queue() {
+  if (!boss) throw new Error("job queue not started");
+  return boss;
+}
+
+/** Stop taking jobs; running ones get a grace period, then pg-boss hands them back. */
+export async function stopJobs() {
+  if (!boss) return;
+  await boss.stop({ graceful: true, timeout: 20_000, wait: true });
+  boss = undefined;
+}

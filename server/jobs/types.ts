@@ -1,0 +1,23 @@
+// One union of job payloads, with per-type attempts, time limit and concurrency. Feature areas
+// add their job here and their handler in handlers.ts.
+export interface JobTypes {
+  /** Probe-then-extract every frame of an uploaded clip. */
+  "clip.extract": { clipId: string; reqId?: string };
+  /** Repair pass: re-queue clips that lack frames, remove orphaned files. */
+  "clip.sweep": Record<string, never>;
+}
+export type JobName = keyof JobTypes;
+
+export interface JobPolicy {
+  retryLimit: number;
+  retryDelaySeconds: number;
+  retryBackoff: boolean;
+  expireInSeconds: number;
+  /** Jobs of this type one worker process runs at once. */
+  concurrency: number;
+}
+
+export const jobPolicies: Record<JobName, JobPolicy> = {
+  "clip.extract": { retryLimit: 3, retryDelaySeconds: 5, retryBackoff: true, expireInSeconds: 2 * 3600, concurrency: 1 },
+  "clip.sweep": { retryLimit: 0, retryDelaySeconds: 0, retryBackoff: false, expireInSeconds: 600, concurrency: 1 },
+};

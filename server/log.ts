@@ -1,0 +1,30 @@
+import { randomUUID } from "node:crypto";
+import type { RequestHandler } from "express";
+import pino from "pino";
+import { env } from "./env";
+
+export const log = pino({ level: process.env.LOG_LEVEL ?? env().LOG_LEVEL, base: { svc: process.env.LF_PROCESS ?? "web" } });
+
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-namespace
+  namespace Express {
+    interface Request {
+      id: string;
+      log: pino.Logger;
+    }
+  }
+}
+
+/** A request id (taken from X-Request-Id when a proxy set one) on every log line and job. */
+export const requestLog: RequestHandler = (req, res, next) => {
+  const incoming = req.get("x-request-id");
+  req.id = incoming && /^[\w-]{1,64}$/.test(incoming) ? incoming : randomUUID();
+  req.log = log.child({ reqId: req.id });
+  res.setHeader("X-Request-Id", req.id);
+  const t0 = process.hrtime.bigint();
+  res.on("finish", () => {
+    const ms = Number(process.hrtime.bigint() - t0) / 1e6;
+    if (req.path.startsWith("/api")) req.log.info({ method: req.method, path: req.path, status: res.statusCode, ms: Math.round(ms * 10) / 10 }, "request");
+  });
+  next();
+};

@@ -1,0 +1,14 @@
+import { Router } from "express";
+import { headersOf, requireUser, signedInOf } from "../auth/context";
+import { parse } from "../http/validate";
+import { ActiveTeamBodySchema, PrefsBodySchema } from "../../shared/schemas/roster";
+import { me, setActiveTeam, updatePrefs } from "./service";
+
+export const meRouter = Router();
+meRouter.use(requireUser);
+meRouter.get("/", async (req, res) => void res.json(await me(signedInOf(req))));
+meRouter.put("/active-team", async (req, res) => {
+  const { teamId } = parse(ActiveTeamBodySchema, req.body);
+  res.json(await setActiveTeam(signedInOf(req), headersOf(req), teamId));
+});
+meRouter.patch("/prefs", async (req, res) => void res.json(await updatePrefs(signedInOf(req), parse(PrefsBodySchema, req.body))));

@@ -1,0 +1,25 @@
+import { auth } from "../auth/auth";
+import type { SignedIn } from "../auth/context";
+import { HttpError, notFound } from "../http/problem";
+import { RoleSchema, type MeResponse, type Prefs } from "../../shared/schemas/roster";
+import { getPrefs, savePrefs, teamsOf } from "./repository";
+
+export async function me(s: SignedIn): Promise<MeResponse> {
+  const rows = await teamsOf(s.user.id);
+  const teams = rows.map((t) => ({ ...t, role: RoleSchema.catch("player").parse(t.role.split(",")[0]) }));
+  const active = teams.find((t) => t.id === s.activeTeamId)?.id ?? teams[0]?.id ?? null;
+  return { user: s.user, prefs: await getPrefs(s.user.id), teams, activeTeamId: active };
+}
+
+export async function setActiveTeam(s: SignedIn, headers: Headers, teamId: string): Promise<MeResponse> {
+  const teams = await teamsOf(s.user.id);
+  if (!teams.some((t) => t.id === teamId)) throw notFound("That team");
+  try {
+    await auth().api.setActiveOrganization({ headers, body: { organizationId: teamId } });
+  } catch (e) {
+    throw new HttpError(409, "switch_failed", `Could not switch team: ${(e as Error).message}`);
+  }
+  return me({ ...s, activeTeamId: teamId });
+}
+
+export const updatePrefs = (s: SignedIn, patch: Partial<Prefs>) => savePrefs(s.user.id, patch);

@@ -1,0 +1,122 @@
+import { auth } from "../auth/auth";
+import type { SignedIn } from "../auth/context";
+import { policy, type Actor } from "../auth/policy";
+import { recordAudit } from "../audit/repository";
+import { viaAuth } from "../http/better-auth-errors";
+import { forbidden, HttpError, notFound } from "../http/problem";
+import { RoleSchema, type InvitationPublic, type Role, type RosterResponse } from "../../shared/schemas/roster";
+import * as repo from "./repository";
+
+const asRole = (r: string | null) => RoleSchema.catch("player").parse((r ?? "").split(",")[0]);
+
+function requireAdmin(a: Actor) {
+  if (!policy.manageRoster(a)) throw forbidden("Only a team admin can manage the roster.");
+}
+
+export async function roster(a: Actor): Promise<RosterResponse> {
+  if (!policy.viewMembers(a)) throw forbidden("Players cannot see the roster.");
+  const members = (await repo.membersOf(a.teamId)).map((m) => ({ ...m, role: asRole(m.role), joinedAt: m.joinedAt.toISOString() }));
+  const invitations = policy.manageRoster(a)
+    ? (await repo.pendingInvitationsOf(a.teamId)).map((i) => ({ ...i, role: asRole(i.role), expiresAt: i.expiresAt.toISOString() }))
+    : [];
+  return { members, invitations };
+}
+
+export async function invite(a: Actor, headers: Headers, email: string, role: Role, resend = false) {
+  requireAdmin(a);
+  if (await repo.memberByEmail(a.teamId, email)) throw new HttpError(409, "already_member", `${email} is already a member of this team.`);
+  if (!resend && (await repo.pendingInvitationFor(a.teamId, email)))
+    throw new HttpError(409, "already_invited", `${email} already has a pending invitation. Use "Resend" to send it again.`);
+  const inv = await viaAuth(() => auth().api.createInvitation({ headers, body: { email, role, organizationId: a.teamId, resend } }));
+  await recordAudit({ teamId: a.teamId, actorId: a.userId, action: resend ? "invitation.resent" : "invitation.created", targetType: "invitation", targetId: inv.id, detail: { email, role } });
+  return { id: inv.id, email: inv.email, role: asRole(inv.role), status: inv.status, expiresAt: new Date(inv.expiresAt).toISOString() };
+}
+
+async function invitationInTeam(a: Actor, invitationId: string) {
+  const inv = await repo.invitationById(invitationId);
+  if (!inv || inv.teamId !== a.teamId) throw notFound("That invitation");
+  return inv;
+}
+
+export async function resendInvitation(a: Actor, headers: Headers, invitationId: string) {
+  requireAdmin(a);
+  const inv = await invitationInTeam(a, invitationId);
+  if (inv.status !== "pending") throw new HttpError(409, "invitation_closed", "That invitation is no longer pending.");
+  return invite(a, headers, inv.email, asRole(inv.role), true);
+}
+
+export async function cancelInvitation(a: Actor, headers: Headers, invitationId: string) {
+  requireAdmin(a);
+  const inv = await invitationInTeam(a, invitationId);
+  await viaAuth(() => auth().api.cancelInvitation({ headers, body: { invitationId } }));
+  await recordAudit({ teamId: a.teamId, actorId: a.userId, action: "invitation.cancelled", targetType: "invitation", targetId: invitationId, detail: { email: inv.email } });
+}
+
+async function guardLastAdmin(a: Actor, memberId: string, nextRole: Role | null) {
+  const m = await repo.memberById(a.teamId, memberId);
+  if (!m) throw notFound("That member");
+  if (asRole(m.role) === "admin" && nextRole !== "admin" && (await repo.adminCount(a.teamId)) <= 1)
+    throw new HttpError(409, "last_admin", "A team needs at least one team admin. Make someone else team admin first.");
+  return m;
+}
+
+export async function changeRole(a: Actor, headers: Headers, memberId: string, role: Role) {
+  requireAdmin(a);
+  const m = await guardLastAdmin(a, memberId, role);
+  await viaAuth(() => auth().api.updateMemberRole({ headers, body: { memberId, role, organizationId: a.teamId } }));
+  await recordAudit({ teamId: a.teamId, actorId: a.userId, action: "member.role_changed", targetType: "member", targetId: memberId, detail: { from: m.role, to: role, userId: m.userId } });
+  return { id: memberId, role };
+}
+
+export async function removeMember(a: Actor, headers: Headers, memberId: string) {
+  requireAdmin(a);
+  const m = await guardLastAdmin(a, memberId, null);
+  await viaAuth(() => auth().api.removeMember({ headers, body: { memberIdOrEmail: memberId, organizationId: a.teamId } }));
+  await recordAudit({ teamId: a.teamId, actorId: a.userId, action: "member.removed", targetType: "member", targetId: memberId, detail: { userId: m.userId } });
+}
+
+// --- the invitee's side ---------------------------------------------------------------------
+
+async function openInvitation(id: string) {
+  const inv = await repo.invitationById(id);
+  if (!inv) throw notFound("That invitation");
+  if (inv.status === "accepted") throw new HttpError(410, "invitation_used", "This invitation has already been used. Sign in instead.");
+  if (inv.status !== "pending") throw new HttpError(410, "invitation_cancelled", "This invitation was cancelled. Ask your team admin for a new one.");
+  if (inv.expiresAt.getTime() < Date.now()) throw new HttpError(410, "invitation_expired", "This invitation has expired. Ask your team admin to resend it.");
+  return inv;
+}
+
+export async function publicInvitation(id: string): Promise<InvitationPublic> {
+  const inv = await openInvitation(id);
+  return {
+    id: inv.id, email: inv.email, teamName: inv.teamName, role: asRole(inv.role), inviterName: inv.inviterName,
+    status: inv.status, expiresAt: inv.expiresAt.toISOString(), hasAccount: await repo.userExists(inv.email),
+  };
+}
+
+/** Accept as the signed-in user, or create the account first; returns cookies to set. */
+export async function acceptInvitation(id: string, signedIn: SignedIn | null, headers: Headers, body: { name?: string; password?: string }) {
+  const inv = await openInvitation(id);
+  let authHeaders = headers;
+  let setCookies: string[] = [];
+  if (signedIn) {
+    if (signedIn.user.email.toLowerCase() !== inv.email.toLowerCase())
+      throw new HttpError(403, "wrong_account", `This invitation is for ${inv.email}. Sign out and open the link again.`);
+  } else {
+    if (await repo.userExists(inv.email)) throw new HttpError(409, "account_exists", `An account for ${inv.email} exists. Sign in, then open the link again.`);
+    if (!body.name || !body.password)
+      throw new HttpError(422, "validation_failed", "Enter your name and a password.", [
+        ...(!body.name ? [{ path: "name", message: "Enter your name" }] : []),
+        ...(!body.password ? [{ path: "password", message: "Choose a password" }] : []),
+      ]);
+    const { headers: h } = await viaAuth(() =>
+      auth().api.signUpEmail({ body: { email: inv.email, password: body.password!, name: body.name! }, returnHeaders: true }),
+    );
+    setCookies = h.getSetCookie();
+    authHeaders = new Headers({ cookie: setCookies.map((c) => c.split(";")[0]).join("; "), origin: headers.get("origin") ?? "" });
+  }
+  await viaAuth(() => auth().api.acceptInvitation({ headers: authHeaders, body: { invitationId: id } }));
+  await viaAuth(() => auth().api.setActiveOrganization({ headers: authHeaders, body: { organizationId: inv.teamId } }));
+  await recordAudit({ teamId: inv.teamId, actorId: null, action: "member.joined", targetType: "invitation", targetId: id, detail: { email: inv.email, role: inv.role } });
+  return { teamId: inv.teamId, setCookies };
+}

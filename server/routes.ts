@@ -1,0 +1,20 @@
+import { Router } from "express";
+import { requireTeamMember } from "./auth/context";
+import { meRouter } from "./me/routes";
+import { invitationRouter, rosterRouter } from "./roster/routes";
+import { auditRouter } from "./audit/routes";
+
+// Every API router, in one list. Team-scoped features mount on `team` and find the caller's
+// role in req.actor (set by requireTeamMember: non-members get 404, so nothing leaks).
+export function apiRouter() {
+  const api = Router();
+  api.use("/me", meRouter);
+  api.use("/invitations", invitationRouter);
+
+  const team = Router({ mergeParams: true });
+  team.use(requireTeamMember);
+  team.use(rosterRouter);
+  team.use(auditRouter);
+  api.use("/teams/:teamId", team);
+  return api;
+}

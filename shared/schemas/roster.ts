@@ -1,0 +1,47 @@
+import { z } from "zod";
+
+export const roles = ["admin", "coach", "analyst", "player"] as const;
+export const RoleSchema = z.enum(roles, { message: "Role must be team admin, coach, analyst or player" });
+export type Role = z.infer<typeof RoleSchema>;
+
+export const roleLabels: Record<Role, string> = { admin: "Team admin", coach: "Coach", analyst: "Analyst", player: "Player" };
+export const roleDescriptions: Record<Role, string> = {
+  admin: "Members, roles, invitations and team settings; everything a coach can do.",
+  coach: "All of the team's clips, shots and sticks; shares shots with players.",
+  analyst: "Uploads clips, digitises shots, runs bench tests.",
+  player: "Sees own shots and those shared with them; compares own shots.",
+};
+
+const email = z.string().trim().toLowerCase().email("Enter a valid e-mail address").max(254);
+
+export const InviteBodySchema = z.object({ email, role: RoleSchema });
+export const RoleChangeBodySchema = z.object({ role: RoleSchema });
+export const ActiveTeamBodySchema = z.object({ teamId: z.string().min(1, "Choose a team") });
+export const PasswordSchema = z.string().min(10, "Use at least 10 characters").max(128, "Use at most 128 characters");
+export const AcceptInvitationBodySchema = z.object({
+  name: z.string().trim().min(1, "Enter your name").max(120).optional(),
+  password: PasswordSchema.optional(),
+});
+export const PrefsBodySchema = z
+  .object({
+    units: z.enum(["metric", "imperial"]),
+    notifyClipReady: z.boolean(),
+    notifyShotShared: z.boolean(),
+  })
+  .partial()
+  .strict();
+
+export interface TeamSummary { id: string; name: string; slug: string; role: Role }
+export interface Prefs { units: "metric" | "imperial"; notifyClipReady: boolean; notifyShotShared: boolean }
+export interface MeResponse {
+  user: { id: string; name: string; email: string };
+  prefs: Prefs;
+  teams: TeamSummary[];
+  activeTeamId: string | null;
+}
+export interface MemberRow { id: string; userId: string; name: string; email: string; role: Role; joinedAt: string }
+export interface InvitationRow { id: string; email: string; role: Role; status: string; expiresAt: string; invitedBy: string }
+export interface RosterResponse { members: MemberRow[]; invitations: InvitationRow[] }
+export interface InvitationPublic {
+  id: string; email: string; teamName: string; role: Role; inviterName: string; status: string; expiresAt: string; hasAccount: boolean;
+}
