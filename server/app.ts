@@ -42,7 +42,8 @@ export function createApp() {
       handler: (_req, res) => sendProblem(res, 429, "rate_limited", "Too many attempts. Wait a minute and try again."),
     });
   app.use("/api/auth/sign-in", limiter(10));
-  app.use("/api/teams/:teamId/invitations", (req, res, next) => (req.method === "GET" ? next() : limiter(30)(req, res, next)));
+  const inviteLimiter = limiter(30);
+  app.use("/api/teams/:teamId/invitations", (req, res, next) => (req.method === "GET" ? next() : inviteLimiter(req, res, next)));
 
   // better-auth reads its own body: mount before express.json().
   const authHandler = toNodeHandler(auth());

@@ -3,11 +3,13 @@ import { requireTeamMember } from "./auth/context";
 import { meRouter } from "./me/routes";
 import { invitationRouter, rosterRouter } from "./roster/routes";
 import { auditRouter } from "./audit/routes";
+import { healthRouter } from "./health/routes";
 
 // Every API router, in one list. Team-scoped features mount on `team` and find the caller's
 // role in req.actor (set by requireTeamMember: non-members get 404, so nothing leaks).
 export function apiRouter() {
   const api = Router();
+  api.use(healthRouter);
   api.use("/me", meRouter);
   api.use("/invitations", invitationRouter);
 

@@ -1,0 +1,28 @@
+// Adds up the suites' reports into the one closing line CI reads: "tests: N passed, N failed".
+import fs from "node:fs";
+import path from "node:path";
+
+const dir = process.argv[2];
+const read = (f: string) => (fs.existsSync(path.join(dir, f)) ? fs.readFileSync(path.join(dir, f), "utf8") : null);
+const rows: { suite: string; passed: number; failed: number; skipped: number }[] = [];
+
+const tc = read("typecheck.txt");
+if (tc) {
+  const m = tc.match(/(\d+) passed, (\d+) failed/)!;
+  rows.push({ suite: "typecheck", passed: +m[1], failed: +m[2], skipped: 0 });
+}
+const v = read("vitest.json");
+if (v) {
+  const j = JSON.parse(v);
+  rows.push({ suite: "vitest", passed: j.numPassedTests, failed: j.numFailedTests + (j.numRuntimeErrorTestSuites ?? 0), skipped: j.numPendingTests + j.numTodoTests });
+} else rows.push({ suite: "vitest", passed: 0, failed: 1, skipped: 0 });
+const p = read("playwright.json");
+if (p) {
+  const s = JSON.parse(p).stats;
+  rows.push({ suite: "playwright", passed: s.expected + s.flaky, failed: s.unexpected, skipped: s.skipped });
+} else rows.push({ suite: "playwright", passed: 0, failed: 1, skipped: 0 });
+
+for (const r of rows) console.log(`  ${r.suite.padEnd(11)} ${r.passed} passed, ${r.failed} failed, ${r.skipped} skipped`);
+const t = rows.reduce((a, r) => ({ p: a.p + r.passed, f: a.f + r.failed, s: a.s + r.skipped }), { p: 0, f: 0, s: 0 });
+console.log(`tests: ${t.p} passed, ${t.f} failed, ${t.s} skipped`);
+process.exit(t.f > 0 ? 1 : 0);
