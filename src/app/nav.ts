@@ -1,0 +1,24 @@
+import type { Role } from "@/lib/roles";
+
+/**
+ * The areas in the top navigation, in order. Home shows the same list as cards.
+ * To add an area: add its route in routes.tsx and one entry here.
+ */
+export interface NavItem {
+  to: string;
+  label: string;
+  /** One line for the home page card: what a person gets done there. */
+  description: string;
+  /** Roles that see the link; omitted means every member. The server enforces access regardless. */
+  roles?: readonly Role[];
+}
+
+export const navItems: readonly NavItem[] = [
+  { to: "/clips", label: "Clips", description: "Upload high-frame-rate shot clips and follow each one from upload to frames ready for digitising." },
+  { to: "/sticks", label: "Stick lab", description: "Log sticks, run three-point bench flex tests and keep each stick's stiffness history." },
+  { to: "/progress", label: "Progress", description: "Follow one player's puck exit speed, blade speed and timing across sessions." },
+  { to: "/compare", label: "Side by side", description: "Put two shots next to each other, synced at puck strike." },
+  { to: "/roster", label: "Roster", description: "Invite members, set their roles and manage pending invitations.", roles: ["admin"] },
+];
+
+export const visibleNav = (role: Role | undefined) => navItems.filter((i) => !i.roles || (role !== undefined && i.roles.includes(role)));

@@ -1,0 +1,59 @@
+import type { RouteObject } from "react-router-dom";
+import { ComingNext } from "./ComingNext";
+import { NotFound } from "./NotFound";
+
+/**
+ * Pages inside the signed-in layout (top bar, team switcher, nav). Each real page is a lazy route
+ * module under src/features/<area>/routes/ that exports `Component` (and, if it wants, `loader`,
+ * `ErrorBoundary`, `handle`). To add an area: put its route here and its link in nav.ts.
+ */
+export const signedInRoutes: RouteObject[] = [
+  { index: true, handle: { title: "Home" }, lazy: () => import("@/features/home/routes/HomePage") },
+  {
+    path: "clips",
+    handle: { title: "Clips" },
+    element: (
+      <ComingNext title="Clips">
+        The team's clip library: upload high-frame-rate shot video with its capture frame rate and camera notes, watch each clip through frame
+        extraction, and filter by session and player.
+      </ComingNext>
+    ),
+  },
+  {
+    path: "sticks",
+    handle: { title: "Stick lab" },
+    element: (
+      <ComingNext title="Stick lab">
+        Every stick with its rated flex, length, curve and lie; three-point bench flex tests with the fitted stiffness and % of rated; each
+        stick's stiffness history; and a beam model of the shaft under load.
+      </ComingNext>
+    ),
+  },
+  {
+    path: "progress",
+    handle: { title: "Progress" },
+    element: (
+      <ComingNext title="Progress">
+        One player's results over sessions: puck exit speed, blade speed at strike, peak bend and timing, each with its uncertainty.
+      </ComingNext>
+    ),
+  },
+  {
+    path: "compare",
+    handle: { title: "Side by side" },
+    element: (
+      <ComingNext title="Side by side">
+        Two shots next to each other, synced at puck strike, with their numbers lined up so the differences are easy to see.
+      </ComingNext>
+    ),
+  },
+  { path: "roster", handle: { title: "Roster" }, lazy: () => import("@/features/roster/routes/RosterPage") },
+  { path: "*", handle: { title: "Not found" }, element: <NotFound /> },
+];
+
+/** Pages anyone can open, signed in or not. */
+export const publicRoutes: RouteObject[] = [
+  { path: "forgot-password", handle: { title: "Forgot password" }, lazy: () => import("@/features/auth/routes/ForgotPasswordPage") },
+  { path: "reset-password", handle: { title: "Choose a new password" }, lazy: () => import("@/features/auth/routes/ResetPasswordPage") },
+  { path: "invite/:id", handle: { title: "Invitation" }, lazy: () => import("@/features/auth/routes/AcceptInvitePage") },
+];

@@ -1,0 +1,4 @@
+export * from "./types";
+export * from "./me";
+export * from "./setActiveTeam";
+export * from "./updatePrefs";
