@@ -9,6 +9,7 @@ import { env } from "./env";
 import { requestLog } from "./log";
 import { problemHandler, sendProblem } from "./http/problem";
 import { apiRouter } from "./routes";
+import { mountRawRoutes } from "./raw-routes";
 
 export function createApp() {
   const e = env();
@@ -49,6 +50,7 @@ export function createApp() {
   const authHandler = toNodeHandler(auth());
   app.all("/api/auth/*splat", (req, res) => void authHandler(req, res));
 
+  mountRawRoutes(app);
   app.use("/api", express.json({ limit: "2mb" }));
   app.use("/api", apiRouter());
   app.use("/api", (_req, res) => sendProblem(res, 404, "not_found", "No such API route."));

@@ -4,6 +4,10 @@ import { meRouter } from "./me/routes";
 import { invitationRouter, rosterRouter } from "./roster/routes";
 import { auditRouter } from "./audit/routes";
 import { healthRouter } from "./health/routes";
+import { clipsRouter } from "./clips/routes";
+import { shotsRouter } from "./shots/routes";
+import { sticksRouter } from "./sticks/routes";
+import { readoutRouter } from "./readout/routes";
 
 // Every API router, in one list. Team-scoped features mount on `team` and find the caller's
 // role in req.actor (set by requireTeamMember: non-members get 404, so nothing leaks).
@@ -17,6 +21,10 @@ export function apiRouter() {
   team.use(requireTeamMember);
   team.use(rosterRouter);
   team.use(auditRouter);
+  team.use(clipsRouter);
+  team.use(shotsRouter);
+  team.use(sticksRouter);
+  team.use(readoutRouter);
   api.use("/teams/:teamId", team);
   return api;
 }

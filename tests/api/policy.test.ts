@@ -16,7 +16,7 @@ beforeAll(async () => {
   world = await seedWorld();
   for (const r of ["admin", "coach", "analyst", "player"] as const) as[r] = await new Client(srv.url).signIn(EMAILS[r]);
   as.outsider = await new Client(srv.url).signIn(world.outsiderEmail);
-  ctx = { teamId: world.teamId, otherTeamId: world.otherTeamId, ids: {}, admin: as.admin! };
+  ctx = { teamId: world.teamId, otherTeamId: world.otherTeamId, ids: {}, admin: as.admin!, users: world.users };
 });
 afterAll(() => srv.close());
 

@@ -9,6 +9,8 @@ export interface Ctx {
   /** Resources created by fixture(), by name. */
   ids: Record<string, string>;
   admin: Client;
+  /** Demo user ids by e-mail (see server/seed/demo-people.ts). */
+  users: Record<string, string>;
 }
 
 export interface RouteCase {
@@ -44,7 +46,14 @@ async function spareMemberFixture(c: Ctx) {
   return { memberId: members.find((m: { email: string }) => m.email === inv.email).id };
 }
 
-export const routeTable: RouteCase[] = [
+import { clipsRoutes } from "./routes/clips";
+import { shotsRoutes } from "./routes/shots";
+import { sticksRoutes } from "./routes/sticks";
+import { readoutRoutes } from "./routes/readout";
+
+export const ALL_ROLES = ALL, STAFF_ROLES = STAFF, ADMIN_ONLY = ADMIN;
+
+const coreRoutes: RouteCase[] = [
   { name: "me", method: "GET", path: () => "/api/me", allowed: ALL },
   { name: "prefs", method: "PATCH", path: () => "/api/me/prefs", body: () => ({ units: "metric" }), allowed: ALL },
   { name: "switch team", method: "PUT", path: () => "/api/me/active-team", body: (c) => ({ teamId: c.teamId }), allowed: ALL },
@@ -56,3 +65,5 @@ export const routeTable: RouteCase[] = [
   { name: "remove member", method: "DELETE", path: (c) => `/api/teams/${c.teamId}/members/${c.ids.memberId}`, allowed: ADMIN, teamScoped: true, fixture: spareMemberFixture },
   { name: "audit log", method: "GET", path: (c) => `/api/teams/${c.teamId}/audit`, allowed: ADMIN, teamScoped: true },
 ];
+
+export const routeTable: RouteCase[] = [...coreRoutes, ...clipsRoutes, ...shotsRoutes, ...sticksRoutes, ...readoutRoutes];
