@@ -115,16 +115,16 @@ export function solveBeam(input: BeamInput, options: BeamOptions = {}): BeamResu
   const maxMoment = extreme(m.breaks, m.moment);
   const maxShear = extreme(m.breaks, (x) => m.shear(x, true));
   let maxDeflection: { x: number; v: number } | undefined;
+  // Every peak of the deflected shape is a station, so a drawing or a reader finds them exactly.
+  const peaks: number[] = [];
   if (m.deflection) {
-    const candidates = [...m.breaks];
-    for (let i = 0; i + 1 < m.breaks.length; i++) candidates.push(...slopeRoots(m, m.breaks[i], m.breaks[i + 1]));
-    candidates.sort((a, b) => a - b);
-    maxDeflection = extreme(candidates, m.deflection);
+    for (let i = 0; i + 1 < m.breaks.length; i++) peaks.push(...slopeRoots(m, m.breaks[i], m.breaks[i + 1]));
+    maxDeflection = extreme([...m.breaks, ...peaks].sort((a, b) => a - b), m.deflection);
   }
 
   // Stations in mm; force points carry a left and a right value of the shear.
   const forceXs = new Set(m.forces.map((f) => f.s));
-  const exact = maxDeflection ? [...m.breaks, maxDeflection.x] : m.breaks;
+  const exact = [...m.breaks, ...peaks];
   const regular: number[] = [];
   for (let k = 1; k * step < input.lengthMm; k++) {
     const x = (k * step) / 1000;

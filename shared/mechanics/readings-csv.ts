@@ -163,7 +163,7 @@ export function parseReadingsCsv(input: string | Uint8Array): ParsedReadings {
   for (const { record, info } of body) {
     const line = info.lines;
     if (record.length !== header.length)
-      fail(`line ${line} has ${record.length} cells but the header has ${header.length}`, line);
+      fail(`line ${line} has ${record.length} cell${record.length === 1 ? "" : "s"} but the header has ${header.length}`, line);
     raw.push({
       load: numberCell(record[load.index], line, load.name),
       deflection: numberCell(record[deflection.index], line, deflection.name),
