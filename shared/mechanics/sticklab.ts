@@ -6,6 +6,7 @@ export * from "./bench-fit-line";
 export * from "./bench-fit-flags";
 export * from "./bench-fit-normalise";
 export * from "./bench-fit";
+export * from "./bench-fit-history";
 export * from "./beam-input";
 export * from "./beam";
 export * from "./beam-from-shot";

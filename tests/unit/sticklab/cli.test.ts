@@ -33,7 +33,8 @@ const oneLineFailure = (r: Run, pattern: RegExp) => {
   expect(r.stderr).toMatch(pattern);
 };
 
-describe.concurrent("flex command", () => {
+// Each spawn starts npm, node and tsx (about half a second, more on a busy machine).
+describe.concurrent("flex command", { timeout: 30_000 }, () => {
   it("[CP] 85 lbf at 1.00 in: prints 85 flex and 100 % of an 85 rating", async () => {
     const csv = file("cp85.csv", "load_lbf,deflection_in\n21.25,0.25\n42.5,0.50\n63.75,0.75\n85,1.00\n");
     const r = await run("flex", [csv, "--rated", "85"]);
@@ -65,9 +66,14 @@ describe.concurrent("flex command", () => {
   });
 
   it("bad CSV: one line on stderr naming row and column, non-zero exit", async () => {
-    oneLineFailure(await run("flex", [file("text.csv", "load_lbf,deflection_in\n10,0.1\nten,0.2\n30,0.3\n")]), /^flex: .*text\.csv: line 3, column load_lbf: "ten" is not a number$/m);
-    oneLineFailure(await run("flex", [file("units.csv", "load_kg,deflection_in\n1,1\n2,2\n3,3\n")]), /unknown unit "kg"/);
-    oneLineFailure(await run("flex", [file("empty.csv", "")]), /the file is empty/);
+    const [text, units, empty] = await Promise.all([
+      run("flex", [file("text.csv", "load_lbf,deflection_in\n10,0.1\nten,0.2\n30,0.3\n")]),
+      run("flex", [file("units.csv", "load_kg,deflection_in\n1,1\n2,2\n3,3\n")]),
+      run("flex", [file("empty.csv", "")]),
+    ]);
+    oneLineFailure(text, /^flex: .*text\.csv: line 3, column load_lbf: "ten" is not a number$/m);
+    oneLineFailure(units, /unknown unit "kg"/);
+    oneLineFailure(empty, /the file is empty/);
   });
 
   it("a file over the size limit is refused without reading it", async () => {
@@ -75,15 +81,23 @@ describe.concurrent("flex command", () => {
   });
 
   it("usage errors: no file, a missing file, a bad option value", async () => {
-    oneLineFailure(await run("flex", []), /give exactly one readings CSV file/);
-    oneLineFailure(await run("flex", [path.join(dir, "absent.csv")]), /cannot read .*absent\.csv: no such file/);
-    oneLineFailure(await run("flex", [fixture("used-85-stick.csv"), "--rated", "lots"]), /--rated must be a number greater than zero/);
-    oneLineFailure(await run("flex", [fixture("used-85-stick.csv"), "--span-mm", "1000", "--load-point-mm", "1200"]), /load point must lie between the supports/);
-    oneLineFailure(await run("flex", [fixture("used-85-stick.csv"), "--colour"]), /Unknown option/);
+    const used = fixture("used-85-stick.csv");
+    const runs = await Promise.all([
+      run("flex", []),
+      run("flex", [path.join(dir, "absent.csv")]),
+      run("flex", [used, "--rated", "lots"]),
+      run("flex", [used, "--span-mm", "1000", "--load-point-mm", "1200"]),
+      run("flex", [used, "--colour"]),
+    ]);
+    oneLineFailure(runs[0], /give exactly one readings CSV file/);
+    oneLineFailure(runs[1], /cannot read .*absent\.csv: no such file/);
+    oneLineFailure(runs[2], /--rated must be a number greater than zero/);
+    oneLineFailure(runs[3], /load point must lie between the supports/);
+    oneLineFailure(runs[4], /Unknown option/);
   });
 });
 
-describe.concurrent("beam command", () => {
+describe.concurrent("beam command", { timeout: 30_000 }, () => {
   it("the worked example, off-centre (REFERENCES.md, pickedshares.com calc)", async () => {
     const r = await run("beam", [fixture("beam-off-centre.json")]);
     expect(r.code).toBe(0);
@@ -108,10 +122,17 @@ describe.concurrent("beam command", () => {
 
   it("bad beams: one line on stderr, non-zero exit", async () => {
     const bad = (name: string, v: unknown) => file(name, JSON.stringify(v));
-    oneLineFailure(await run("beam", [bad("order.json", { lengthMm: 1000, supportsMm: [900, 100], loads: [{ xMm: 500, forceN: 1 }] })]), /supports must be in order/);
-    oneLineFailure(await run("beam", [bad("outside.json", { lengthMm: 1000, supportsMm: [0, 1000], loads: [{ xMm: 1200, forceN: 1 }] })]), /outside the stick/);
-    oneLineFailure(await run("beam", [bad("ei.json", { lengthMm: 1000, supportsMm: [0, 1000], loads: [{ xMm: 500, forceN: 1 }], eiNm2: -1 })]), /eiNm2/);
-    oneLineFailure(await run("beam", [file("broken.json", "{ lengthMm: 1000")]), /is not valid JSON/);
-    oneLineFailure(await run("beam", [fixture("beam-off-centre.json"), "--step-mm", "0"]), /--step-mm must be a number greater than zero/);
+    const runs = await Promise.all([
+      run("beam", [bad("order.json", { lengthMm: 1000, supportsMm: [900, 100], loads: [{ xMm: 500, forceN: 1 }] })]),
+      run("beam", [bad("outside.json", { lengthMm: 1000, supportsMm: [0, 1000], loads: [{ xMm: 1200, forceN: 1 }] })]),
+      run("beam", [bad("ei.json", { lengthMm: 1000, supportsMm: [0, 1000], loads: [{ xMm: 500, forceN: 1 }], eiNm2: -1 })]),
+      run("beam", [file("broken.json", "{ lengthMm: 1000")]),
+      run("beam", [fixture("beam-off-centre.json"), "--step-mm", "0"]),
+    ]);
+    oneLineFailure(runs[0], /supports must be in order/);
+    oneLineFailure(runs[1], /outside the stick/);
+    oneLineFailure(runs[2], /eiNm2/);
+    oneLineFailure(runs[3], /is not valid JSON/);
+    oneLineFailure(runs[4], /--step-mm must be a number greater than zero/);
   });
 });
