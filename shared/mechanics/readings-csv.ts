@@ -139,6 +139,8 @@ export function parseReadingsCsv(input: string | Uint8Array): ParsedReadings {
     records = parse(text, {
       bom: true,
       skip_empty_lines: true,
+      // Spreadsheets often save trailing rows of bare commas.
+      skip_records_with_empty_values: true,
       trim: true,
       relax_column_count: true,
       comment: "#",

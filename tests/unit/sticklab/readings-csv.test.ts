@@ -36,6 +36,10 @@ describe("parseReadingsCsv: good files", () => {
     expect(p.lines[0]).toBe(3);
   });
 
+  it("skips the rows of bare commas a spreadsheet leaves at the end", () => {
+    expect(parseReadingsCsv("load_n,deflection_mm\n10,1\n20,2\n30,3\n,\n,\n").readings).toHaveLength(3);
+  });
+
   it("takes a byte-order mark, CRLF line ends, mixed-case headers and exponents", () => {
     const p = parseReadingsCsv("\uFEFF Load_N , DEFLECTION_MM\r\n1e1,1\r\n20,2.0\r\n\r\n3.0E1,3\r\n");
     expect(p.readings.map((r) => r.loadN)).toEqual([10, 20, 30]);
