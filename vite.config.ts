@@ -17,9 +17,10 @@ export default defineConfig({
     host: "127.0.0.1",
     port: 5173,
     strictPort: true,
-    proxy: { "/api": { target: "http://127.0.0.1:3000", changeOrigin: false } },
+    proxy: { "/api": { target: "http://127.0.0.1:3000" } },
   },
-  preview: { host: "127.0.0.1", port: 4173, strictPort: true },
+  // `vite preview` serves the built dist/ with the same /api forwarding, for checking a build.
+  preview: { host: "127.0.0.1", port: 4173, strictPort: true, proxy: { "/api": { target: "http://127.0.0.1:3000" } } },
   worker: { format: "es" },
   build: { outDir: "dist", emptyOutDir: true, sourcemap: true },
 });

@@ -8,16 +8,18 @@ export interface FormatOptions {
   digits?: number;
   /** Leave the unit off (e.g. in a column whose header carries it). */
   bare?: boolean;
+  /** Defaults to the browser's locale. */
+  locale?: string;
 }
 
-const nf = (digits: number) =>
-  new Intl.NumberFormat(undefined, { minimumFractionDigits: digits, maximumFractionDigits: digits });
+const nf = (digits: number, locale?: string) =>
+  new Intl.NumberFormat(locale, { minimumFractionDigits: digits, maximumFractionDigits: digits });
 
 /** Formats an SI value for the chosen system, e.g. formatQuantity("speed", 40, "metric") → "144.0 km/h". */
 export function formatQuantity(q: Quantity, si: number | null | undefined, system: UnitSystem, opts: FormatOptions = {}): string {
   if (si === null || si === undefined || !Number.isFinite(si)) return "—";
   const { value, unit } = toDisplay(q, si, system);
-  const text = nf(opts.digits ?? DEFAULT_DIGITS[q]).format(value);
+  const text = nf(opts.digits ?? DEFAULT_DIGITS[q], opts.locale).format(value);
   return opts.bare ? text : `${text} ${unit}`;
 }
 
@@ -35,7 +37,8 @@ export function formatWithUncertainty(
   const v = toDisplay(q, si, system);
   // Conversions here are linear, so the uncertainty scales by the same factor as the value.
   const u = Math.abs(toDisplay(q, siUncertainty, system).value);
-  const text = `${nf(digits).format(v.value)} ± ${nf(digits).format(u)}`;
+  const f = nf(digits, opts.locale);
+  const text = `${f.format(v.value)} ± ${f.format(u)}`;
   return opts.bare ? text : `${text} ${v.unit}`;
 }
 

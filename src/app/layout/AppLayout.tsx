@@ -1,7 +1,8 @@
 import { useEffect } from "react";
-import { NavLink, Outlet, useMatches, useNavigation } from "react-router-dom";
+import { Navigate, NavLink, Outlet, useLocation, useMatches, useNavigation } from "react-router-dom";
 import { cn } from "@/lib/cn";
-import { useActiveTeam } from "@/lib/session";
+import { useActiveTeam, useMe } from "@/lib/session";
+import { signInUrl } from "../guards";
 import { visibleNav } from "../nav";
 import { Brand } from "./Brand";
 import { TeamSwitcher } from "./TeamSwitcher";
@@ -17,9 +18,14 @@ export function useDocumentTitle() {
 }
 
 export function AppLayout() {
+  const { data: me } = useMe();
   const team = useActiveTeam();
   const navigation = useNavigation();
+  const location = useLocation();
   useDocumentTitle();
+
+  // The loader checked the session on the way in; this catches it ending while the page is open.
+  if (!me) return <Navigate to={signInUrl(location.pathname + location.search)} replace />;
 
   return (
     <div className="flex min-h-dvh flex-col">
@@ -27,9 +33,9 @@ export function AppLayout() {
         Skip to content
       </a>
       <header className="sticky top-0 z-30 border-b border-line bg-surface/95 backdrop-blur">
-        <div className="mx-auto flex h-16 max-w-7xl items-center gap-4 px-4 sm:px-6">
+        <div className="mx-auto flex h-16 max-w-7xl items-center gap-3 px-4 sm:gap-4 sm:px-6">
           <Brand />
-          <span aria-hidden className="h-6 w-px bg-line" />
+          <span aria-hidden className="hidden h-6 w-px bg-line sm:block" />
           <TeamSwitcher />
           <div className="flex-1" />
           <UserMenu />

@@ -28,8 +28,9 @@ export function TeamSwitcher() {
 
   return (
     <Menu
+      className="min-w-0"
       triggerLabel={`Team: ${active.name}, ${roleLabel[active.role]}. Switch team`}
-      triggerClassName="flex h-10 max-w-72 items-center gap-2.5 rounded-lg border border-line bg-surface pr-2.5 pl-3 text-left hover:border-line-strong hover:bg-sunken/60"
+      triggerClassName="flex h-10 min-w-0 max-w-72 items-center gap-2.5 rounded-lg border border-line bg-surface pr-2.5 pl-3 text-left hover:border-line-strong hover:bg-sunken/60"
       trigger={
         <>
           <span className="min-w-0 leading-tight">
@@ -55,6 +56,7 @@ export function TeamSwitcher() {
           </span>
         </MenuItem>
       ))}
+      <p className="mx-3 mt-1.5 mb-1 border-t border-line pt-2 text-xs text-ink-muted">Each team's clips, shots and sticks stay inside that team.</p>
     </Menu>
   );
 }

@@ -10,10 +10,11 @@ export function useSignOut() {
   return useMutation({
     mutationFn: signOut,
     meta: { authRedirect: false },
-    // Whatever the server said, nothing of the old session stays in this tab.
+    // Whatever the server said, nothing of the old session stays in this tab. (Not qc.clear():
+    // that would also drop this mutation before the caller's own onSettled has run.)
     onSettled: () => {
-      qc.clear();
       qc.setQueryData(meKey, null);
+      qc.removeQueries({ predicate: (q) => q.queryKey[0] !== meKey[0] });
     },
   });
 }

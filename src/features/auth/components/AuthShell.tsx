@@ -20,12 +20,15 @@ const points = [
 export function AuthShell({ title, description, children, footer }: AuthShellProps) {
   return (
     <div className="grid min-h-dvh lg:grid-cols-[minmax(0,5fr)_minmax(0,7fr)]">
-      <aside className="relative hidden overflow-hidden bg-accent-strong px-12 py-12 text-white lg:flex lg:flex-col">
+      <aside className="hidden bg-accent-strong px-12 py-12 text-white lg:flex lg:flex-col">
         <Link to="/" className="flex items-center gap-3">
           <BrandMark className="size-9 ring-1 ring-white/25 rounded-[7px]" />
           <span className="text-xl font-semibold tracking-tight">Loadframe</span>
         </Link>
-        <div className="mt-auto max-w-md">
+        <div aria-hidden className="flex flex-1 items-center py-10">
+          <BendSketch />
+        </div>
+        <div className="max-w-md">
           <p className="text-3xl leading-tight font-semibold tracking-tight">Shot video and stick tests, turned into numbers your team can trust.</p>
           <ul className="mt-8 space-y-4">
             {points.map((p) => (
@@ -36,7 +39,6 @@ export function AuthShell({ title, description, children, footer }: AuthShellPro
             ))}
           </ul>
         </div>
-        <BendSketch />
       </aside>
 
       <main className="flex flex-col items-center justify-center px-4 py-12 sm:px-8">
@@ -60,7 +62,7 @@ export function AuthShell({ title, description, children, footer }: AuthShellPro
 /** A faint deflection sketch in the panel's corner: a shaft bent between two supports. */
 function BendSketch() {
   return (
-    <svg aria-hidden viewBox="0 0 400 160" className="pointer-events-none absolute -top-2 right-[-60px] w-[460px] opacity-[0.13]" fill="none" stroke="#fff">
+    <svg viewBox="0 0 400 160" className="w-full max-w-md opacity-[0.18]" fill="none" stroke="#fff">
       <path d="M20 60 Q200 130 380 60" strokeWidth="6" strokeLinecap="round" />
       <path d="M20 60 L380 60" strokeWidth="1.5" strokeDasharray="6 8" />
       <path d="M200 8v70" strokeWidth="4" strokeLinecap="round" />

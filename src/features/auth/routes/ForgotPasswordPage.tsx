@@ -16,15 +16,15 @@ export function Component() {
 
   return (
     <AuthShell
-      title="Forgot your password?"
-      description="Enter the e-mail you sign in with and we'll send a link to choose a new password."
+      title={sentTo ? "Check your inbox" : "Forgot your password?"}
+      description={sentTo ? undefined : "Enter the e-mail you sign in with and we'll send a link to choose a new password."}
       footer={<TextLink to="/sign-in">Back to sign in</TextLink>}
     >
       {sentTo ? (
         <div className="flex flex-col gap-5">
-          <Alert tone="ok" title="Check your inbox">
-            If an account exists for <strong className="font-semibold">{sentTo}</strong>, a link is on its way. It works once and expires after a
-            while; look in the spam folder if nothing arrives in a few minutes.
+          <Alert tone="ok">
+            If an account exists, a link is on its way to <strong className="font-semibold">{sentTo}</strong>. It works once and expires after an
+            hour; look in the spam folder if nothing arrives within a few minutes.
           </Alert>
           <Button variant="secondary" onClick={() => request.reset()}>
             Use a different e-mail

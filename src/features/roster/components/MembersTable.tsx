@@ -22,7 +22,6 @@ export function MembersTable({ teamId, teamName, members, myUserId }: Props) {
   const changeRole = useChangeRole(teamId);
   const remove = useRemoveMember(teamId);
   const [pending, setPending] = useState<Pending>(null);
-  const admins = members.filter((m) => m.role === "admin").length;
 
   const applyRole = (member: Member, role: Role) =>
     changeRole.mutate(
@@ -69,6 +68,7 @@ export function MembersTable({ teamId, teamName, members, myUserId }: Props) {
                 <Td>
                   <RoleSelect
                     compact
+                    className="min-w-36"
                     aria-label={`Role of ${m.name}`}
                     value={busy ? changeRole.variables!.role : m.role}
                     disabled={me || busy}
@@ -78,9 +78,7 @@ export function MembersTable({ teamId, teamName, members, myUserId }: Props) {
                 </Td>
                 <Td className="hidden text-ink-muted md:table-cell">{formatDate(m.joinedAt)}</Td>
                 <Td className="text-right">
-                  {me ? (
-                    <span className="text-xs text-ink-faint">{m.role === "admin" && admins === 1 ? "Only team admin" : ""}</span>
-                  ) : (
+                  {me ? null : (
                     <Button variant="ghost-danger" size="sm" onClick={() => setPending({ kind: "remove", member: m })}>
                       Remove
                     </Button>

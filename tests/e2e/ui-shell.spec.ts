@@ -1,0 +1,103 @@
+import { expect, test, type Page } from "@playwright/test";
+import { DEMO_PASSWORD, DEMO_SECOND_TEAM, DEMO_TEAM, demoPeople } from "../../server/seed/demo-people";
+
+// The client shell against the real server and its seeded demo club: session guard, sign-in
+// messages, team switcher, units preference, role-dependent navigation, sign-out.
+
+const person = (role: string) => demoPeople.find((p) => p.role === role)!;
+
+async function signIn(page: Page, email: string, password = DEMO_PASSWORD) {
+  await page.getByLabel("E-mail").fill(email);
+  await page.getByLabel("Password").fill(password);
+  await page.getByRole("button", { name: "Sign in" }).click();
+}
+
+async function switchTeam(page: Page, name: string) {
+  await page.getByRole("button", { name: /Switch team/ }).click();
+  // An item reads "<team> <role>"; anchor both ends so "Ravens" does not also match "Ravens U16".
+  await page.getByRole("menuitemradio", { name: new RegExp(`^${name} (Team admin|Coach|Analyst|Player)$`) }).click();
+  await expect(page.getByRole("button", { name: new RegExp(`Team: ${name},`) })).toBeVisible();
+}
+
+test("a signed-out visit goes to sign-in, shows the server's message for a wrong password, then returns to the page", async ({ page }) => {
+  await page.goto("/roster");
+  await expect(page).toHaveURL(/\/sign-in\?next=%2Froster$/);
+
+  await signIn(page, person("admin").email, "not-the-password");
+  const alert = page.getByRole("alert").filter({ hasText: /password/i });
+  await expect(alert).toBeVisible();
+  await expect(page).toHaveURL(/\/sign-in/);
+
+  await signIn(page, "nobody-here@ravens.example");
+  await expect(alert).toBeVisible();
+
+  await signIn(page, person("admin").email);
+  await expect(page).toHaveURL(/\/roster$/);
+  await expect(page.getByRole("heading", { name: "Members" })).toBeVisible();
+});
+
+test("the team switcher lists every team with its role and switching changes what the pages show", async ({ page }) => {
+  const admin = person("admin");
+  await page.goto("/sign-in");
+  await signIn(page, admin.email);
+  await page.getByRole("button", { name: /Switch team/ }).click();
+  const items = page.getByRole("menuitemradio");
+  await expect(items).toHaveCount(2);
+  await expect(items.filter({ hasText: DEMO_TEAM.name }).first()).toHaveAttribute("aria-checked", "true");
+  await expect(items.filter({ hasText: "Team admin" })).toHaveCount(2);
+  await page.keyboard.press("Escape");
+
+  // The analyst belongs to the first team only, so the second team's roster must not list them.
+  const onlyFirst = demoPeople.find((p) => !p.alsoU16)!;
+  await page.goto("/roster");
+  await expect(page.getByRole("cell", { name: new RegExp(onlyFirst.email) })).toBeVisible();
+  await switchTeam(page, DEMO_SECOND_TEAM.name);
+  await expect(page.getByText(`people in ${DEMO_SECOND_TEAM.name}`)).toBeVisible();
+  await expect(page.getByRole("cell", { name: new RegExp(onlyFirst.email) })).toHaveCount(0);
+
+  // The choice is kept by the server, not just this tab.
+  await page.reload();
+  await expect(page.getByRole("button", { name: new RegExp(`Team: ${DEMO_SECOND_TEAM.name},`) })).toBeVisible();
+  await switchTeam(page, DEMO_TEAM.name);
+});
+
+test("the units choice is saved and survives a reload", async ({ page }) => {
+  await page.goto("/sign-in");
+  await signIn(page, person("coach").email);
+  await page.getByRole("button", { name: /Account:/ }).click();
+  await page.getByRole("menuitemradio", { name: /Imperial/ }).click();
+  await expect(page.getByRole("menuitemradio", { name: /Imperial/ })).toHaveAttribute("aria-checked", "true");
+
+  await page.reload();
+  await page.getByRole("button", { name: /Account:/ }).click();
+  await expect(page.getByRole("menuitemradio", { name: /Imperial/ })).toHaveAttribute("aria-checked", "true");
+  await page.getByRole("menuitemradio", { name: /Metric/ }).click();
+  await expect(page.getByRole("menuitemradio", { name: /Metric/ })).toHaveAttribute("aria-checked", "true");
+});
+
+test("a player sees no Roster link and a plain explanation if they open it anyway", async ({ page }) => {
+  await page.goto("/sign-in");
+  await signIn(page, person("player").email);
+  const nav = page.getByRole("navigation", { name: "Areas" });
+  await expect(nav.getByRole("link", { name: "Clips" })).toBeVisible();
+  await expect(nav.getByRole("link", { name: "Roster" })).toHaveCount(0);
+  await page.goto("/roster");
+  await expect(page.getByText("The roster is kept by team admins")).toBeVisible();
+});
+
+test("signing out ends the session: signed-in pages send back to sign-in", async ({ page }) => {
+  await page.goto("/sign-in");
+  await signIn(page, person("analyst").email);
+  await expect(page.getByRole("heading", { name: /Welcome back/ })).toBeVisible();
+  await page.getByRole("button", { name: /Account:/ }).click();
+  await page.getByRole("menuitem", { name: "Sign out" }).click();
+  await expect(page).toHaveURL(/\/sign-in$/);
+  await page.goto("/progress");
+  await expect(page).toHaveURL(/\/sign-in\?next=%2Fprogress$/);
+});
+
+test("an unknown invitation link says so instead of showing a form", async ({ page }) => {
+  await page.goto("/invite/not-a-real-invitation");
+  await expect(page.getByRole("heading", { name: "This invitation link isn't valid" })).toBeVisible();
+  await expect(page.getByLabel("Password")).toHaveCount(0);
+});
