@@ -1,0 +1,169 @@
+// Stick lab rows: sticks, bench tests, the team's alert level, and the shots taken with a stick.
+// Drizzle only; the rules live in service.ts. Every query names the team.
+import { and, asc, desc, eq, inArray, isNotNull, sql } from "drizzle-orm";
+import { db } from "../db/client";
+import { benchTest, clip, member, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../db/schema";
+
+export type StickRecord = typeof stick.$inferSelect;
+export type BenchTestRecord = typeof benchTest.$inferSelect;
+type StickValues = Omit<typeof stick.$inferInsert, "id" | "teamId" | "createdAt">;
+type BenchTestValues = Omit<typeof benchTest.$inferInsert, "id" | "createdAt">;
+
+export async function sticksOf(teamId: string, ownerId?: string) {
+  return db()
+    .select({ stick, ownerName: user.name })
+    .from(stick)
+    .leftJoin(user, eq(user.id, stick.ownerId))
+    .where(ownerId === undefined ? eq(stick.teamId, teamId) : and(eq(stick.teamId, teamId), eq(stick.ownerId, ownerId)))
+    .orderBy(asc(stick.label));
+}
+
+export async function stickById(teamId: string, stickId: string) {
+  const [row] = await db()
+    .select({ stick, ownerName: user.name })
+    .from(stick)
+    .leftJoin(user, eq(user.id, stick.ownerId))
+    .where(and(eq(stick.teamId, teamId), eq(stick.id, stickId)));
+  return row ?? null;
+}
+
+export async function stickByLabel(teamId: string, label: string) {
+  const [row] = await db().select().from(stick).where(and(eq(stick.teamId, teamId), eq(stick.label, label)));
+  return row ?? null;
+}
+
+export async function insertStick(teamId: string, values: StickValues) {
+  const [row] = await db().insert(stick).values({ ...values, teamId }).returning();
+  return row;
+}
+
+export async function updateStick(teamId: string, stickId: string, values: Partial<StickValues>) {
+  const [row] = await db().update(stick).set(values).where(and(eq(stick.teamId, teamId), eq(stick.id, stickId))).returning();
+  return row ?? null;
+}
+
+export async function deleteStick(teamId: string, stickId: string) {
+  await db().delete(stick).where(and(eq(stick.teamId, teamId), eq(stick.id, stickId)));
+}
+
+export async function benchTestsOf(teamId: string, stickIds: readonly string[]) {
+  if (stickIds.length === 0) return [];
+  return db()
+    .select({ test: benchTest, createdByName: user.name })
+    .from(benchTest)
+    .leftJoin(user, eq(user.id, benchTest.createdBy))
+    .where(and(eq(benchTest.teamId, teamId), inArray(benchTest.stickId, [...stickIds])))
+    .orderBy(asc(benchTest.testedOn), asc(benchTest.createdAt));
+}
+
+export async function benchTestById(teamId: string, stickId: string, testId: string) {
+  const [row] = await db()
+    .select({ test: benchTest, createdByName: user.name })
+    .from(benchTest)
+    .leftJoin(user, eq(user.id, benchTest.createdBy))
+    .where(and(eq(benchTest.teamId, teamId), eq(benchTest.stickId, stickId), eq(benchTest.id, testId)));
+  return row ?? null;
+}
+
+export async function insertBenchTest(values: BenchTestValues) {
+  const [row] = await db().insert(benchTest).values(values).returning();
+  return row;
+}
+
+export async function deleteBenchTest(teamId: string, testId: string) {
+  await db().delete(benchTest).where(and(eq(benchTest.teamId, teamId), eq(benchTest.id, testId)));
+}
+
+export async function flexAlertPercentOf(teamId: string): Promise<number | null> {
+  const [row] = await db().select({ p: teamSettings.flexAlertPercent }).from(teamSettings).where(eq(teamSettings.teamId, teamId));
+  return row?.p ?? null;
+}
+
+export async function setFlexAlertPercent(teamId: string, flexAlertPercent: number) {
+  await db()
+    .insert(teamSettings)
+    .values({ teamId, flexAlertPercent })
+    .onConflictDoUpdate({ target: teamSettings.teamId, set: { flexAlertPercent } });
+}
+
+/** Members of the team whose role is player. */
+export async function playersOf(teamId: string) {
+  const rows = await db()
+    .select({ id: user.id, name: user.name, role: member.role })
+    .from(member)
+    .innerJoin(user, eq(user.id, member.userId))
+    .where(eq(member.organizationId, teamId))
+    .orderBy(asc(user.name));
+  return rows.filter((r) => r.role.split(",")[0]?.trim() === "player").map(({ id, name }) => ({ id, name }));
+}
+
+// A shot's day: its session's date when the clip has one, else the day the shot was made.
+const shotDay = sql<string>`coalesce(${trainingSession.date}, (${shot.createdAt} at time zone 'UTC')::date)::text`;
+
+/** Shots taken with each stick, for the list's counts. */
+export async function shotCountsOf(teamId: string, stickIds: readonly string[]) {
+  if (stickIds.length === 0) return new Map<string, number>();
+  const rows = await db()
+    .select({ stickId: shot.stickId, n: sql<number>`count(*)::int` })
+    .from(shot)
+    .where(and(eq(shot.teamId, teamId), inArray(shot.stickId, [...stickIds])))
+    .groupBy(shot.stickId);
+  return new Map(rows.map((r) => [r.stickId!, r.n]));
+}
+
+export async function shotsByDateOf(teamId: string, stickId: string) {
+  return db()
+    .select({ date: shotDay, count: sql<number>`count(*)::int` })
+    .from(shot)
+    .innerJoin(clip, eq(clip.id, shot.clipId))
+    .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
+    .where(and(eq(shot.teamId, teamId), eq(shot.stickId, stickId)))
+    .groupBy(shotDay)
+    .orderBy(shotDay);
+}
+
+/** Shots with this stick, newest first; `visibleTo` limits them to a player's own and shared ones. */
+export async function shotsWithStick(teamId: string, stickId: string, visibleTo?: string, limit = 50) {
+  const shared = visibleTo
+    ? sql`(${shot.playerId} = ${visibleTo} or exists (select 1 from ${shotShare} where ${shotShare.shotId} = ${shot.id} and ${shotShare.userId} = ${visibleTo}))`
+    : sql`true`;
+  return db()
+    .select({
+      id: shot.id,
+      label: shot.label,
+      date: shotDay,
+      playerId: shot.playerId,
+      playerName: user.name,
+      hasDeflection: sql<boolean>`coalesce(jsonb_typeof(${shotResult.results} -> 'shaftDeflection') = 'object', false)`,
+    })
+    .from(shot)
+    .innerJoin(clip, eq(clip.id, shot.clipId))
+    .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
+    .leftJoin(user, eq(user.id, shot.playerId))
+    .leftJoin(shotResult, eq(shotResult.shotId, shot.id))
+    .where(and(eq(shot.teamId, teamId), eq(shot.stickId, stickId), shared))
+    .orderBy(desc(shot.createdAt))
+    .limit(limit);
+}
+
+export async function shotIdsWithStick(teamId: string, stickId: string) {
+  const rows = await db()
+    .select({ id: shot.id })
+    .from(shot)
+    .where(and(eq(shot.teamId, teamId), eq(shot.stickId, stickId), isNotNull(shot.stickId)));
+  return rows.map((r) => r.id);
+}
+
+/** A shot with what the beam model needs: its stick, its stored results and who may see it. */
+export async function shotForBeam(teamId: string, shotId: string) {
+  const [row] = await db()
+    .select({ shot, results: shotResult.results, resultError: shotResult.error, date: shotDay })
+    .from(shot)
+    .innerJoin(clip, eq(clip.id, shot.clipId))
+    .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
+    .leftJoin(shotResult, eq(shotResult.shotId, shot.id))
+    .where(and(eq(shot.teamId, teamId), eq(shot.id, shotId)));
+  if (!row) return null;
+  const shares = await db().select({ userId: shotShare.userId }).from(shotShare).where(eq(shotShare.shotId, shotId));
+  return { ...row, sharedWith: shares.map((s) => s.userId) };
+}
