@@ -40,9 +40,11 @@ export function Component() {
       return (
         <AuthShell title="This invitation was already used">
           <div className="flex flex-col gap-5">
-            <p className="text-ink-muted">Someone has accepted it already — probably you. Sign in to reach the team.</p>
-            <ButtonLink to="/sign-in" variant="primary" className="w-full">
-              Sign in
+            <p className="text-ink-muted">
+              Someone has accepted it already — probably you. {me.data ? "Your teams are in the team switcher at the top." : "Sign in to reach the team."}
+            </p>
+            <ButtonLink to={me.data ? "/" : "/sign-in"} variant="primary" className="w-full">
+              {me.data ? "Go to Loadframe" : "Sign in"}
             </ButtonLink>
           </div>
         </AuthShell>
@@ -121,7 +123,11 @@ function JoinAsSignedIn({ inv }: { inv: InvitationView }) {
   return (
     <div className="flex flex-col gap-4">
       {accept.isError && <Alert tone="danger">{isApiError(accept.error) ? accept.error.detail : "Couldn't join the team."}</Alert>}
-      <Button loading={accept.isPending} className="w-full" onClick={() => accept.mutate({ id: inv.id }, { onSuccess: () => navigate("/", { replace: true }) })}>
+      <Button
+        loading={accept.isPending}
+        className="w-full"
+        onClick={() => accept.mutate({ id: inv.id }, { onSuccess: () => navigate("/", { replace: true, state: { joinedTeam: inv.teamName } }) })}
+      >
         Join team
       </Button>
     </div>
@@ -150,7 +156,7 @@ function NewAccountForm({ inv }: { inv: InvitationView }) {
   const { errors } = form.formState;
   const onSubmit = form.handleSubmit(({ name, password }) =>
     accept.mutateAsync({ id: inv.id, name, password }).then(
-      () => navigate("/", { replace: true }),
+      () => navigate("/", { replace: true, state: { joinedTeam: inv.teamName } }),
       (e) => applyServerErrors(form, e),
     ),
   );
@@ -158,6 +164,8 @@ function NewAccountForm({ inv }: { inv: InvitationView }) {
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-5">
       <p className="text-sm text-ink-muted">Create your account to accept. You'll sign in with {inv.email}.</p>
       <FormError form={form} />
+      {/* Lets password managers store the new password under the right address. */}
+      <input type="email" name="username" autoComplete="username" value={inv.email} readOnly hidden />
       <Field label="Your name" hint="As your team will see it on the roster and on shared shots." error={errors.name?.message}>
         <Input autoComplete="name" autoFocus {...form.register("name")} />
       </Field>

@@ -60,6 +60,7 @@ export function Component() {
     >
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-5">
         <FormError form={form} />
+        <input type="text" name="username" autoComplete="username" value={params.get("email") ?? ""} readOnly hidden />
         <Field label="New password" hint={`At least ${PASSWORD_MIN} characters.`} error={errors.newPassword?.message}>
           <Input type="password" autoComplete="new-password" autoFocus {...form.register("newPassword")} />
         </Field>

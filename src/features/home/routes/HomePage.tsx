@@ -1,4 +1,4 @@
-import { Link } from "react-router-dom";
+import { Link, useLocation } from "react-router-dom";
 import { Badge, EmptyState, PageHeader } from "@/components/ui";
 import { visibleNav } from "@/app/nav";
 import { roleLabel, roleMeaning } from "@/lib/roles";
@@ -8,6 +8,8 @@ export function Component() {
   const me = useSession();
   const team = useActiveTeam();
   const firstName = me.user.name.split(/\s+/)[0] || me.user.name;
+  // Set by the invitation page right after someone joins.
+  const joinedTeam = (useLocation().state as { joinedTeam?: string } | null)?.joinedTeam;
 
   if (!team) {
     return (
@@ -24,7 +26,7 @@ export function Component() {
     <>
       <PageHeader
         eyebrow={team.name}
-        title={`Welcome back, ${firstName}`}
+        title={joinedTeam ? `Welcome to ${joinedTeam}, ${firstName}` : `Welcome back, ${firstName}`}
         description={
           <>
             You're working in {team.name} as <Badge tone="accent">{roleLabel[team.role]}</Badge> — {roleMeaning[team.role].replace(/^./, (c) => c.toLowerCase())}
