@@ -1,0 +1,150 @@
+import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
+import { alias } from "drizzle-orm/pg-core";
+import { db } from "../db/client";
+import { benchTest, clip, member, shot, shotResult, shotShare, stick, user } from "../db/schema";
+import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../shared/schemas/shots";
+
+// Drizzle only: every query names the team, so a row of another team is simply not found.
+
+const player = alias(user, "player");
+const editor = alias(user, "editor");
+
+export async function clipById(teamId: string, clipId: string) {
+  const [row] = await db()
+    .select({
+      id: clip.id, teamId: clip.teamId, title: clip.title, status: clip.status, captureFps: clip.captureFps, frameCount: clip.frameCount,
+      width: clip.width, height: clip.height, frameFormat: clip.frameFormat, playerId: clip.playerId, stickId: clip.stickId, calibration: clip.calibration,
+    })
+    .from(clip)
+    .where(and(eq(clip.id, clipId), eq(clip.teamId, teamId)));
+  return row ? { ...row, calibration: row.calibration as ClipCalibration | null } : null;
+}
+export type ClipRow = NonNullable<Awaited<ReturnType<typeof clipById>>>;
+
+const shotColumns = {
+  id: shot.id, teamId: shot.teamId, clipId: shot.clipId, label: shot.label, playerId: shot.playerId, playerName: player.name, stickId: shot.stickId,
+  stickLabel: stick.label, frameStart: shot.frameStart, frameEnd: shot.frameEnd, marks: shot.marks, events: shot.events, version: shot.version,
+  updatedAt: shot.updatedAt, updatedByName: editor.name,
+  resultEngine: shotResult.engineVersion, results: shotResult.results, resultError: shotResult.error, resultShotVersion: shotResult.shotVersion, computedAt: shotResult.computedAt,
+};
+
+function shotQuery() {
+  return db()
+    .select(shotColumns)
+    .from(shot)
+    .leftJoin(player, eq(player.id, shot.playerId))
+    .leftJoin(editor, eq(editor.id, shot.updatedBy))
+    .leftJoin(stick, eq(stick.id, shot.stickId))
+    .leftJoin(shotResult, eq(shotResult.shotId, shot.id));
+}
+
+type RawShot = Awaited<ReturnType<ReturnType<typeof shotQuery>["where"]>>[number];
+function typed(r: RawShot) {
+  return { ...r, marks: r.marks as ShotMarks, events: r.events as ShotEventsDraft };
+}
+export type ShotRow = ReturnType<typeof typed>;
+
+export async function shotById(teamId: string, shotId: string) {
+  const [row] = await shotQuery().where(and(eq(shot.id, shotId), eq(shot.teamId, teamId)));
+  return row ? typed(row) : null;
+}
+
+export async function shotsOfClip(teamId: string, clipId: string) {
+  const rows = await shotQuery().where(and(eq(shot.clipId, clipId), eq(shot.teamId, teamId))).orderBy(asc(shot.frameStart), asc(shot.createdAt));
+  return rows.map(typed);
+}
+
+/** Users each shot is shared with. */
+export async function sharesOf(shotIds: string[]) {
+  const out = new Map<string, string[]>();
+  if (!shotIds.length) return out;
+  const rows = await db().select({ shotId: shotShare.shotId, userId: shotShare.userId }).from(shotShare).where(inArray(shotShare.shotId, shotIds));
+  for (const r of rows) out.set(r.shotId, [...(out.get(r.shotId) ?? []), r.userId]);
+  return out;
+}
+
+export async function isMember(teamId: string, userId: string) {
+  const [row] = await db().select({ id: member.id }).from(member).where(and(eq(member.organizationId, teamId), eq(member.userId, userId)));
+  return !!row;
+}
+
+export async function stickInTeam(teamId: string, stickId: string) {
+  const [row] = await db().select({ id: stick.id }).from(stick).where(and(eq(stick.id, stickId), eq(stick.teamId, teamId)));
+  return !!row;
+}
+
+/** The stick with its latest bench test (by test date, then entry time), if any. */
+export async function stickWithLatestTest(stickId: string, q: Tx | ReturnType<typeof db> = db()) {
+  const [s] = await q.select({ id: stick.id, label: stick.label, ratedFlex: stick.ratedFlex }).from(stick).where(eq(stick.id, stickId));
+  if (!s) return null;
+  const [t] = await q
+    .select({ measuredFlex: benchTest.measuredFlex, spanMm: benchTest.spanMm, testedOn: benchTest.testedOn })
+    .from(benchTest)
+    .where(eq(benchTest.stickId, stickId))
+    .orderBy(desc(benchTest.testedOn), desc(benchTest.createdAt))
+    .limit(1);
+  return { ...s, latestTest: t ?? null };
+}
+
+export async function insertShot(v: { teamId: string; clipId: string; label: string; frameStart: number; frameEnd: number; playerId: string | null; stickId: string | null; userId: string }) {
+  const [row] = await db()
+    .insert(shot)
+    .values({ teamId: v.teamId, clipId: v.clipId, label: v.label, frameStart: v.frameStart, frameEnd: v.frameEnd, playerId: v.playerId, stickId: v.stickId, updatedBy: v.userId })
+    .returning({ id: shot.id });
+  return row.id;
+}
+
+/** Saves only when the stored version is still `baseVersion`; null when someone saved in between. */
+export async function saveMarks(shotId: string, baseVersion: number, marks: ShotMarks, events: ShotEventsDraft, userId: string) {
+  const [row] = await db()
+    .update(shot)
+    .set({ marks, events, version: sql`${shot.version} + 1`, updatedBy: userId, updatedAt: new Date() })
+    .where(and(eq(shot.id, shotId), eq(shot.version, baseVersion)))
+    .returning({ version: shot.version, updatedAt: shot.updatedAt });
+  return row ?? null;
+}
+
+export async function updateShotMeta(shotId: string, v: Partial<{ label: string; frameStart: number; frameEnd: number; playerId: string | null; stickId: string | null }>) {
+  await db().update(shot).set({ ...v, updatedAt: new Date() }).where(eq(shot.id, shotId));
+}
+
+export async function deleteShot(shotId: string) {
+  await db().delete(shot).where(eq(shot.id, shotId));
+}
+
+export async function setClipCalibration(clipId: string, calibration: ClipCalibration | null) {
+  await db().update(clip).set({ calibration, updatedAt: new Date() }).where(eq(clip.id, clipId));
+}
+
+export async function shotIdsOfClip(clipId: string) {
+  return (await db().select({ id: shot.id }).from(shot).where(eq(shot.clipId, clipId))).map((r) => r.id);
+}
+
+export async function shotIdsOfStick(stickId: string) {
+  return (await db().select({ id: shot.id }).from(shot).where(eq(shot.stickId, stickId))).map((r) => r.id);
+}
+
+/** What recomputing needs, read inside the caller's transaction. */
+export async function recomputeInputs(tx: Tx, shotId: string) {
+  const [s] = await tx
+    .select({ teamId: shot.teamId, clipId: shot.clipId, stickId: shot.stickId, marks: shot.marks, events: shot.events, version: shot.version, frameStart: shot.frameStart, frameEnd: shot.frameEnd })
+    .from(shot)
+    .where(eq(shot.id, shotId));
+  if (!s) return null;
+  const [c] = await tx.select({ captureFps: clip.captureFps, frameCount: clip.frameCount, calibration: clip.calibration }).from(clip).where(eq(clip.id, s.clipId));
+  return { shot: { ...s, marks: s.marks as ShotMarks, events: s.events as ShotEventsDraft }, clip: { ...c, calibration: c.calibration as ClipCalibration | null } };
+}
+
+export type Tx = Parameters<Parameters<ReturnType<typeof db>["transaction"]>[0]>[0];
+
+export async function upsertResult(tx: Tx, v: { shotId: string; teamId: string; engineVersion: string; results: unknown; error: string | null; shotVersion: number }) {
+  const [row] = await tx
+    .insert(shotResult)
+    .values({ ...v, computedAt: new Date() })
+    .onConflictDoUpdate({
+      target: shotResult.shotId,
+      set: { engineVersion: v.engineVersion, results: v.results, error: v.error, shotVersion: v.shotVersion, computedAt: new Date() },
+    })
+    .returning();
+  return row;
+}

@@ -1,0 +1,69 @@
+import { sql } from "drizzle-orm";
+import { db } from "../db/client";
+import { log } from "../log";
+import { computeShot, ENGINE_VERSION, isMechanicsInputError } from "../../shared/mechanics/index";
+import { DEFAULT_BENCH_SPAN_MM } from "../../shared/schemas/shot-document";
+import { toShotDocument, type ShotStickInfo, type StoredResult } from "../../shared/schemas/shots";
+import * as repo from "./repository";
+
+// The stored, authoritative results of a shot. Called whenever marks, events, the clip's
+// calibration or the stick (or its bench tests) change. Each run re-reads the latest state under a
+// per-shot advisory lock, so overlapping saves cannot leave an older result on top of a newer one.
+
+/** Flex the engine should use: the latest bench test's measured flex, else the rated flex. */
+export function stickFlex(s: NonNullable<Awaited<ReturnType<typeof repo.stickWithLatestTest>>>): ShotStickInfo {
+  if (s.latestTest)
+    return { id: s.id, label: s.label, flex: s.latestTest.measuredFlex, flexSource: "measured", benchSpanMm: DEFAULT_BENCH_SPAN_MM, testedOn: s.latestTest.testedOn };
+  return { id: s.id, label: s.label, flex: s.ratedFlex, flexSource: s.ratedFlex ? "rated" : null, benchSpanMm: DEFAULT_BENCH_SPAN_MM, testedOn: null };
+}
+
+export function toStoredResult(r: { engineVersion: string; results: unknown; error: string | null; shotVersion: number; computedAt: Date }): StoredResult {
+  return { engineVersion: r.engineVersion, results: r.results as StoredResult["results"], error: r.error, shotVersion: r.shotVersion, computedAt: r.computedAt.toISOString() };
+}
+
+/**
+ * Recompute one shot with the mechanics engine and store the outcome in shot_result: the results,
+ * or (results null) an error saying what is missing or wrong. Returns what was stored; null when the
+ * shot no longer exists.
+ */
+export async function recomputeShot(shotId: string): Promise<StoredResult | null> {
+  return db().transaction(async (tx) => {
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${"shot-result:" + shotId}))`);
+    const inputs = await repo.recomputeInputs(tx, shotId);
+    if (!inputs) return null;
+    const { shot, clip } = inputs;
+    const s = shot.stickId ? await repo.stickWithLatestTest(shot.stickId, tx) : null;
+    const flex = s ? stickFlex(s) : null;
+    const built = toShotDocument({
+      captureFps: clip.captureFps,
+      calibration: clip.calibration,
+      marks: shot.marks,
+      events: shot.events,
+      frameStart: shot.frameStart,
+      frameEnd: shot.frameEnd ?? clip.frameCount ?? shot.frameStart,
+      stick: flex?.flex ? { flex: flex.flex, benchSpanMm: flex.benchSpanMm } : null,
+    });
+    let results: unknown = null;
+    let error: string | null = built.missing;
+    if (built.doc) {
+      try {
+        results = computeShot(built.doc);
+      } catch (e) {
+        if (!isMechanicsInputError(e)) log.error({ err: e, shotId }, "mechanics engine failed");
+        error = isMechanicsInputError(e) ? `The marks cannot give results yet: ${e.message}` : `The mechanics engine failed on this shot: ${(e as Error).message}`;
+      }
+    }
+    const row = await repo.upsertResult(tx, { shotId, teamId: shot.teamId, engineVersion: ENGINE_VERSION, results, error, shotVersion: shot.version });
+    return toStoredResult(row);
+  });
+}
+
+/** After the clip's calibration changed. */
+export async function recomputeShotsOfClip(clipId: string): Promise<void> {
+  for (const id of await repo.shotIdsOfClip(clipId)) await recomputeShot(id);
+}
+
+/** After a stick's rated flex or bench tests changed (the stick lab calls this). */
+export async function recomputeShotsOfStick(stickId: string): Promise<void> {
+  for (const id of await repo.shotIdsOfStick(stickId)) await recomputeShot(id);
+}
