@@ -34,7 +34,10 @@ export const benchTestInputSchema = z
     loadPointMm: finite.positive().optional(),
     loadUnit: z.enum(["lbf", "N"]),
     deflectionUnit: z.enum(["in", "mm"]),
-    readings: z.array(benchReadingSchema).min(READINGS_LIMITS.minRows).max(READINGS_LIMITS.maxRows),
+    readings: z
+      .array(benchReadingSchema)
+      .min(READINGS_LIMITS.minRows, `need at least ${READINGS_LIMITS.minRows} readings to fit a line`)
+      .max(READINGS_LIMITS.maxRows, `too many readings (the limit is ${READINGS_LIMITS.maxRows})`),
   })
   .superRefine((test, ctx) => {
     if (test.loadPointMm !== undefined && test.loadPointMm >= test.spanMm)
