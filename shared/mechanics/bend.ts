@@ -1,0 +1,31 @@
+import type { Vec2 } from "./homography";
+
+// Stick bend from three landmarks on the shaft: top hand, bottom hand, blade heel.
+
+/** Angle in degrees between top hand → bottom hand and bottom hand → blade heel (0° = straight). */
+export function bendAngleDeg(top: Vec2, bottom: Vec2, heel: Vec2): number {
+  const ux = bottom[0] - top[0];
+  const uy = bottom[1] - top[1];
+  const vx = heel[0] - bottom[0];
+  const vy = heel[1] - bottom[1];
+  return (Math.atan2(Math.abs(ux * vy - uy * vx), ux * vx + uy * vy) * 180) / Math.PI;
+}
+
+export interface ChordGeometry {
+  /** Distance of the bottom hand from the chord top hand → blade heel, mm. */
+  deflectionMm: number;
+  /** Along the chord from the top hand to the foot of the perpendicular, mm (negative = beyond the top hand). */
+  aMm: number;
+  /** Along the chord from the blade heel to the foot of the perpendicular, mm. */
+  bMm: number;
+}
+
+export function chordGeometry(top: Vec2, bottom: Vec2, heel: Vec2): ChordGeometry {
+  const cx = heel[0] - top[0];
+  const cy = heel[1] - top[1];
+  const L = Math.hypot(cx, cy);
+  const px = bottom[0] - top[0];
+  const py = bottom[1] - top[1];
+  const a = (px * cx + py * cy) / L;
+  return { deflectionMm: Math.abs(px * cy - py * cx) / L, aMm: a, bMm: L - a };
+}

@@ -1,0 +1,65 @@
+import type { ResultNote, ShotResults } from "../schemas/shot-results";
+
+// Notes that flag results a coach should not act on without a second look. They never block a
+// result; the thresholds and their sources are listed here so the readout can show them.
+
+/** Fastest recorded skills-competition slap shot 48.64 m/s (NHL All-Star skills competition, 2012) [P]; flag above ~52 m/s [CP]. */
+export const MAX_PLAUSIBLE_SPEED_MPS = 52;
+/** Blade–puck contact 27 ± 5 ms to 38 ± 9 ms in lab slap shots (J Appl Biomech 22(3), 2006) [P]; flag outside 5–60 ms [CP]. */
+export const CONTACT_MS_RANGE: [number, number] = [5, 60];
+/** Lowest high-speed rate used in shot studies (240 Hz) [CP]: below it the number may be a playback rate. */
+export const MIN_HIGH_SPEED_FPS = 240;
+/** Relative standard uncertainty above which a result is flagged. */
+export const LARGE_RELATIVE_U = 0.1;
+/** Flight marks scattered this many times the digitising error off a straight line suggest a mis-mark. */
+export const FLIGHT_SCATTER_FACTOR = 3;
+
+export interface PlausibilityContext {
+  captureFps: number;
+  /** Expected RMS scatter of a world mark from digitising alone, mm. */
+  expectedScatterMm: number;
+  /** Frames from puck strike to release. */
+  contactFrames: number;
+}
+
+function relLarge(value: number, u: number | null): boolean {
+  return u !== null && value > 0 && u / value > LARGE_RELATIVE_U;
+}
+
+export function plausibilityNotes(r: Omit<ShotResults, "notes">, ctx: PlausibilityContext): ResultNote[] {
+  const notes: ResultNote[] = [];
+  const p = r.puckExitSpeed;
+  if (p.valueMps > MAX_PLAUSIBLE_SPEED_MPS)
+    notes.push({
+      code: "PUCK_SPEED_IMPLAUSIBLE",
+      message: `puck exit speed ${p.valueMps.toFixed(1)} m/s is above ${MAX_PLAUSIBLE_SPEED_MPS} m/s, faster than any recorded shot: check the capture rate and the calibration`,
+    });
+  const b = r.bladeSpeedAtStrike;
+  if (b && b.valueMps > MAX_PLAUSIBLE_SPEED_MPS)
+    notes.push({ code: "BLADE_SPEED_IMPLAUSIBLE", message: `blade speed ${b.valueMps.toFixed(1)} m/s is above ${MAX_PLAUSIBLE_SPEED_MPS} m/s: check the blade marks and the calibration` });
+  const [cLo, cHi] = CONTACT_MS_RANGE;
+  if (r.contactTimeMs < cLo || r.contactTimeMs > cHi)
+    notes.push({
+      code: "CONTACT_TIME_OUTSIDE_RANGE",
+      message: `contact time ${r.contactTimeMs.toFixed(1)} ms is outside the usual ${cLo}–${cHi} ms: check the puck-strike and release frames`,
+    });
+  if (ctx.captureFps < MIN_HIGH_SPEED_FPS)
+    notes.push({
+      code: "CAPTURE_RATE_LOW",
+      message: `capture rate ${ctx.captureFps} fps is below ${MIN_HIGH_SPEED_FPS} fps: make sure it is the camera's capture rate, not the file's playback rate`,
+    });
+  if (ctx.contactFrames < 5)
+    notes.push({ code: "CONTACT_FEW_FRAMES", message: `contact spans only ${ctx.contactFrames} frame${ctx.contactFrames > 1 ? "s" : ""}: times are good to one frame (${r.frameTimeMs.toFixed(2)} ms)` });
+  if (p.marksUsed < 5)
+    notes.push({ code: "PUCK_FLIGHT_FEW_MARKS", message: `puck exit speed rests on ${p.marksUsed} flight marks; 10 give a steadier fit` });
+  if (ctx.expectedScatterMm > 0 && p.rmsResidualMm > FLIGHT_SCATTER_FACTOR * ctx.expectedScatterMm)
+    notes.push({
+      code: "PUCK_FLIGHT_NOT_STRAIGHT",
+      message: `puck flight marks stray ${p.rmsResidualMm.toFixed(1)} mm (RMS) from a straight line, more than digitising error explains: check for a mis-placed mark`,
+    });
+  if (relLarge(p.valueMps, p.uncertaintyMps))
+    notes.push({ code: "PUCK_SPEED_UNCERTAIN", message: `puck exit speed uncertainty is over ${LARGE_RELATIVE_U * 100} % of the value` });
+  if (b && relLarge(b.valueMps, b.uncertaintyMps))
+    notes.push({ code: "BLADE_SPEED_UNCERTAIN", message: `blade speed uncertainty is over ${LARGE_RELATIVE_U * 100} % of the value` });
+  return notes;
+}

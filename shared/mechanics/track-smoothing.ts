@@ -1,0 +1,134 @@
+import type { SegmentLabel } from "../schemas/shot-results";
+import { zeroLagLowPass } from "./butterworth";
+
+// Tracks are cut at the impact frames (never filtered across puck strike), put on a uniform frame
+// grid (gaps bridged by straight lines), smoothed, and differentiated.
+
+/** One landmark's marks in world mm, sorted by frame, no repeats. */
+export interface WorldTrack {
+  frames: Int32Array;
+  x: Float64Array;
+  y: Float64Array;
+}
+
+export interface GridSegment {
+  label: SegmentLabel;
+  /** Frames between grid samples: the greatest common divisor of the marked frame gaps. */
+  step: number;
+  fsHz: number;
+  frames: Int32Array;
+  x: Float64Array;
+  y: Float64Array;
+  marked: Uint8Array;
+  /** Grid samples filled by straight lines, and the longest unmarked run in frames. */
+  filled: number;
+  longestGapFrames: number;
+  /** The marks it holds: indices i0 … i1 − 1 of the track it was cut from. */
+  i0: number;
+  i1: number;
+}
+
+export interface SmoothSegment extends GridSegment {
+  /** Smoothed position, mm. */
+  sx: Float64Array;
+  sy: Float64Array;
+  /** Velocity, m/s (NaN for a one-sample segment). */
+  vx: Float64Array;
+  vy: Float64Array;
+  cutoffHz: number | null;
+}
+
+function gcd(a: number, b: number): number {
+  while (b) [a, b] = [b, a % b];
+  return a;
+}
+
+/**
+ * Cut at `splits` (ascending frames; a split frame belongs to both sides, the position being
+ * continuous there) and grid each piece. labels.length === splits.length + 1; empty pieces are dropped.
+ */
+export function gridSegments(track: WorldTrack, splits: number[], labels: SegmentLabel[], captureFps: number, step?: number): GridSegment[] {
+  const out: GridSegment[] = [];
+  const n = track.frames.length;
+  for (let s = 0; s <= splits.length; s++) {
+    const from = s === 0 ? -Infinity : splits[s - 1];
+    const to = s === splits.length ? Infinity : splits[s];
+    let i0 = 0;
+    while (i0 < n && track.frames[i0] < from) i0++;
+    let i1 = i0;
+    while (i1 < n && track.frames[i1] <= to) i1++;
+    if (i1 === i0) continue;
+    out.push(gridPiece(track, i0, i1, labels[s], captureFps, step));
+  }
+  return out;
+}
+
+/** `wanted` (a part of a longer track keeps that track's grid) is used when it divides every gap. */
+function gridPiece(t: WorldTrack, i0: number, i1: number, label: SegmentLabel, captureFps: number, wanted?: number): GridSegment {
+  let step = 0;
+  for (let i = i0 + 1; i < i1; i++) step = gcd(step, t.frames[i] - t.frames[i - 1]);
+  if (step === 0) step = wanted ?? 1;
+  else if (wanted && step % wanted === 0) step = wanted;
+  const f0 = t.frames[i0];
+  const len = (t.frames[i1 - 1] - f0) / step + 1;
+  const frames = new Int32Array(len);
+  const x = new Float64Array(len);
+  const y = new Float64Array(len);
+  const marked = new Uint8Array(len);
+  let longestGap = 0;
+  for (let i = i0; i < i1; i++) {
+    const g = (t.frames[i] - f0) / step;
+    frames[g] = t.frames[i];
+    x[g] = t.x[i];
+    y[g] = t.y[i];
+    marked[g] = 1;
+    if (i + 1 < i1) {
+      const gn = (t.frames[i + 1] - f0) / step;
+      if (gn - g > 1) longestGap = Math.max(longestGap, (gn - g - 1) * step);
+      for (let k = g + 1; k < gn; k++) {
+        const u = (k - g) / (gn - g);
+        frames[k] = f0 + k * step;
+        x[k] = t.x[i] + u * (t.x[i + 1] - t.x[i]);
+        y[k] = t.y[i] + u * (t.y[i + 1] - t.y[i]);
+      }
+    }
+  }
+  return { label, step, fsHz: captureFps / step, frames, x, y, marked, filled: len - (i1 - i0), longestGapFrames: longestGap, i0, i1 };
+}
+
+/** d/dt like numpy.gradient with second-order edges; values in mm, h in s, result in m/s. */
+export function gradientMps(v: Float64Array, h: number): Float64Array {
+  const n = v.length;
+  const out = new Float64Array(n);
+  const k = 1 / (1000 * h);
+  if (n === 1) {
+    out[0] = NaN;
+    return out;
+  }
+  if (n === 2) {
+    out[0] = out[1] = (v[1] - v[0]) * k;
+    return out;
+  }
+  for (let i = 1; i < n - 1; i++) out[i] = ((v[i + 1] - v[i - 1]) / 2) * k;
+  out[0] = ((-3 * v[0] + 4 * v[1] - v[2]) / 2) * k;
+  out[n - 1] = ((3 * v[n - 1] - 4 * v[n - 2] + v[n - 3]) / 2) * k;
+  return out;
+}
+
+/** Smooth a grid segment at cutoffHz (null = raw) and differentiate. */
+export function smoothSegment(seg: GridSegment, cutoffHz: number | null, captureFps: number): SmoothSegment {
+  let sx = seg.x;
+  let sy = seg.y;
+  if (cutoffHz !== null && seg.x.length >= 3) {
+    sx = zeroLagLowPass(seg.x, cutoffHz, seg.fsHz);
+    sy = zeroLagLowPass(seg.y, cutoffHz, seg.fsHz);
+  }
+  const h = seg.step / captureFps;
+  return { ...seg, sx, sy, vx: gradientMps(sx, h), vy: gradientMps(sy, h), cutoffHz };
+}
+
+/** Index of `frame` on the segment's grid, or −1. */
+export function gridIndex(seg: GridSegment, frame: number): number {
+  const g = (frame - seg.frames[0]) / seg.step;
+  return Number.isInteger(g) && g >= 0 && g < seg.frames.length ? g : -1;
+}

@@ -1,0 +1,113 @@
+import { z } from "zod";
+
+// What the mechanics engine returns for one shot: stored by the server with the engine version,
+// drawn by the Shot readout page, printed by `npm run metrics`. SI throughout (speeds m/s, lengths
+// mm, energies J, times ms); angles in degrees. `uncertainty*` is the standard uncertainty u
+// (value ± u); `interval95*` the 95 % coverage interval; null where it could not be estimated.
+
+const u = z.number().nonnegative().nullable();
+const interval = z.tuple([z.number(), z.number()]).nullable();
+
+export const SEGMENT_LABELS = ["beforeStrike", "afterStrike", "contact", "afterRelease"] as const;
+
+export const SeriesPoint = z.object({
+  frame: z.number().int(),
+  /** From the clip's first frame (frameRange[0], else frame 0). */
+  tMs: z.number(),
+  /** From the puck-strike frame (negative before it). */
+  tFromStrikeMs: z.number(),
+  value: z.number(),
+  /** Which separately smoothed piece of the track the point comes from. */
+  segment: z.enum(SEGMENT_LABELS),
+});
+
+export const Series = z.object({ unit: z.string(), points: z.array(SeriesPoint) });
+
+export const ResultNote = z.object({ code: z.string(), message: z.string() });
+
+export const SMOOTHED_LANDMARKS = ["puck", "blade", "bladeHeel", "bottomHand", "topHand"] as const;
+
+export const ShotResults = z.object({
+  engineVersion: z.string(),
+  puckExitSpeed: z.object({
+    valueMps: z.number(),
+    uncertaintyMps: u,
+    interval95Mps: interval,
+    marksUsed: z.number().int(),
+    fromFrame: z.number().int(),
+    toFrame: z.number().int(),
+    /** RMS distance of the flight marks from the fitted straight line. */
+    rmsResidualMm: z.number(),
+  }),
+  bladeSpeedAtStrike: z
+    .object({
+      valueMps: z.number(),
+      uncertaintyMps: u,
+      interval95Mps: interval,
+      /** Frame the speed is taken at (the puck-strike frame, or the blade's last mark within one marking step before it). */
+      frame: z.number().int(),
+      /** Blade point used: midpoint of heel and toe, or the one that was marked. */
+      point: z.enum(["midpoint", "heel", "toe"]),
+    })
+    .nullable(),
+  peakBend: z.object({ angleDeg: z.number(), uncertaintyDeg: u, interval95Deg: interval, frame: z.number().int() }).nullable(),
+  shaftDeflection: z
+    .object({
+      valueMm: z.number(),
+      uncertaintyMm: u,
+      interval95Mm: interval,
+      frame: z.number().int(),
+      /** Along the chord from the top hand / from the blade heel to the foot of the perpendicular. */
+      aMm: z.number(),
+      bMm: z.number(),
+    })
+    .nullable(),
+  loadTimeMs: z.number().nullable(),
+  contactTimeMs: z.number(),
+  /** One frame at the capture rate: the resolution of the times. */
+  frameTimeMs: z.number(),
+  storedEnergy: z
+    .object({
+      valueJ: z.number(),
+      uncertaintyJ: u,
+      interval95J: interval,
+      frame: z.number().int(),
+      /** Shaft stiffness for a load at the bottom hand, and EI from the flex (bench span). */
+      shotStiffnessNPerM: z.number(),
+      eiNm2: z.number(),
+    })
+    .nullable(),
+  series: z.object({
+    firstFrame: z.number().int(),
+    puckSpeed: Series,
+    bladeSpeed: Series,
+    bendAngle: Series,
+  }),
+  smoothing: z.object({
+    mode: z.enum(["residualAnalysis", "analyst", "raw"]),
+    /** 2nd-order Butterworth run forward and backward; cutoff is the two-pass −3 dB point. */
+    order: z.literal(2),
+    passes: z.literal(2),
+    cutoffHz: z.partialRecord(z.enum(SMOOTHED_LANDMARKS), z.number().nullable()),
+  }),
+  uncertainty: z.object({
+    method: z.literal("monteCarlo"),
+    trials: z.number().int(),
+    seed: z.string(),
+    pixelErrorPx: z.number(),
+    calibrationErrorRel: z.number(),
+    coverage: z.literal(0.95),
+  }),
+  calibration: z.object({
+    type: z.enum(["scaleBar", "plane"]),
+    mmPerPx: z.number().nullable(),
+    rmsResidualMm: z.number().nullable(),
+  }),
+  notes: z.array(ResultNote),
+});
+
+export type ShotResults = z.infer<typeof ShotResults>;
+export type SeriesPoint = z.infer<typeof SeriesPoint>;
+export type ResultNote = z.infer<typeof ResultNote>;
+export type SegmentLabel = (typeof SEGMENT_LABELS)[number];
+export type SmoothedLandmark = (typeof SMOOTHED_LANDMARKS)[number];
