@@ -1,0 +1,255 @@
+// Frame extraction: every decoded frame written once, as an image named by its index, plus a
+// preview strip, in one ffmpeg run. Frames are announced as soon as their file is complete
+// (ffmpeg writes each to a temp name and renames it), so marking can start before the end.
+import { watch, type FSWatcher } from "node:fs";
+import { access, mkdir, readdir } from "node:fs/promises";
+import path from "node:path";
+import { buildFfmpegArgs, buildFfprobeArgs, type FfmpegSpec } from "./command";
+import { FfmpegError } from "./errors";
+import { runTool, type MediaConfig } from "./ffmpeg";
+import type { ProbeResult } from "./probe";
+import { percentOf } from "./progress";
+import { frameTimesFromDecodedCsv, frameTimesFromPackets, parsePacketCsv } from "./timestamps";
+
+export type FrameFormat = "jpg" | "webp";
+
+export interface StripOptions {
+  /** Thumbnails in the strip. Default 20. */
+  count?: number;
+  /** Thumbnail height in pixels. Default 90. */
+  height?: number;
+}
+
+export type ExtractProbe = Pick<ProbeResult, "frameCount" | "videoStreamIndex" | "pixelFormat" | "colorRange" | "timeBase">;
+
+export interface ExtractProgress {
+  framesDone: number;
+  totalFrames: number;
+  percent: number;
+}
+
+export interface ExtractOptions {
+  input: string;
+  probe: ExtractProbe;
+  /** Folder the caller owns (a job folder); frames go to <outDir>/frames, the strip to <outDir>/strip.jpg. */
+  outDir: string;
+  format?: FrameFormat;
+  /** 1 (best) … 31 (smallest), ffmpeg's qscale as in FRAME_QUALITY. Default 3. */
+  quality?: number;
+  /** false: no strip. */
+  strip?: StripOptions | false;
+  /** Default 2 min + 100 ms per frame. */
+  timeoutMs?: number;
+  /** No progress for this long kills the run. Default 30 s. */
+  stallTimeoutMs?: number;
+  signal?: AbortSignal;
+  onProgress?: (p: ExtractProgress) => void;
+  /** Called in index order once frame `index` (1-based) is complete on disk; awaited before the next. */
+  onFrameReady?: (index: number, file: string) => void | Promise<void>;
+}
+
+export interface ExtractResult {
+  frameCount: number;
+  /** Seconds from the first frame, index 0 = frame 1. */
+  frameTimes: number[];
+  timestampSource: "packets" | "decoded-frames";
+  framesDir: string;
+  stripPath: string | null;
+  format: FrameFormat;
+  elapsedMs: number;
+  /** From the call to frame 1 being ready. */
+  firstFrameMs: number | null;
+}
+
+/** 1 → "000001.jpg"; indexes past 999999 simply get more digits (as ffmpeg's %06d does). */
+export const frameFileName = (index: number, ext: FrameFormat) => `${String(index).padStart(6, "0")}.${ext}`;
+
+// mjpeg wants full-range YUV; letting swscale convert limited → full range costs more than the
+// JPEG encoding itself. A lookup table does the same mapping (±1 level, see decision 040) cheaply.
+const toFullRange =
+  "lutyuv=y='clip(round((val-16)*255/219),0,255)':u='clip(round((val-128)*255/224+128),0,255)':v='clip(round((val-128)*255/224+128),0,255)',setparams=range=pc";
+const lutFormats = new Set(["yuv420p", "yuv422p", "yuv444p"]);
+
+/** libwebp quality 0–100 from the same 1–31 scale (3 → 96, 31 → 40). */
+export const webpQuality = (q: number) => Math.round(100 - (Math.min(31, Math.max(1, q)) - 1) * 2);
+
+export interface ExtractSpecInput {
+  input: string;
+  probe: ExtractProbe;
+  framesDir: string;
+  stripPath: string | null;
+  format: FrameFormat;
+  quality: number;
+  strip: Required<StripOptions>;
+}
+
+export function buildExtractSpec(s: ExtractSpecInput): FfmpegSpec {
+  const chain: string[] = [];
+  if (s.format === "jpg" && lutFormats.has(s.probe.pixelFormat ?? "") && s.probe.colorRange !== "pc") chain.push(toFullRange);
+  const encoder =
+    s.format === "jpg"
+      ? ["-c:v", "mjpeg", "-q:v", String(s.quality), ...(s.quality < 2 ? ["-qmin", "1"] : [])]
+      : ["-c:v", "libwebp", "-quality", String(webpQuality(s.quality)), "-compression_level", "0"];
+  // passthrough: one image per decoded frame; image2 otherwise duplicates/drops to a constant rate.
+  const frameOut = ["-fps_mode", "passthrough", ...encoder, "-f", "image2", "-atomic_writing", "1", "-start_number", "1"];
+  const src = `[0:${s.probe.videoStreamIndex}]`;
+  const framesPattern = path.join(s.framesDir, `%06d.${s.format}`);
+  const inputs = [{ path: s.input }];
+
+  if (!s.stripPath) {
+    const vf = chain.length ? ["-vf", chain.join(",")] : [];
+    return { inputs, outputs: [{ path: framesPattern, options: ["-map", `0:${s.probe.videoStreamIndex}`, ...vf, ...frameOut] }] };
+  }
+  const tiles = Math.max(1, Math.min(s.strip.count, s.probe.frameCount || s.strip.count));
+  const every = Math.max(1, Math.floor((s.probe.frameCount || tiles) / tiles));
+  const head = chain.length ? `${chain.join(",")},` : "";
+  const filterComplex =
+    `${src}${head}split=2[frames][thumbs];` +
+    `[thumbs]select='not(mod(n,${every}))*lt(n,${every * tiles})',scale=-2:${s.strip.height},tile=${tiles}x1[strip]`;
+  return {
+    inputs,
+    filterComplex,
+    outputs: [
+      { path: framesPattern, options: ["-map", "[frames]", ...frameOut] },
+      { path: s.stripPath, options: ["-map", "[strip]", "-frames:v", "1", "-c:v", "mjpeg", "-q:v", "4", "-update", "1"] },
+    ],
+  };
+}
+
+const exists = (p: string) =>
+  access(p).then(
+    () => true,
+    () => false,
+  );
+
+export async function extractFrames(config: MediaConfig, o: ExtractOptions): Promise<ExtractResult> {
+  const started = Date.now();
+  const format = o.format ?? "jpg";
+  const framesDir = path.join(o.outDir, "frames");
+  const stripPath = o.strip === false ? null : path.join(o.outDir, "strip.jpg");
+  await mkdir(framesDir, { recursive: true });
+  const expected = o.probe.frameCount;
+  const timeoutMs = o.timeoutMs ?? 120_000 + 100 * expected;
+
+  // Our own abort, so a failing frame callback also stops ffmpeg.
+  const inner = new AbortController();
+  const onOuterAbort = () => inner.abort();
+  if (o.signal?.aborted) inner.abort();
+  o.signal?.addEventListener("abort", onOuterAbort, { once: true });
+  let callbackError: unknown;
+
+  let next = 1;
+  let firstFrameMs: number | null = null;
+  let scanning = false;
+  let rescan = false;
+  let delivery = Promise.resolve();
+  const scan = async () => {
+    if (scanning) {
+      rescan = true;
+      return;
+    }
+    scanning = true;
+    try {
+      do {
+        rescan = false;
+        while (await exists(path.join(framesDir, frameFileName(next, format)))) {
+          const index = next++;
+          firstFrameMs ??= Date.now() - started;
+          const file = path.join(framesDir, frameFileName(index, format));
+          delivery = delivery.then(async () => {
+            if (callbackError) return;
+            try {
+              await o.onFrameReady?.(index, file);
+            } catch (err) {
+              callbackError = err;
+              inner.abort();
+            }
+          });
+          o.onProgress?.({ framesDone: index, totalFrames: Math.max(expected, index), percent: percentOf(index, expected, false) });
+        }
+      } while (rescan);
+    } finally {
+      scanning = false;
+    }
+  };
+
+  let watcher: FSWatcher | undefined;
+  try {
+    watcher = watch(framesDir, () => void scan());
+  } catch {
+    // no file events on this file system: progress blocks still trigger scans
+  }
+
+  const spec = buildExtractSpec({
+    input: o.input,
+    probe: o.probe,
+    framesDir,
+    stripPath,
+    format,
+    quality: o.quality ?? 3,
+    strip: { count: 20, height: 90, ...(o.strip || {}) },
+  });
+  const listEntries = (entries: string, signal?: AbortSignal) =>
+    runTool(config, {
+      tool: "ffprobe",
+      args: buildFfprobeArgs(o.input, ["-select_streams", String(o.probe.videoStreamIndex), "-show_entries", entries, "-of", "csv=p=0"]),
+      timeoutMs,
+      signal,
+      captureStdout: true,
+    });
+  const times = listEntries("packet=pts,dts,flags", inner.signal);
+  times.catch(() => undefined); // awaited below; avoid an unhandled rejection while ffmpeg runs
+
+  try {
+    await runTool(config, {
+      tool: "ffmpeg",
+      args: buildFfmpegArgs(spec, { threads: config.threads ?? 2, progress: true }),
+      timeoutMs,
+      stallTimeoutMs: o.stallTimeoutMs ?? 30_000,
+      signal: inner.signal,
+      onProgress: () => void scan(),
+    });
+    watcher?.close();
+    while (scanning) await new Promise((r) => setTimeout(r, 5));
+    await scan();
+    await delivery;
+    if (callbackError) throw callbackError;
+  } catch (err) {
+    watcher?.close();
+    inner.abort();
+    await delivery;
+    throw callbackError ?? err;
+  } finally {
+    o.signal?.removeEventListener("abort", onOuterAbort);
+  }
+
+  const frameCount = next - 1;
+  const onDisk = (await readdir(framesDir)).filter((n) => n.endsWith(`.${format}`)).length;
+  const fail = (msg: string) =>
+    new FfmpegError("invalid_data", msg, { command: "", stderrTail: "", durationMs: Date.now() - started });
+  if (frameCount === 0) throw fail("ffmpeg wrote no frames: the video stream could not be decoded");
+  if (onDisk !== frameCount) throw fail(`frame files are not numbered 1..${frameCount} without gaps (${onDisk} files)`);
+
+  let frameTimes = frameTimesFromPackets(parsePacketCsv((await times).stdout), o.probe.timeBase);
+  let timestampSource: ExtractResult["timestampSource"] = "packets";
+  if (frameTimes.length !== frameCount) {
+    const decoded = await listEntries("frame=best_effort_timestamp_time", o.signal);
+    frameTimes = frameTimesFromDecodedCsv(decoded.stdout);
+    timestampSource = "decoded-frames";
+    if (frameTimes.length !== frameCount) {
+      throw fail(`${frameTimes.length} frame timestamps were found for ${frameCount} frames written`);
+    }
+  }
+
+  o.onProgress?.({ framesDone: frameCount, totalFrames: frameCount, percent: 100 });
+  return {
+    frameCount,
+    frameTimes,
+    timestampSource,
+    framesDir,
+    stripPath: stripPath && (await exists(stripPath)) ? stripPath : null,
+    format,
+    elapsedMs: Date.now() - started,
+    firstFrameMs,
+  };
+}

@@ -1,0 +1,15 @@
+// Media entry point: probing uploads, extracting frames, and the one ffmpeg wrapper under both.
+export * from "./errors";
+export { runTool, withJobDir, sweepStaleJobDirs, JOB_DIR_PREFIX, type MediaConfig, type MediaLogger, type RunOptions, type RunResult } from "./ffmpeg";
+export { probe, looksLikePlaybackRate, type ProbeOptions, type ProbeResult, type Rotation } from "./probe";
+export {
+  extractFrames,
+  frameFileName,
+  type ExtractOptions,
+  type ExtractProbe,
+  type ExtractProgress,
+  type ExtractResult,
+  type FrameFormat,
+  type StripOptions,
+} from "./extract";
+export { extractClipFrames, type ExtractClipOptions, type ExtractClipResult } from "./ingest";

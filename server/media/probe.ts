@@ -1,0 +1,274 @@
+// Probe before store: read an uploaded file with ffprobe and either describe its video or say,
+// in words a coach understands, why it cannot be used. Only cheap reads: the stream headers, a
+// decode of the first packets, and (when the container has no frame count) a packet count.
+import { open, stat } from "node:fs/promises";
+import { buildFfprobeArgs } from "./command";
+import { FfmpegError, MediaInputError } from "./errors";
+import { runTool, type MediaConfig } from "./ffmpeg";
+
+export interface ProbeOptions {
+  /** Largest accepted frame, width × height (env MAX_PIXELS). Default 3840 × 2160. */
+  maxPixels?: number;
+  timeoutMs?: number;
+  signal?: AbortSignal;
+  /** Packets decoded to prove the stream is readable and to sample timestamps. Default 120. */
+  samplePackets?: number;
+}
+
+export type Rotation = 0 | 90 | 180 | 270;
+
+export interface ProbeResult {
+  codec: string;
+  /** Displayed size: after rotation, the size of the extracted frames. */
+  width: number;
+  height: number;
+  /** Size as stored in the file, before rotation. */
+  storedWidth: number;
+  storedHeight: number;
+  /** The file's frame rate (average, else nominal). Often a playback rate, not the capture rate. */
+  storedFps: number;
+  rFrameRate: string;
+  avgFrameRate: string;
+  frameCount: number;
+  durationS: number | null;
+  /** Clockwise turn from stored to displayed picture. */
+  rotationDeg: Rotation;
+  variableFrameRate: boolean;
+  hasAudio: boolean;
+  pixelFormat: string | null;
+  colorRange: string | null;
+  /** Absolute index of the video stream used. */
+  videoStreamIndex: number;
+  timeBase: string;
+  formatName: string;
+  sizeBytes: number;
+  /** ffprobe's -show_streams -show_format JSON, kept with the clip. */
+  raw: FfprobeJson;
+}
+
+export interface FfprobeStream {
+  index: number;
+  codec_type?: string;
+  codec_name?: string;
+  width?: number;
+  height?: number;
+  r_frame_rate?: string;
+  avg_frame_rate?: string;
+  time_base?: string;
+  nb_frames?: string;
+  duration?: string;
+  pix_fmt?: string;
+  color_range?: string;
+  disposition?: Record<string, number>;
+  tags?: Record<string, string>;
+  side_data_list?: { side_data_type?: string; rotation?: number }[];
+}
+export interface FfprobeJson {
+  streams?: FfprobeStream[];
+  format?: { format_name?: string; duration?: string; size?: string; start_time?: string };
+}
+
+/** A stored rate of 60 fps or less is usually a playback rate: ask for the capture rate. */
+export const looksLikePlaybackRate = (storedFps: number): boolean => storedFps <= 60;
+
+/** "30000/1001" → 29.97; "0/0", "N/A" → null. */
+export function parseRate(rate: string | undefined): number | null {
+  if (!rate) return null;
+  const [n, d = "1"] = rate.split("/");
+  const v = Number(n) / Number(d);
+  return Number.isFinite(v) && v > 0 ? v : null;
+}
+
+/** Clockwise display rotation from the display matrix (counter-clockwise in ffprobe) or the old rotate tag. */
+export function rotationOf(stream: FfprobeStream): Rotation {
+  const matrix = stream.side_data_list?.find((s) => typeof s.rotation === "number");
+  const cw = matrix ? -(matrix.rotation as number) : Number(stream.tags?.rotate ?? 0);
+  const r = ((Math.round(cw / 90) * 90) % 360 + 360) % 360;
+  return r as Rotation;
+}
+
+/** Nominal and average rate differ by more than 0.5 %. */
+export function ratesDiffer(r: string | undefined, avg: string | undefined): boolean {
+  const a = parseRate(r);
+  const b = parseRate(avg);
+  if (a === null || b === null) return false;
+  return Math.abs(a - b) / Math.max(a, b) > 0.005;
+}
+
+/**
+ * Whether presentation times (in stream ticks, any order) are unevenly spaced. The last few of a
+ * sample are dropped because B-frame reordering can leave a gap at the end of a packet window;
+ * one tick of jitter is rounding, not variable rate.
+ */
+export function timestampsUneven(pts: number[], reorderSlack = 16): boolean {
+  const sorted = [...pts].sort((a, b) => a - b);
+  const kept = sorted.length > reorderSlack * 2 ? sorted.slice(0, sorted.length - reorderSlack) : sorted;
+  if (kept.length < 3) return false;
+  const deltas = kept.slice(1).map((v, i) => v - kept[i]);
+  const median = [...deltas].sort((a, b) => a - b)[Math.floor(deltas.length / 2)];
+  if (median <= 0) return true;
+  const tolerance = Math.max(1.5, 0.05 * median);
+  return deltas.some((d) => Math.abs(d - median) > tolerance);
+}
+
+const imageCodecs = new Set([
+  "png", "mjpeg", "jpegls", "jpeg2000", "bmp", "tiff", "webp", "gif", "ppm", "pgm", "pgmyuv", "pbm",
+  "pam", "targa", "sgi", "dpx", "exr", "qoi", "jpegxl", "pcx", "xbm", "xwd", "sunrast", "hdr", "psd",
+  "svg", "photocd", "avif",
+]);
+
+/** Image demuxers (image2, png_pipe, …), or a lone frame of an image codec in any container. */
+export function isStillImage(formatName: string, codec: string, frameCount: number | null): boolean {
+  const formats = formatName.split(",");
+  if (formats.some((f) => f === "image2" || f.endsWith("_pipe"))) return true;
+  return imageCodecs.has(codec) && (frameCount === null || frameCount <= 1);
+}
+
+// An ISO-BMFF file (MP4, MOV) starts with a box whose type is at bytes 4..8.
+const isoBoxTypes = new Set(["ftyp", "moov", "mdat", "free", "skip", "wide", "pnot"]);
+async function looksLikeIsoBmff(file: string): Promise<boolean> {
+  const fh = await open(file, "r");
+  try {
+    const buf = Buffer.alloc(8);
+    const { bytesRead } = await fh.read(buf, 0, 8, 0);
+    return bytesRead === 8 && isoBoxTypes.has(buf.subarray(4, 8).toString("latin1"));
+  } finally {
+    await fh.close();
+  }
+}
+
+const mp = (px: number) => `${(px / 1e6).toFixed(1)} MP`;
+const isInputFailure = (err: unknown) =>
+  err instanceof FfmpegError && (err.kind === "invalid_data" || err.kind === "failed");
+
+async function ffprobeJson<T>(config: MediaConfig, file: string, options: string[], o: ProbeOptions): Promise<T> {
+  const { stdout } = await runTool(config, {
+    tool: "ffprobe",
+    args: buildFfprobeArgs(file, ["-print_format", "json", ...options]),
+    timeoutMs: o.timeoutMs ?? 60_000,
+    signal: o.signal,
+    captureStdout: true,
+    failureLogLevel: "warn",
+  });
+  return JSON.parse(stdout) as T;
+}
+
+export async function probe(config: MediaConfig, file: string, o: ProbeOptions = {}): Promise<ProbeResult> {
+  const maxPixels = o.maxPixels ?? 3840 * 2160;
+  const { size } = await stat(file);
+  if (size === 0) {
+    throw new MediaInputError("empty_file", "The file is empty (0 bytes). Nothing was stored; please upload the clip again.");
+  }
+
+  let raw: FfprobeJson;
+  try {
+    raw = await ffprobeJson<FfprobeJson>(config, file, ["-show_streams", "-show_format"], o);
+  } catch (err) {
+    if (!isInputFailure(err)) throw err;
+    const tail = (err as FfmpegError).info.stderrTail;
+    if (/moov atom not found/i.test(tail) && (await looksLikeIsoBmff(file))) {
+      throw new MediaInputError(
+        "truncated_file",
+        "This MP4/MOV file is incomplete: its index (the 'moov' box) is missing, which usually means the copy or upload was cut off. Copy the clip from the camera again and upload the whole file.",
+      );
+    }
+    throw new MediaInputError(
+      "not_media",
+      "This file is not a video that can be read: no audio or video format was recognised. Check that you picked the clip itself.",
+    );
+  }
+
+  const streams = raw.streams ?? [];
+  const formatName = raw.format?.format_name ?? "";
+  const hasAudio = streams.some((s) => s.codec_type === "audio");
+  // Cover art inside audio files shows up as a video stream marked attached_pic.
+  const video = streams.find((s) => s.codec_type === "video" && !s.disposition?.attached_pic);
+  if (!video) {
+    if (hasAudio) {
+      const codec = streams.find((s) => s.codec_type === "audio")?.codec_name ?? "unknown";
+      throw new MediaInputError("audio_only", `This file holds only audio (${codec}) and no video.`, { codec });
+    }
+    throw new MediaInputError("no_video_stream", "This file holds no video stream.", { formatName });
+  }
+
+  const codec = video.codec_name ?? "unknown";
+  const nbFrames = Number(video.nb_frames);
+  const headerFrames = Number.isInteger(nbFrames) && nbFrames > 0 ? nbFrames : null;
+  if (isStillImage(formatName, codec, headerFrames)) {
+    throw new MediaInputError("image_not_video", `This is an image (${codec}), not a video. Upload the video clip itself.`, {
+      codec,
+      formatName,
+    });
+  }
+
+  const storedWidth = video.width ?? 0;
+  const storedHeight = video.height ?? 0;
+  const pixels = storedWidth * storedHeight;
+  if (pixels > maxPixels) {
+    throw new MediaInputError(
+      "pixel_size_over_limit",
+      `The frames are ${storedWidth} × ${storedHeight} pixels (${mp(pixels)}); this server accepts at most ${mp(maxPixels)} per frame. Export the clip at a smaller size.`,
+      { width: storedWidth, height: storedHeight, maxPixels },
+    );
+  }
+
+  // Decode the first packets: proves frames come out, and samples timestamps for the VFR check.
+  const sel = ["-select_streams", String(video.index), "-read_intervals", `%+#${o.samplePackets ?? 120}`];
+  let sample: { streams?: { nb_read_frames?: string }[]; packets?: { pts?: number; dts?: number; flags?: string }[] };
+  try {
+    sample = await ffprobeJson(config, file, [...sel, "-count_frames", "-show_entries", "stream=nb_read_frames:packet=pts,dts,flags"], o);
+  } catch (err) {
+    if (!isInputFailure(err)) throw err;
+    sample = {};
+  }
+  const decoded = Number(sample.streams?.[0]?.nb_read_frames ?? 0) || 0;
+  if (decoded === 0) {
+    throw new MediaInputError(
+      "no_decodable_frames",
+      `The video stream (${codec}) has no frame that can be decoded: the file is damaged, or its format cannot be read by this server.`,
+      { codec },
+    );
+  }
+
+  let frameCount = headerFrames;
+  if (frameCount === null) {
+    const counted = await ffprobeJson<{ streams?: { nb_read_packets?: string }[] }>(
+      config,
+      file,
+      ["-select_streams", String(video.index), "-count_packets", "-show_entries", "stream=nb_read_packets"],
+      o,
+    );
+    frameCount = Number(counted.streams?.[0]?.nb_read_packets ?? 0) || decoded;
+  }
+
+  const samplePts = (sample.packets ?? [])
+    .filter((p) => !p.flags?.includes("D"))
+    .map((p) => p.pts ?? p.dts)
+    .filter((v): v is number => typeof v === "number");
+  const rotationDeg = rotationOf(video);
+  const quarter = rotationDeg === 90 || rotationDeg === 270;
+  const duration = Number(video.duration ?? raw.format?.duration);
+
+  return {
+    codec,
+    width: quarter ? storedHeight : storedWidth,
+    height: quarter ? storedWidth : storedHeight,
+    storedWidth,
+    storedHeight,
+    storedFps: parseRate(video.avg_frame_rate) ?? parseRate(video.r_frame_rate) ?? 0,
+    rFrameRate: video.r_frame_rate ?? "0/0",
+    avgFrameRate: video.avg_frame_rate ?? "0/0",
+    frameCount,
+    durationS: Number.isFinite(duration) ? duration : null,
+    rotationDeg,
+    variableFrameRate: ratesDiffer(video.r_frame_rate, video.avg_frame_rate) || timestampsUneven(samplePts),
+    hasAudio,
+    pixelFormat: video.pix_fmt ?? null,
+    colorRange: video.color_range ?? null,
+    videoStreamIndex: video.index,
+    timeBase: video.time_base ?? "1/1000",
+    formatName,
+    sizeBytes: size,
+    raw,
+  };
+}
