@@ -1,7 +1,7 @@
 // Clips for the media tests, generated with the system ffmpeg in a temp folder (nothing binary
 // is committed). Each helper returns the file path.
 import { execa } from "execa";
-import { chmod, mkdtemp, rm, writeFile } from "node:fs/promises";
+import { chmod, mkdtemp, readFile, rm, writeFile } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
 import type { MediaConfig, MediaLogger } from "../../../server/media";
@@ -72,7 +72,8 @@ export async function makeVfrClip(dir: string, name: string): Promise<string> {
   const file = path.join(dir, name);
   await ffmpeg([
     "-f", "lavfi", "-i", "testsrc2=size=320x240:rate=120", "-frames:v", "90",
-    "-vf", "setpts='if(lt(N,30),N/30,1+(N-30)/120)/TB'", "-fps_mode", "passthrough",
+    // Whole ticks of the source's 1/120 s time base (a float expression would be truncated).
+    "-vf", "setpts='if(lt(N,30),N*4,90+N)'", "-fps_mode", "passthrough",
     "-c:v", "libx264", "-preset", "ultrafast", "-bf", "0", "-pix_fmt", "yuv420p", "-video_track_timescale", "1200", file,
   ]);
   return file;
@@ -84,4 +85,18 @@ export async function standIn(dir: string, name: string, body: string): Promise<
   await writeFile(file, `#!/bin/sh\n${body}\n`);
   await chmod(file, 0o755);
   return file;
+}
+
+/** A copy of an MP4 with the media payload zeroed: headers intact, no frame decodable. */
+export async function blankMdat(src: string, dest: string): Promise<string> {
+  const bytes = Buffer.from(await readFile(src));
+  // Walk the top-level ISO-BMFF boxes (ISO/IEC 14496-12: 32-bit size, 4-char type) and blank mdat.
+  for (let i = 0; i + 8 <= bytes.length; ) {
+    const size = bytes.readUInt32BE(i);
+    if (size < 8) break;
+    if (bytes.toString("latin1", i + 4, i + 8) === "mdat") bytes.fill(0, i + 8, i + size);
+    i += size;
+  }
+  await writeFile(dest, bytes);
+  return dest;
 }
