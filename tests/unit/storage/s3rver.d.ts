@@ -1,0 +1,15 @@
+// s3rver ships without types; only what the tests use.
+declare module "s3rver" {
+  interface S3rverOptions {
+    address?: string;
+    port?: number;
+    silent?: boolean;
+    directory?: string;
+    configureBuckets?: { name: string; configs?: (string | Buffer)[] }[];
+  }
+  export default class S3rver {
+    constructor(options: S3rverOptions);
+    run(): Promise<{ address: string; port: number }>;
+    close(): Promise<void>;
+  }
+}
