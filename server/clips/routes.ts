@@ -1,4 +1,92 @@
-import { Router } from "express";
+import { Router, type Request, type Response } from "express";
+import { z } from "zod";
+import { actorOf } from "../auth/context";
+import { HttpError } from "../http/problem";
+import { parse } from "../http/validate";
+import { clipKeys } from "../storage";
+import { thumbnailKey } from "../jobs/clip-extract";
+import { ClipListQuerySchema, ClipPatchSchema } from "../../shared/schemas/clips";
+import * as svc from "./service";
+import { clipById } from "./repository";
+import { toProgress } from "./present";
+import { sendImage, sendOriginal, videoMime } from "./serve";
 
-/** Mounted at /api/teams/:teamId (after requireTeamMember). Clip ingest fills this in. */
+/** Mounted at /api/teams/:teamId (after requireTeamMember). Uploads themselves go to /api/uploads (tus). */
 export const clipsRouter = Router({ mergeParams: true });
+
+const FrameNumber = z.coerce.number({ message: "Frame numbers start at 1" }).int("Frame numbers are whole numbers").min(1, "Frame numbers start at 1");
+const id = (req: Request) => String(req.params.clipId);
+
+clipsRouter.get("/clip-options", async (req, res) => void res.json(await svc.options(actorOf(req))));
+clipsRouter.get("/clips", async (req, res) => void res.json(await svc.list(actorOf(req), parse(ClipListQuerySchema, req.query))));
+clipsRouter.get("/clips/:clipId", async (req, res) => void res.json(await svc.get(actorOf(req), id(req))));
+clipsRouter.patch("/clips/:clipId", async (req, res) => void res.json(await svc.patch(actorOf(req), id(req), parse(ClipPatchSchema, req.body))));
+clipsRouter.delete("/clips/:clipId", async (req, res) => {
+  await svc.remove(actorOf(req), id(req));
+  res.status(204).end();
+});
+clipsRouter.post("/clips/:clipId/retry", async (req, res) => void res.json(await svc.retry(actorOf(req), id(req), req.id)));
+
+clipsRouter.get("/clips/:clipId/progress", async (req, res) => {
+  const first = await svc.progress(actorOf(req), id(req));
+  if (req.accepts(["application/json", "text/event-stream"]) !== "text/event-stream") {
+    res.set("Cache-Control", "no-store").json(first);
+    return;
+  }
+  await streamProgress(req, res, first.id);
+});
+
+/** Server-Sent Events: a `progress` event on every change, ending at ready/failed (or `gone`). */
+async function streamProgress(req: Request, res: Response, clipId: string) {
+  res.status(200).set({ "Content-Type": "text/event-stream", "Cache-Control": "no-store", Connection: "keep-alive", "X-Accel-Buffering": "no" });
+  res.flushHeaders();
+  let last = "";
+  let closed = false;
+  req.on("close", () => (closed = true));
+  let beat = Date.now();
+  while (!closed) {
+    const row = await clipById(clipId);
+    if (!row) {
+      res.write(`event: gone\ndata: {}\n\n`);
+      break;
+    }
+    const data = JSON.stringify(toProgress(row));
+    if (data !== last) {
+      res.write(`event: progress\ndata: ${data}\n\n`);
+      last = data;
+      beat = Date.now();
+    } else if (Date.now() - beat > 15_000) {
+      res.write(`: still working\n\n`);
+      beat = Date.now();
+    }
+    if (row.status === "ready" || row.status === "failed") break;
+    await new Promise((r) => setTimeout(r, 400));
+  }
+  res.end();
+}
+
+clipsRouter.get("/clips/:clipId/frames/:n", async (req, res) => {
+  const j = await svc.visibleClip(actorOf(req), id(req));
+  const n = parse(FrameNumber, req.params.n);
+  const c = j.clip;
+  if (c.frameCount !== null && n > c.frameCount) throw new HttpError(404, "no_such_frame", `This clip has ${c.frameCount} frames; there is no frame ${n}.`);
+  const fmt = c.frameFormat === "webp" ? "webp" : "jpg";
+  await sendImage(res, clipKeys.frame(c.id, n, fmt), fmt === "jpg" ? "image/jpeg" : "image/webp",
+    new HttpError(404, "frame_not_ready", `Frame ${n} has not been extracted yet (${c.framesDone} of ${c.frameCount ?? "?"} done).`));
+});
+
+clipsRouter.get("/clips/:clipId/strip", async (req, res) => {
+  const j = await svc.visibleClip(actorOf(req), id(req));
+  await sendImage(res, clipKeys.strip(j.clip.id), "image/jpeg", new HttpError(404, "strip_not_ready", "The preview strip is made once every frame is extracted."));
+});
+
+clipsRouter.get("/clips/:clipId/thumbnail", async (req, res) => {
+  const j = await svc.visibleClip(actorOf(req), id(req));
+  await sendImage(res, thumbnailKey(j.clip.id), "image/jpeg", new HttpError(404, "thumbnail_not_ready", "The thumbnail appears with the first frame."));
+});
+
+clipsRouter.get("/clips/:clipId/original", async (req, res) => {
+  const j = await svc.visibleClip(actorOf(req), id(req));
+  const probe = j.clip.probe as { formatName?: string } | null;
+  await sendOriginal(req, res, clipKeys.original(j.clip.id), videoMime(probe?.formatName), j.clip.originalName || "clip");
+});

@@ -1,5 +1,8 @@
 import type pino from "pino";
 import type { JobName, JobTypes } from "./types";
+import { jobPolicies } from "./types";
+import { extractClip } from "./clip-extract";
+import { sweepClips } from "./clip-sweep";
 
 export interface JobContext {
   jobId: string;
@@ -8,5 +11,11 @@ export interface JobContext {
 }
 export type JobHandler<N extends JobName> = (data: JobTypes[N], ctx: JobContext) => Promise<void>;
 
-// Filled in by feature areas (clip ingest registers clip.extract and clip.sweep).
-export const handlers: { [N in JobName]?: JobHandler<N> } = {};
+export const handlers: { [N in JobName]?: JobHandler<N> } = {
+  "clip.extract": async ({ clipId }, ctx) => {
+    await extractClip(clipId, { log: ctx.log, lastAttempt: ctx.retryCount >= jobPolicies["clip.extract"].retryLimit });
+  },
+  "clip.sweep": async (_data, ctx) => {
+    await sweepClips(ctx.log);
+  },
+};

@@ -1,0 +1,134 @@
+// A finished upload becomes a clip: checksum, probe, duplicate check, then (only then) the
+// original is stored under the clip's id and the row is written. Every rejection leaves nothing
+// behind: the caller discards the upload, and anything stored here is removed again.
+import { randomUUID } from "node:crypto";
+import { env } from "../env";
+import { log } from "../log";
+import { HttpError } from "../http/problem";
+import { MediaInputError } from "../media/errors";
+import { probe, type ProbeResult } from "../media/probe";
+import { clipKeys, displayFileName, sha256File } from "../storage";
+import { PLAYBACK_RATE_MAX_FPS, type ClipMeta } from "../../shared/schemas/clips";
+import { sendExtract } from "../jobs/clip-queue";
+import { mediaConfig, storage } from "./deps";
+import * as repo from "./repository";
+
+/** A problem with extra members in its body (e.g. the existing clip of a duplicate). */
+export class ClipProblem extends HttpError {
+  constructor(status: number, code: string, message: string, readonly extra: Record<string, unknown> = {}) {
+    super(status, code, message);
+  }
+}
+
+const fieldProblem = (path: string, message: string) => new HttpError(422, "validation_failed", `${path}: ${message}`, [{ path, message }]);
+
+/** The form's references must be of this team; checked before any byte arrives and again at the end. */
+export async function checkMetaRefs(teamId: string, m: Pick<ClipMeta, "playerId" | "sessionId" | "stickId">) {
+  if (!(await repo.isPlayerOf(teamId, m.playerId))) throw fieldProblem("playerId", "Pick a player of this team");
+  if (m.sessionId && !(await repo.sessionInTeam(teamId, m.sessionId))) throw fieldProblem("sessionId", "That session is not in this team");
+  if (m.stickId && !(await repo.stickInTeam(teamId, m.stickId))) throw fieldProblem("stickId", "That stick is not in this team");
+}
+
+/**
+ * The capture rate to keep. A stored rate above the playback range is believable as it stands;
+ * at or below it only the person's confirmation counts.
+ */
+export function decideCaptureRate(meta: { captureFps?: number; captureFpsConfirmed: boolean }, storedFps: number) {
+  const captureFps = meta.captureFps ?? (storedFps > 0 ? storedFps : 30);
+  const believable = storedFps > PLAYBACK_RATE_MAX_FPS && Math.abs(captureFps - storedFps) < 0.01;
+  return { captureFps, captureFpsConfirmed: meta.captureFps !== undefined && meta.captureFpsConfirmed ? true : believable };
+}
+
+const stripExtension = (name: string) => name.replace(/\.[A-Za-z0-9]{1,5}$/, "");
+
+export interface IngestRequest {
+  teamId: string;
+  userId: string;
+  /** The complete upload on local disk; moved into storage on success. */
+  file: string;
+  /** As the client named it: shown, never used as a key. */
+  originalName: string;
+  meta: ClipMeta;
+  reqId?: string;
+  /** false: queue no job (the seed extracts in-process). */
+  enqueue?: boolean;
+}
+
+export async function probeUpload(file: string): Promise<ProbeResult> {
+  try {
+    return await probe(mediaConfig(), file, { maxPixels: env().MAX_PIXELS });
+  } catch (err) {
+    if (err instanceof MediaInputError) throw new ClipProblem(422, err.code, err.message, err.details);
+    throw err;
+  }
+}
+
+export async function ingestUpload(r: IngestRequest): Promise<repo.ClipRow> {
+  await checkMetaRefs(r.teamId, r.meta);
+  const { sha256, size } = await sha256File(r.file);
+  const facts = await probeUpload(r.file);
+  await rejectDuplicate(r.teamId, sha256);
+
+  const sessionId = r.meta.sessionId ?? (r.meta.newSession ? await repo.findOrCreateSession(r.teamId, r.meta.newSession) : null);
+  const name = displayFileName(r.originalName);
+  const id = randomUUID();
+  const st = storage();
+  await st.putFile(clipKeys.original(id), r.file, { move: true });
+  let row: repo.ClipRow | null;
+  try {
+    row = await repo.insertClip({
+      id,
+      teamId: r.teamId,
+      sessionId,
+      playerId: r.meta.playerId,
+      stickId: r.meta.stickId ?? null,
+      uploadedBy: r.userId,
+      title: r.meta.title || stripExtension(name),
+      shotType: r.meta.shotType,
+      cameraView: r.meta.cameraView,
+      ...decideCaptureRate(r.meta, facts.storedFps),
+      storedFps: facts.storedFps || null,
+      exposureUs: r.meta.exposureUs ?? null,
+      notes: r.meta.notes,
+      status: "extracting",
+      frameCount: facts.frameCount,
+      width: facts.width,
+      height: facts.height,
+      durationS: facts.durationS,
+      rotationDeg: facts.rotationDeg,
+      variableFrameRate: facts.variableFrameRate,
+      codec: facts.codec,
+      probe: facts,
+      frameFormat: env().FRAME_FORMAT,
+      sha256,
+      sizeBytes: size,
+      originalName: name,
+    });
+  } catch (err) {
+    await st.deletePrefix(clipKeys.prefix(id));
+    throw err;
+  }
+  if (!row) {
+    // Same file finished at the same moment in another upload: the unique index kept one.
+    await st.deletePrefix(clipKeys.prefix(id));
+    await rejectDuplicate(r.teamId, sha256);
+    throw new ClipProblem(409, "duplicate_clip", "This file was just uploaded to this team by another upload.");
+  }
+  if (r.enqueue !== false) {
+    // The row says "extracting" either way; if the queue is down the sweep queues it later.
+    await sendExtract(row.id, r.reqId).catch((err) => log.error({ err, clipId: row.id }, "could not queue frame extraction"));
+  }
+  return row;
+}
+
+async function rejectDuplicate(teamId: string, sha256: string) {
+  const dup = await repo.clipBySha(teamId, sha256);
+  if (!dup) return;
+  const label = dup.title || dup.originalName;
+  throw new ClipProblem(
+    409,
+    "duplicate_clip",
+    `This file is already in the team as "${label}" (uploaded ${dup.createdAt.toISOString().slice(0, 10)}). Nothing new was stored.`,
+    { existingClipId: dup.id, existingClipTitle: label },
+  );
+}

@@ -1,0 +1,180 @@
+// The only Drizzle code of clip ingest.
+import { and, asc, desc, eq, inArray, isNotNull, lt, sql, type SQL } from "drizzle-orm";
+import { alias } from "drizzle-orm/pg-core";
+import { db } from "../db/client";
+import { clip, member, stick, teamSettings, trainingSession, user } from "../db/schema";
+import type { ClipSort, ShotType } from "../../shared/schemas/clips";
+
+export type ClipRow = typeof clip.$inferSelect;
+export type NewClipRow = typeof clip.$inferInsert;
+
+const uploader = alias(user, "uploader");
+
+/** A clip with the names the API shows next to it. */
+const joined = () =>
+  db()
+    .select({
+      clip,
+      playerName: user.name,
+      uploaderName: uploader.name,
+      session: { id: trainingSession.id, date: trainingSession.date, venue: trainingSession.venue, drill: trainingSession.drill },
+      stickLabel: stick.label,
+    })
+    .from(clip)
+    .leftJoin(user, eq(user.id, clip.playerId))
+    .leftJoin(uploader, eq(uploader.id, clip.uploadedBy))
+    .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
+    .leftJoin(stick, eq(stick.id, clip.stickId));
+export type JoinedClip = Awaited<ReturnType<typeof joined>>[number];
+
+export async function clipInTeam(teamId: string, id: string): Promise<JoinedClip | null> {
+  const [row] = await joined().where(and(eq(clip.teamId, teamId), eq(clip.id, id)));
+  return row ?? null;
+}
+
+export async function clipById(id: string): Promise<ClipRow | null> {
+  const [row] = await db().select().from(clip).where(eq(clip.id, id));
+  return row ?? null;
+}
+
+export interface ListFilter {
+  playerId?: string;
+  sessionId?: string;
+  shotType?: ShotType;
+  status?: ClipRow["status"];
+}
+
+const sortColumn: Record<ClipSort, SQL | typeof clip.createdAt> = {
+  created: clip.createdAt,
+  title: sql`lower(${clip.title})`,
+  player: sql`lower(${user.name})`,
+  session: sql`${trainingSession.date}`,
+  shotType: sql`${clip.shotType}`,
+  captureFps: sql`${clip.captureFps}`,
+  frames: sql`coalesce(${clip.frameCount}, 0)`,
+  status: sql`${clip.status}`,
+};
+
+export async function listClips(teamId: string, f: ListFilter, sort: ClipSort, dir: "asc" | "desc", page: number, pageSize: number) {
+  const where = and(
+    eq(clip.teamId, teamId),
+    f.playerId ? eq(clip.playerId, f.playerId) : undefined,
+    f.sessionId ? eq(clip.sessionId, f.sessionId) : undefined,
+    f.shotType ? eq(clip.shotType, f.shotType) : undefined,
+    f.status ? eq(clip.status, f.status) : undefined,
+  );
+  const order = dir === "asc" ? asc : desc;
+  const rows = await joined()
+    .where(where)
+    .orderBy(order(sortColumn[sort]), desc(clip.createdAt), asc(clip.id))
+    .limit(pageSize)
+    .offset((page - 1) * pageSize);
+  const [{ n }] = await db().select({ n: sql<number>`count(*)::int` }).from(clip).where(where);
+  return { rows, total: n };
+}
+
+/** Inserts a clip; null when the team already has a clip with this checksum (unique index). */
+export async function insertClip(values: NewClipRow): Promise<ClipRow | null> {
+  const rows = await db().insert(clip).values(values).onConflictDoNothing().returning();
+  return rows[0] ?? null;
+}
+
+/** Updates a clip; null when it no longer exists (deleted meanwhile). */
+export async function updateClip(id: string, patch: Partial<NewClipRow>): Promise<ClipRow | null> {
+  const [row] = await db().update(clip).set({ ...patch, updatedAt: new Date() }).where(eq(clip.id, id)).returning();
+  return row ?? null;
+}
+
+export async function setProgress(id: string, framesDone: number): Promise<boolean> {
+  const r = await db().update(clip).set({ framesDone, updatedAt: new Date() }).where(eq(clip.id, id)).returning({ id: clip.id });
+  return r.length > 0;
+}
+
+export async function deleteClipRow(teamId: string, id: string): Promise<ClipRow | null> {
+  const [row] = await db().delete(clip).where(and(eq(clip.teamId, teamId), eq(clip.id, id))).returning();
+  return row ?? null;
+}
+
+export async function clipBySha(teamId: string, sha256: string) {
+  const [row] = await db().select({ id: clip.id, title: clip.title, originalName: clip.originalName, createdAt: clip.createdAt }).from(clip)
+    .where(and(eq(clip.teamId, teamId), eq(clip.sha256, sha256)));
+  return row ?? null;
+}
+
+export async function teamUsageBytes(teamId: string): Promise<number> {
+  const [row] = await db().select({ n: sql<string>`coalesce(sum(${clip.sizeBytes}), 0)` }).from(clip).where(eq(clip.teamId, teamId));
+  return Number(row?.n ?? 0);
+}
+
+export async function teamQuotaBytes(teamId: string): Promise<number | null> {
+  const [row] = await db().select({ q: teamSettings.quotaBytes }).from(teamSettings).where(eq(teamSettings.teamId, teamId));
+  return row?.q ?? null;
+}
+
+const firstRole = (r: string) => r.split(",")[0]?.trim();
+
+/** Players of the team (the people whose shots a clip can hold). */
+export async function playersOf(teamId: string) {
+  const rows = await db().select({ id: user.id, name: user.name, role: member.role }).from(member)
+    .innerJoin(user, eq(user.id, member.userId)).where(eq(member.organizationId, teamId)).orderBy(user.name);
+  return rows.filter((r) => firstRole(r.role) === "player").map(({ id, name }) => ({ id, name }));
+}
+
+export async function isPlayerOf(teamId: string, userId: string) {
+  const [row] = await db().select({ role: member.role }).from(member).where(and(eq(member.organizationId, teamId), eq(member.userId, userId)));
+  return !!row && firstRole(row.role) === "player";
+}
+
+export async function sessionsOf(teamId: string) {
+  return db().select({ id: trainingSession.id, date: trainingSession.date, venue: trainingSession.venue, drill: trainingSession.drill })
+    .from(trainingSession).where(eq(trainingSession.teamId, teamId)).orderBy(desc(trainingSession.date), asc(trainingSession.venue)).limit(500);
+}
+
+export async function sessionInTeam(teamId: string, id: string) {
+  const [row] = await db().select({ id: trainingSession.id }).from(trainingSession).where(and(eq(trainingSession.teamId, teamId), eq(trainingSession.id, id)));
+  return row ?? null;
+}
+
+/** The team's session with this date, venue and drill, created when there is none. */
+export async function findOrCreateSession(teamId: string, s: { date: string; venue: string; drill: string }) {
+  const match = and(eq(trainingSession.teamId, teamId), eq(trainingSession.date, s.date), eq(trainingSession.venue, s.venue), eq(trainingSession.drill, s.drill));
+  const [found] = await db().select({ id: trainingSession.id }).from(trainingSession).where(match);
+  if (found) return found.id;
+  const [row] = await db().insert(trainingSession).values({ teamId, ...s }).returning({ id: trainingSession.id });
+  return row.id;
+}
+
+export async function sticksOf(teamId: string) {
+  return db().select({ id: stick.id, label: stick.label, ownerId: stick.ownerId }).from(stick).where(eq(stick.teamId, teamId)).orderBy(stick.label);
+}
+
+export async function stickInTeam(teamId: string, id: string) {
+  const [row] = await db().select({ id: stick.id }).from(stick).where(and(eq(stick.teamId, teamId), eq(stick.id, id)));
+  return row ?? null;
+}
+
+export async function userContact(userId: string) {
+  const [row] = await db().select({ email: user.email, name: user.name }).from(user).where(eq(user.id, userId));
+  return row ?? null;
+}
+
+// --- repair (clip.sweep) ----------------------------------------------------------------------
+
+/** Clips still extracting whose row has not moved for `staleMs` (their worker may be gone). */
+export async function staleExtracting(staleMs: number) {
+  return db().select({ id: clip.id }).from(clip)
+    .where(and(eq(clip.status, "extracting"), lt(clip.updatedAt, new Date(Date.now() - staleMs))));
+}
+
+/** Which of these ids still have a clip row. */
+export async function existingClipIds(ids: string[]): Promise<Set<string>> {
+  if (!ids.length) return new Set();
+  const rows = await db().select({ id: clip.id }).from(clip).where(inArray(clip.id, ids));
+  return new Set(rows.map((r) => r.id));
+}
+
+/** Ready clips (checked by the sweep for missing frames). */
+export async function readyClips() {
+  return db().select({ id: clip.id, frameCount: clip.frameCount, frameFormat: clip.frameFormat }).from(clip)
+    .where(and(eq(clip.status, "ready"), isNotNull(clip.frameCount)));
+}

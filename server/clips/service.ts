@@ -1,0 +1,87 @@
+// The rules of the clip library: who sees and changes which clip, retry and delete.
+import { policy, type Actor } from "../auth/policy";
+import { recordAudit } from "../audit/repository";
+import { log } from "../log";
+import { forbidden, HttpError, notFound } from "../http/problem";
+import { cancelExtract, sendExtract } from "../jobs/clip-queue";
+import { clipKeys } from "../storage";
+import type { ClipDetail, ClipListQuerySchema, ClipOptions, ClipPage, ClipPatch, ClipProgress } from "../../shared/schemas/clips";
+import type { z } from "zod";
+import { storage } from "./deps";
+import { checkMetaRefs } from "./ingest";
+import { toDetail, toProgress, toSummary } from "./present";
+import * as repo from "./repository";
+
+const clipNotFound = () => notFound("That clip");
+
+/** The clip if the actor may see it; another team's clip or a player's other clips are 404. */
+export async function visibleClip(a: Actor, id: string): Promise<repo.JoinedClip> {
+  const j = await repo.clipInTeam(a.teamId, id).catch(() => null);
+  if (!j || !policy.viewClip(a, { teamId: j.clip.teamId, playerId: j.clip.playerId })) throw clipNotFound();
+  return j;
+}
+
+async function editableClip(a: Actor, id: string, allowed: (a: Actor, c: { teamId: string }) => boolean, what: string) {
+  const j = await visibleClip(a, id);
+  if (!allowed(a, j.clip)) throw forbidden(`Your role in this team does not allow ${what} clips.`);
+  return j;
+}
+
+export async function options(a: Actor): Promise<ClipOptions> {
+  if (!policy.uploadClip(a)) throw forbidden("Your role in this team does not allow uploading clips.");
+  const [sessions, players, sticks] = await Promise.all([repo.sessionsOf(a.teamId), repo.playersOf(a.teamId), repo.sticksOf(a.teamId)]);
+  return { sessions, players, sticks };
+}
+
+export async function list(a: Actor, q: z.output<typeof ClipListQuerySchema>): Promise<ClipPage> {
+  // Players see only the clips of their own shots.
+  const playerId = policy.listClips(a) ? q.playerId : a.userId;
+  if (!policy.listClips(a) && q.playerId && q.playerId !== a.userId) return { items: [], total: 0, page: q.page, pageSize: q.pageSize };
+  const { rows, total } = await repo.listClips(a.teamId, { playerId, sessionId: q.sessionId, shotType: q.shotType, status: q.status }, q.sort, q.dir, q.page, q.pageSize);
+  return { items: rows.map(toSummary), total, page: q.page, pageSize: q.pageSize };
+}
+
+export const get = async (a: Actor, id: string): Promise<ClipDetail> => toDetail(await visibleClip(a, id));
+
+export async function progress(a: Actor, id: string): Promise<ClipProgress> {
+  return toProgress((await visibleClip(a, id)).clip);
+}
+
+export async function patch(a: Actor, id: string, p: ClipPatch): Promise<ClipDetail> {
+  const j = await editableClip(a, id, policy.editClip, "editing");
+  const c = j.clip;
+  await checkMetaRefs(a.teamId, { playerId: p.playerId ?? c.playerId ?? "", sessionId: p.sessionId, stickId: p.stickId }).catch((err) => {
+    // A clip whose player left the team can still be edited as long as the player is not touched.
+    if (err instanceof HttpError && err.errors?.[0]?.path === "playerId" && p.playerId === undefined) return;
+    throw err;
+  });
+  const sessionId = p.newSession ? await repo.findOrCreateSession(a.teamId, p.newSession) : p.sessionId;
+  // Stating the capture rate is confirming it, unless the person says otherwise.
+  const captureFpsConfirmed = p.captureFpsConfirmed ?? (p.captureFps !== undefined ? true : undefined);
+  const { newSession: _n, ...rest } = p;
+  await repo.updateClip(c.id, { ...rest, ...(sessionId ? { sessionId } : {}), ...(captureFpsConfirmed !== undefined ? { captureFpsConfirmed } : {}) });
+  return get(a, id);
+}
+
+export async function retry(a: Actor, id: string, reqId?: string): Promise<ClipDetail> {
+  const j = await editableClip(a, id, policy.editClip, "retrying");
+  if (j.clip.status !== "failed") throw new HttpError(409, "not_failed", "Only a clip that failed can be retried; this one is " + j.clip.status + ".");
+  await repo.updateClip(j.clip.id, { status: "extracting", failureReason: null, framesDone: 0 });
+  await sendExtract(j.clip.id, reqId);
+  return get(a, id);
+}
+
+export async function remove(a: Actor, id: string): Promise<void> {
+  const j = await editableClip(a, id, policy.deleteClip, "deleting");
+  const c = j.clip;
+  await cancelExtract(c.id).catch((err) => log.warn({ err, clipId: c.id }, "could not cancel the clip's job"));
+  // Shots, their results and shares go with the row (foreign keys cascade).
+  const gone = await repo.deleteClipRow(a.teamId, c.id);
+  if (!gone) throw clipNotFound();
+  await recordAudit({
+    teamId: a.teamId, actorId: a.userId, action: "clip.deleted", targetType: "clip", targetId: c.id,
+    detail: { title: c.title, originalName: c.originalName, sha256: c.sha256, frameCount: c.frameCount },
+  });
+  // A worker still writing frames removes them itself when it sees the row gone; the sweep catches the rest.
+  await storage().deletePrefix(clipKeys.prefix(c.id)).catch((err) => log.warn({ err, clipId: c.id }, "clip files left for the sweep"));
+}

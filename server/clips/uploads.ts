@@ -1,0 +1,198 @@
+// The resumable upload endpoint (tus 1.0 via @tus/server) at /api/uploads. Who may upload, the
+// size and the team's quota are checked when the upload is created, before any byte arrives;
+// the file becomes a clip in onUploadFinish (see ingest.ts). Unfinished uploads live in
+// <UPLOAD_DIR>/.tus until they finish, are cancelled, or go stale.
+import { readdir, rm, stat, statfs } from "node:fs/promises";
+import path from "node:path";
+import type { Express, Request as ExpressRequest, Response as ExpressResponse } from "express";
+import { Server, Metadata, type Upload } from "@tus/server";
+import { FileStore } from "@tus/file-store";
+import { auth } from "../auth/auth";
+import { roleIn } from "../auth/context";
+import { policy, type Actor } from "../auth/policy";
+import { env } from "../env";
+import { log } from "../log";
+import { HttpError } from "../http/problem";
+import { zodToHttp } from "../http/problem";
+import { ClipMetaSchema, type ClipMeta } from "../../shared/schemas/clips";
+import { checkMetaRefs, ClipProblem, ingestUpload } from "./ingest";
+import { tusDir } from "./deps";
+import { clipInTeam, teamQuotaBytes, teamUsageBytes } from "./repository";
+import { toSummary } from "./present";
+
+export const UPLOAD_PATH = "/api/uploads";
+/** An unfinished upload untouched this long is removed. */
+export const STALE_UPLOAD_MS = 24 * 3600_000;
+
+type TusRequest = Parameters<NonNullable<ConstructorParameters<typeof Server>[0]["onIncomingRequest"]>>[0];
+
+const gb = (n: number) => `${(n / 1024 ** 3).toFixed(n < 10 * 1024 ** 3 ? 2 : 1)} GB`;
+const sizeText = (n: number) => (n >= 1024 ** 3 ? gb(n) : `${(n / 1024 ** 2).toFixed(1)} MB`);
+
+/** tus hooks answer by throwing { status_code, body }; our bodies are problem+json documents. */
+function tusProblem(status: number, code: string, detail: string, extra: Record<string, unknown> = {}) {
+  return { status_code: status, body: JSON.stringify({ type: "about:blank", status, code, detail, ...extra }) };
+}
+
+function toTusError(err: unknown) {
+  if (err instanceof ClipProblem) return tusProblem(err.status, err.code, err.message, err.extra);
+  if (err instanceof HttpError) return tusProblem(err.status, err.code, err.message, err.errors ? { errors: err.errors } : {});
+  if (err && typeof err === "object" && "status_code" in err) return err as { status_code: number; body: string };
+  log.error({ err }, "upload failed");
+  return tusProblem(500, "internal", "The upload could not be processed on our side. Try again; if it keeps happening, tell your team admin.");
+}
+
+const notFound = () => tusProblem(404, "not_found", "That upload was not found, or you do not have access to it.");
+
+async function actorFor(req: TusRequest, teamId: string): Promise<Actor> {
+  const s = await auth().api.getSession({ headers: req.headers });
+  if (!s) throw tusProblem(401, "unauthenticated", "Please sign in to continue.");
+  const role = teamId ? await roleIn(s.user.id, teamId) : null;
+  if (!role) throw tusProblem(404, "not_found", "That team was not found, or you do not have access to it.");
+  const actor = { userId: s.user.id, teamId, role };
+  if (!policy.uploadClip(actor)) throw tusProblem(403, "forbidden", "Your role in this team does not allow uploading clips.");
+  return actor;
+}
+
+function parseMeta(raw: string | null | undefined): ClipMeta {
+  let json: unknown;
+  try {
+    json = JSON.parse(raw ?? "");
+  } catch {
+    throw new HttpError(422, "validation_failed", "The upload carries no clip details. Fill in the form for this file and start again.");
+  }
+  const r = ClipMetaSchema.safeParse(json);
+  if (!r.success) throw zodToHttp(r.error);
+  return r.data;
+}
+
+/** Bytes the team's unfinished uploads will take, from their declared lengths. */
+async function pendingBytes(store: FileStore, teamId: string): Promise<number> {
+  let total = 0;
+  for (const id of await store.configstore.list!().catch(() => [] as string[])) {
+    const u = await store.configstore.get(id);
+    if (u?.metadata?.teamId === teamId) total += (u.size ?? 0) - (u.offset ?? 0);
+  }
+  return total;
+}
+
+export function discardUpload(id: string) {
+  const dir = tusDir();
+  return Promise.all([rm(path.join(dir, id), { force: true }), rm(path.join(dir, `${id}.json`), { force: true })]);
+}
+
+/** Remove unfinished uploads whose file has not grown for maxAgeMs, and halves of pairs. */
+export async function sweepStaleUploads(maxAgeMs = STALE_UPLOAD_MS): Promise<number> {
+  const dir = tusDir();
+  const names = await readdir(dir).catch(() => [] as string[]);
+  const ids = new Set(names.map((n) => n.replace(/\.json$/, "")));
+  let removed = 0;
+  for (const id of ids) {
+    const data = await stat(path.join(dir, id)).catch(() => null);
+    const info = await stat(path.join(dir, `${id}.json`)).catch(() => null);
+    const touched = Math.max(data?.mtimeMs ?? 0, info?.mtimeMs ?? 0);
+    const halfPair = !data || !info;
+    if (Date.now() - touched > (halfPair ? Math.min(maxAgeMs, 3600_000) : maxAgeMs)) {
+      await discardUpload(id);
+      removed++;
+    }
+  }
+  return removed;
+}
+
+let tus: Server | undefined;
+export function uploadServer(): Server {
+  if (tus) return tus;
+  const e = env();
+  const store = new FileStore({ directory: tusDir() });
+  const actors = new WeakMap<TusRequest, Actor>();
+  tus = new Server({
+    path: UPLOAD_PATH,
+    datastore: store,
+    relativeLocation: true,
+    allowedOrigins: [new URL(e.PUBLIC_URL).origin],
+    // The size limit is ours (onUploadCreate), to answer with our message rather than tus's.
+    maxSize: 0,
+    onIncomingRequest: async (req, uploadId) => {
+      if (req.method === "POST") {
+        const md = Metadata.parse(req.headers.get("upload-metadata") ?? undefined);
+        actors.set(req, await actorFor(req, md.teamId ?? ""));
+        return;
+      }
+      const upload = await store.getUpload(uploadId).catch(() => {
+        throw notFound();
+      });
+      const actor = await actorFor(req, upload.metadata?.teamId ?? "").catch((err) => {
+        throw err.status_code === 401 ? err : notFound();
+      });
+      if (upload.metadata?.userId !== actor.userId) throw notFound();
+    },
+    onUploadCreate: async (req, upload) => {
+      try {
+        const actor = actors.get(req)!;
+        const size = upload.size;
+        if (size === undefined) throw new HttpError(400, "length_required", "Send the file's size when the upload starts (Upload-Length).");
+        if (size === 0) throw new ClipProblem(422, "empty_file", "The file is empty (0 bytes). Nothing was stored; please upload the clip again.");
+        if (size > e.MAX_UPLOAD_BYTES)
+          throw new ClipProblem(413, "too_large", `The file is ${sizeText(size)}; one clip can be at most ${sizeText(e.MAX_UPLOAD_BYTES)}. Trim the clip around the shot, or export it at a smaller size.`, { maxBytes: e.MAX_UPLOAD_BYTES });
+        const meta = parseMeta(upload.metadata?.meta);
+        await checkMetaRefs(actor.teamId, meta);
+        const quota = (await teamQuotaBytes(actor.teamId)) ?? e.TEAM_QUOTA_BYTES;
+        const used = (await teamUsageBytes(actor.teamId)) + (await pendingBytes(store, actor.teamId));
+        if (used + size > quota)
+          throw new ClipProblem(413, "quota_exceeded", `This upload (${sizeText(size)}) would take the team over its storage quota: ${sizeText(used)} of ${sizeText(quota)} are in use. Delete clips you no longer need, or ask your team admin for more space.`, { quotaBytes: quota, usedBytes: used });
+        const free = await statfs(tusDir()).then((s) => s.bavail * s.bsize).catch(() => Infinity);
+        if (free < size * 2 + 512 * 1024 ** 2)
+          throw new ClipProblem(507, "disk_full", "The server is short of disk space for this file right now. Try again later, or tell your team admin.");
+        const filename = upload.metadata?.filename ?? "";
+        return { metadata: { teamId: actor.teamId, userId: actor.userId, filename, meta: JSON.stringify(meta) } };
+      } catch (err) {
+        throw toTusError(err);
+      }
+    },
+    onUploadFinish: async (req, upload) => {
+      const md = upload.metadata ?? {};
+      try {
+        const row = await ingestUpload({
+          teamId: md.teamId!,
+          userId: md.userId!,
+          file: path.join(tusDir(), upload.id),
+          originalName: md.filename ?? "",
+          meta: parseMeta(md.meta),
+          reqId: req.headers.get("x-request-id") ?? undefined,
+        });
+        const joined = await clipInTeam(row.teamId, row.id);
+        return { status_code: 200, headers: { "Content-Type": "application/json" }, body: JSON.stringify({ clip: joined ? toSummary(joined) : null }) };
+      } catch (err) {
+        throw toTusError(err);
+      } finally {
+        await discardUpload(upload.id);
+      }
+    },
+    onResponseError: (_req, err) => {
+      const e = err as { status_code?: number; body?: string; message?: string };
+      if (e.body?.startsWith("{")) return { status_code: e.status_code ?? 500, body: e.body };
+      if (e.status_code) return tusProblem(e.status_code, "upload_error", (e.body ?? "").trim() || "The upload was refused.");
+      return toTusError(err);
+    },
+  });
+  return tus;
+}
+
+export type { Upload };
+
+/** Mount on the app before any body parser (tus reads the raw stream). */
+export function mountUploads(app: Express) {
+  const handle = (req: ExpressRequest, res: ExpressResponse) => {
+    if (req.method === "GET") {
+      res.status(405).type("application/problem+json").send(JSON.stringify({ status: 405, code: "method_not_allowed", detail: "Uploads cannot be downloaded; open the clip instead." }));
+      return;
+    }
+    void uploadServer().handle(req, res);
+  };
+  app.all(UPLOAD_PATH, handle);
+  app.all(`${UPLOAD_PATH}/*splat`, handle);
+  const sweep = () => void sweepStaleUploads().catch((err) => log.warn({ err }, "upload sweep failed"));
+  setTimeout(sweep, 10_000).unref();
+  setInterval(sweep, 30 * 60_000).unref();
+}

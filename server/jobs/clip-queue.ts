@@ -1,0 +1,82 @@
+// Clip jobs on the queue: send one extraction per clip, find and cancel a clip's jobs, and
+// schedule the repair sweep. pg-boss keeps its jobs in PostgreSQL (schema pgboss), so a clip's
+// live job is found by its payload.
+import { sql } from "drizzle-orm";
+import { db } from "../db/client";
+import { log } from "../log";
+import { enqueue, queue } from "./runtime";
+
+type LiveState = "created" | "retry" | "active";
+export interface LiveJob { id: string; state: LiveState; startedOn: Date | null; retryCount: number }
+
+/** The queue when this process started it (server, worker); scripts and most tests have none. */
+function runningQueue() {
+  try {
+    return queue();
+  } catch {
+    return null;
+  }
+}
+function boss() {
+  const b = runningQueue();
+  if (!b) throw new Error("the job queue is not started in this process");
+  return b;
+}
+
+export async function liveExtractJobs(clipId: string): Promise<LiveJob[]> {
+  const r = await db().execute<{ id: string; state: LiveState; started_on: Date | null; retry_count: number }>(
+    sql`select id, state, started_on, retry_count from pgboss.job
+        where name = 'clip.extract' and data->>'clipId' = ${clipId} and state in ('created', 'retry', 'active')`,
+  );
+  return r.rows.map((j) => ({ id: j.id, state: j.state, startedOn: j.started_on, retryCount: j.retry_count }));
+}
+
+/**
+ * Queue the extraction of a clip unless one is already waiting or running. Without a queue in
+ * this process the clip stays "extracting" and the next sweep queues it.
+ */
+export async function sendExtract(clipId: string, reqId?: string): Promise<string | null> {
+  if (!runningQueue()) {
+    log.warn({ clipId }, "no job queue in this process; the clip sweep will queue its extraction");
+    return null;
+  }
+  void ensureClipSweepScheduled();
+  const live = await liveExtractJobs(clipId);
+  if (live.length) return live[0].id;
+  return enqueue("clip.extract", { clipId, reqId });
+}
+
+/** Cancel waiting and running extraction jobs of a clip (a running handler notices the row is gone). */
+export async function cancelExtract(clipId: string): Promise<number> {
+  const b = runningQueue();
+  if (!b) return 0;
+  const ids = (await liveExtractJobs(clipId)).map((j) => j.id);
+  if (ids.length) await b.cancel("clip.extract", ids);
+  return ids.length;
+}
+
+/** Hand an active job back to the queue as failed: pg-boss retries it with backoff while attempts remain. */
+export async function failJob(jobId: string, reason: string) {
+  await boss().fail("clip.extract", jobId, { message: reason });
+}
+
+/** The state pg-boss gives a job after it was failed (retry, or failed once attempts are used up). */
+export async function jobState(jobId: string): Promise<string | null> {
+  const r = await db().execute<{ state: string }>(sql`select state from pgboss.job where id = ${jobId}`);
+  return r.rows[0]?.state ?? null;
+}
+
+export const SWEEP_CRON = "*/5 * * * *";
+let scheduled: Promise<void> | undefined;
+/** Every five minutes and once now. Idempotent per process; the schedule itself lives in PostgreSQL. */
+export function ensureClipSweepScheduled(): Promise<void> {
+  scheduled ??= (async () => {
+    const b = boss();
+    await b.schedule("clip.sweep", SWEEP_CRON, {});
+    await b.send("clip.sweep", {});
+  })().catch((err) => {
+    scheduled = undefined;
+    log.warn({ err }, "could not schedule the clip sweep");
+  });
+  return scheduled;
+}

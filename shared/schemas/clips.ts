@@ -1,0 +1,179 @@
+import { z } from "zod";
+
+// Clip metadata and the clip API's shapes, checked by the upload form and by the server.
+
+export const shotTypes = ["slap", "wrist", "snap", "backhand"] as const;
+export const cameraViews = ["side", "front", "overhead", "other"] as const;
+export const clipStatuses = ["uploading", "probing", "extracting", "ready", "failed"] as const;
+export type ShotType = (typeof shotTypes)[number];
+export type CameraView = (typeof cameraViews)[number];
+export type ClipStatus = (typeof clipStatuses)[number];
+
+export const shotTypeLabels: Record<ShotType, string> = { slap: "Slap shot", wrist: "Wrist shot", snap: "Snap shot", backhand: "Backhand" };
+export const cameraViewLabels: Record<CameraView, string> = { side: "Side", front: "Front", overhead: "Overhead", other: "Other" };
+export const clipStatusLabels: Record<ClipStatus, string> = {
+  uploading: "Uploading", probing: "Checking file", extracting: "Extracting frames", ready: "Ready", failed: "Failed",
+};
+
+/** A stored rate at or below this is usually a playback rate, not what the camera captured. */
+export const PLAYBACK_RATE_MAX_FPS = 60;
+export const MAX_CAPTURE_FPS = 1_000_000;
+
+/** True when the person must confirm the capture rate before speeds mean anything. */
+export const needsCaptureRateConfirmation = (c: { storedFps: number | null; captureFpsConfirmed: boolean }) =>
+  !c.captureFpsConfirmed && (c.storedFps === null || c.storedFps <= PLAYBACK_RATE_MAX_FPS);
+
+/**
+ * Capture-time seconds of each frame from the stored timestamps: a 3,200 fps capture stored at
+ * 30 fps runs 30/3200 as fast in real time. Speeds use these, never the stored timeline.
+ */
+export function captureTimes(frameTimes: readonly number[], storedFps: number | null, captureFps: number): number[] {
+  const t0 = frameTimes[0] ?? 0;
+  const factor = storedFps && storedFps > 0 ? storedFps / captureFps : 1;
+  return frameTimes.map((t) => (t - t0) * factor);
+}
+
+const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date like 2026-03-14");
+const text = (max: number, what: string) => z.string().trim().max(max, `${what} can be at most ${max} characters`);
+
+export const NewSessionSchema = z.object({
+  date: isoDate,
+  venue: text(120, "Venue").default(""),
+  drill: text(120, "Drill").default(""),
+});
+
+const captureFps = z
+  .number({ message: "Enter the capture frame rate in frames per second" })
+  .positive("The capture frame rate must be above 0 fps")
+  .max(MAX_CAPTURE_FPS, `The capture frame rate can be at most ${MAX_CAPTURE_FPS.toLocaleString("en")} fps`);
+const exposureUs = z.number().positive("Exposure must be above 0 µs").max(10_000_000, "Exposure must be at most 10 s").nullable();
+
+/** The form per file: sent as tus metadata `meta` (JSON) with the upload. */
+export const ClipMetaSchema = z
+  .object({
+    title: text(120, "Title").default(""),
+    /** An existing session of the team, or a new one (date, venue, drill). */
+    sessionId: z.uuid("Pick a session").optional(),
+    newSession: NewSessionSchema.optional(),
+    playerId: z.string({ message: "Pick the player who shoots" }).min(1, "Pick the player who shoots"),
+    shotType: z.enum(shotTypes, { message: "Shot type must be slap, wrist, snap or backhand" }),
+    stickId: z.uuid("Pick a stick from the list").nullable().optional(),
+    cameraView: z.enum(cameraViews, { message: "Camera view must be side, front, overhead or other" }),
+    /** Empty: decide once the file's stored rate is known. */
+    captureFps: captureFps.optional(),
+    /** The person says captureFps is what the camera captured at. */
+    captureFpsConfirmed: z.boolean().default(false),
+    exposureUs: exposureUs.optional(),
+    notes: text(2000, "Notes").default(""),
+  })
+  .strict()
+  .superRefine((v, ctx) => {
+    if (!v.sessionId && !v.newSession) ctx.addIssue({ code: "custom", path: ["sessionId"], message: "Pick a session or enter the date of a new one" });
+    if (v.sessionId && v.newSession) ctx.addIssue({ code: "custom", path: ["newSession"], message: "Pick an existing session or a new one, not both" });
+    if (v.captureFpsConfirmed && v.captureFps === undefined)
+      ctx.addIssue({ code: "custom", path: ["captureFps"], message: "Enter the capture frame rate you are confirming" });
+  });
+export type ClipMetaInput = z.input<typeof ClipMetaSchema>;
+export type ClipMeta = z.output<typeof ClipMetaSchema>;
+
+/** PATCH /clips/:id — edit metadata, confirm the capture rate. */
+export const ClipPatchSchema = z
+  .object({
+    title: text(120, "Title"),
+    sessionId: z.uuid("Pick a session"),
+    newSession: NewSessionSchema,
+    playerId: z.string().min(1, "Pick the player who shoots"),
+    shotType: z.enum(shotTypes, { message: "Shot type must be slap, wrist, snap or backhand" }),
+    stickId: z.uuid("Pick a stick from the list").nullable(),
+    cameraView: z.enum(cameraViews, { message: "Camera view must be side, front, overhead or other" }),
+    captureFps,
+    captureFpsConfirmed: z.boolean(),
+    exposureUs,
+    notes: text(2000, "Notes"),
+  })
+  .partial()
+  .strict()
+  .superRefine((v, ctx) => {
+    if (v.sessionId && v.newSession) ctx.addIssue({ code: "custom", path: ["newSession"], message: "Pick an existing session or a new one, not both" });
+  });
+export type ClipPatch = z.infer<typeof ClipPatchSchema>;
+
+export const clipSorts = ["created", "title", "player", "session", "shotType", "captureFps", "frames", "status"] as const;
+export type ClipSort = (typeof clipSorts)[number];
+
+export const ClipListQuerySchema = z.object({
+  playerId: z.string().min(1).optional(),
+  sessionId: z.uuid("Unknown session").optional(),
+  shotType: z.enum(shotTypes).optional(),
+  status: z.enum(clipStatuses).optional(),
+  sort: z.enum(clipSorts).default("created"),
+  dir: z.enum(["asc", "desc"]).default("desc"),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(20),
+});
+export type ClipListQuery = z.input<typeof ClipListQuerySchema>;
+
+export interface SessionRef { id: string; date: string; venue: string; drill: string }
+export interface NamedRef { id: string; name: string }
+
+export interface ClipSummary {
+  id: string;
+  title: string;
+  status: ClipStatus;
+  failureReason: string | null;
+  framesDone: number;
+  frameCount: number | null;
+  /** 0–1. */
+  progress: number;
+  captureFps: number;
+  captureFpsConfirmed: boolean;
+  storedFps: number | null;
+  needsCaptureRateConfirmation: boolean;
+  shotType: ShotType;
+  cameraView: CameraView;
+  player: NamedRef | null;
+  session: SessionRef | null;
+  stick: { id: string; label: string } | null;
+  width: number | null;
+  height: number | null;
+  durationS: number | null;
+  rotationDeg: number;
+  variableFrameRate: boolean;
+  codec: string | null;
+  sizeBytes: number | null;
+  originalName: string;
+  uploadedBy: NamedRef | null;
+  createdAt: string;
+  /** Null until the first frames exist. */
+  thumbnailUrl: string | null;
+  stripUrl: string | null;
+  /** Frame n lives at `${frameUrlBase}/${n}` (n from 1). */
+  frameUrlBase: string;
+}
+
+export interface ClipDetail extends ClipSummary {
+  exposureUs: number | null;
+  notes: string;
+  /** Stored presentation time of each frame in seconds, index 0 = frame 1 (null until extracted). */
+  frameTimes: number[] | null;
+  originalUrl: string;
+}
+
+export interface ClipPage { items: ClipSummary[]; total: number; page: number; pageSize: number }
+
+export interface ClipProgress { id: string; status: ClipStatus; framesDone: number; frameCount: number | null; progress: number; failureReason: string | null }
+
+export interface ClipOptions {
+  sessions: SessionRef[];
+  players: NamedRef[];
+  sticks: { id: string; label: string; ownerId: string | null }[];
+}
+
+/** The tus upload's finish response body (200). */
+export interface UploadFinished { clip: ClipSummary }
+
+/** Stable codes the upload endpoint answers with (problem+json bodies). */
+export const uploadProblemCodes = [
+  "too_large", "quota_exceeded", "duplicate_clip", "validation_failed", "empty_file", "not_media", "truncated_file", "audio_only",
+  "no_video_stream", "image_not_video", "no_decodable_frames", "pixel_size_over_limit",
+] as const;
