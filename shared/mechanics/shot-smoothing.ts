@@ -43,7 +43,7 @@ export function chooseCutoff(grids: GridSegment[], mode: CutoffMode, name: strin
       if (g.x.length >= 3 && mode > max)
         throw new MechanicsInputError(
           ["cutoffHz"],
-          `${mode} Hz is too high for ${name} marked every ${g.step} frame${g.step > 1 ? "s" : ""} (${g.fsHz} Hz): use at most ${max.toFixed(1)} Hz`,
+          `${mode} Hz is too high for ${name} marked ${g.step > 1 ? `every ${g.step} frames` : "on every frame"} (${g.fsHz} Hz): use at most ${max.toFixed(1)} Hz`,
         );
     }
     return { cutoffHz: mode, tooFew: false };

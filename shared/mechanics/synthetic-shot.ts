@@ -104,7 +104,8 @@ export function syntheticShot(o: SyntheticShotOptions = {}): { doc: ShotDocument
   const dp = defl(tp);
   const doc: ShotDocumentInput = {
     captureFps: fps,
-    calibration: { type: "scaleBar", a: [origin[0], origin[1]], b: [origin[0] + 40, origin[1]], lengthMm: 40 * s },
+    // The scale bar's ends are digitised too, with the same noise.
+    calibration: { type: "scaleBar", a: toPx(0, 0), b: toPx(40 * s, 0), lengthMm: 40 * s },
     pixelErrorPx: noisePx > 0 ? noisePx : 0.5,
     tracks,
     events: { iceStrike, puckStrike, peakBend: peakBendFrame, release },

@@ -11,43 +11,45 @@ export { DEFAULT_BENCH_SPAN_MM };
 export const PUCK_DIAMETER_MM = 76.2;
 export const DEFAULT_PIXEL_ERROR_PX = 0.5;
 
-const frameNumber = (what: string) =>
-  z
-    .number({ error: (iss) => (iss.input === undefined ? `${what} is required` : `${what} must be a number`) })
-    .int({ error: `${what} must be a whole frame number` })
-    .nonnegative({ error: `${what} must be 0 or more` });
+// Messages name no field: the error's path does, and a form shows the message next to the field.
+const needs = (what: string) => (iss: { code?: string; input: unknown; keys?: string[] }) =>
+  iss.code === "unrecognized_keys" && iss.keys
+    ? `unknown field${iss.keys.length > 1 ? "s" : ""} ${iss.keys.map((k) => `"${k}"`).join(", ")}`
+    : iss.input === undefined
+      ? "is required"
+      : `must be ${what}`;
 
-const point = z.tuple([z.number({ error: "x must be a finite number" }), z.number({ error: "y must be a finite number" })], {
-  error: "expected a point [x, y]",
+const frameNumber = () =>
+  z.number({ error: needs("a frame number") }).int({ error: "must be a whole frame number" }).nonnegative({ error: "must be 0 or more" });
+
+const point = z.tuple([z.number({ error: "must be a finite number" }), z.number({ error: "must be a finite number" })], {
+  error: needs("a point [x, y] in pixels"),
 });
 
 export const ScaleBarCalibration = z.strictObject({
   type: z.literal("scaleBar"),
   a: point,
   b: point,
-  lengthMm: z
-    .number({ error: "lengthMm must be a number" })
-    .positive({ error: "lengthMm must be above 0" })
-    .default(PUCK_DIAMETER_MM),
+  lengthMm: z.number({ error: needs("a length in mm") }).positive({ error: "must be above 0" }).default(PUCK_DIAMETER_MM),
 });
 
-export const PlanePoint = z.strictObject({ image: point, world: point });
+export const PlanePoint = z.strictObject({ image: point, world: point }, { error: needs("{ image: [x, y], world: [xMm, yMm] }") });
 
 export const PlaneCalibration = z.strictObject({
   type: z.literal("plane"),
-  points: z.array(PlanePoint).min(4, { error: (iss) => `a plane calibration needs at least 4 points (got ${(iss.input as unknown[]).length})` }),
+  points: z.array(PlanePoint, { error: needs("a list of points") }).min(4, { error: (iss) => `a plane calibration needs at least 4 points (got ${(iss.input as unknown[]).length})` }),
 });
 
 export const Calibration = z.discriminatedUnion("type", [ScaleBarCalibration, PlaneCalibration], {
-  error: 'calibration.type must be "scaleBar" or "plane"',
+  error: (iss) => (iss.input === undefined ? "is required" : 'needs type "scaleBar" (a, b, lengthMm) or "plane" (points)'),
 });
 
 export type Mark = [frame: number, x: number, y: number];
 
 // Tracks can hold 100,000 marks; a per-element zod tuple costs ~100x more than this loop.
 const track = z
-  .unknown()
-  .superRefine((v, ctx) => {
+  .custom<Mark[]>()
+  .superRefine((v: unknown, ctx) => {
     if (!Array.isArray(v)) {
       ctx.addIssue({ code: "custom", message: "a track must be a list of [frame, x, y] marks" });
       return;
@@ -72,65 +74,67 @@ const track = z
         return;
       }
     }
-  })
-  .transform((v) => v as Mark[]);
+  });
 
 export const LANDMARKS = ["puck", "bladeHeel", "bladeToe", "bottomHand", "topHand", "buttEnd"] as const;
 export type Landmark = (typeof LANDMARKS)[number];
 
-export const Tracks = z.strictObject({
+export const Tracks = z.strictObject(
+  {
   puck: track,
   bladeHeel: track.optional(),
   bladeToe: track.optional(),
   bottomHand: track.optional(),
   topHand: track.optional(),
   buttEnd: track.optional(),
-});
+  },
+  { error: needs("an object of tracks: { puck, bladeHeel?, bladeToe?, bottomHand?, topHand? }") },
+);
 
-export const ShotEvents = z.strictObject({
-  iceStrike: frameNumber("iceStrike").optional(),
-  puckStrike: frameNumber("puckStrike"),
-  peakBend: frameNumber("peakBend").optional(),
-  release: frameNumber("release"),
-});
+export const ShotEvents = z.strictObject(
+  {
+    iceStrike: frameNumber().optional(),
+    puckStrike: frameNumber(),
+    peakBend: frameNumber().optional(),
+    release: frameNumber(),
+  },
+  { error: needs("an object of event frames: { iceStrike?, puckStrike, peakBend?, release }") },
+);
 
-export const ShotStick = z.strictObject({
-  /** lbf per inch: the rated flex, or better the measured flex from a bench test. */
-  flex: z.number({ error: "stick.flex must be a number" }).positive({ error: "stick.flex must be above 0" }),
-  benchSpanMm: z
-    .number({ error: "stick.benchSpanMm must be a number" })
-    .positive({ error: "stick.benchSpanMm must be above 0" })
-    .default(DEFAULT_BENCH_SPAN_MM),
-});
+export const ShotStick = z.strictObject(
+  {
+    /** lbf per inch: the rated flex, or better the measured flex from a bench test. */
+    flex: z.number({ error: needs("a flex in lbf per inch") }).positive({ error: "must be above 0" }),
+    benchSpanMm: z.number({ error: needs("a span in mm") }).positive({ error: "must be above 0" }).default(DEFAULT_BENCH_SPAN_MM),
+  },
+  { error: needs("{ flex, benchSpanMm? } or null") },
+);
 
 export const ShotDocument = z.strictObject({
   captureFps: z
-    .number({
-      error: (iss) =>
-        iss.input === undefined ? "captureFps is required: the camera's capture rate, not the playback rate" : "captureFps must be a number",
-    })
-    .positive({ error: "captureFps must be above 0" }),
+    .number({ error: (iss) => (iss.input === undefined ? "is required: the camera's capture rate, not the file's playback rate" : "must be a number") })
+    .positive({ error: "must be above 0: the camera's capture rate in frames per second" }),
   calibration: Calibration,
   /** Standard uncertainty of one digitised coordinate, in pixels. */
-  pixelErrorPx: z.number({ error: "pixelErrorPx must be a number" }).nonnegative({ error: "pixelErrorPx must be 0 or more" }).default(DEFAULT_PIXEL_ERROR_PX),
+  pixelErrorPx: z.number({ error: needs("a number of pixels") }).nonnegative({ error: "must be 0 or more" }).default(DEFAULT_PIXEL_ERROR_PX),
   /** Relative standard uncertainty of the calibration's scale, e.g. 0.005 for 0.5 %. */
   calibrationErrorRel: z
-    .number({ error: "calibrationErrorRel must be a number" })
-    .min(0, { error: "calibrationErrorRel must be 0 or more" })
-    .max(0.5, { error: "calibrationErrorRel is a fraction: 0.01 means 1 %" })
+    .number({ error: needs("a fraction") })
+    .min(0, { error: "must be 0 or more" })
+    .max(0.5, { error: "is a fraction, at most 0.5: 0.01 means 1 %" })
     .default(0),
   /** Cutoff of the zero-lag low-pass in Hz; "auto" = residual analysis; "raw" = no smoothing. */
   cutoffHz: z
-    .union([z.number().positive(), z.literal("auto"), z.literal("raw")], { error: 'cutoffHz must be a number above 0, "auto" or "raw"' })
+    .union([z.number().positive(), z.literal("auto"), z.literal("raw")], { error: 'must be a number of Hz above 0, "auto" or "raw"' })
     .default("auto"),
   /** First and last frame of the clip (inclusive); marks and events must lie inside. */
-  frameRange: z.tuple([frameNumber("frameRange[0]"), frameNumber("frameRange[1]")]).optional(),
+  frameRange: z.tuple([frameNumber(), frameNumber()], { error: needs("[first, last] frame numbers") }).optional(),
   /** Number of frames in the clip (frames 0 … frameCount − 1). */
-  frameCount: z.number().int({ error: "frameCount must be a whole number" }).positive({ error: "frameCount must be above 0" }).optional(),
+  frameCount: z.number({ error: needs("a number of frames") }).int({ error: "must be a whole number" }).positive({ error: "must be above 0" }).optional(),
   tracks: Tracks,
   events: ShotEvents,
   stick: ShotStick.nullable().optional(),
-});
+}, { error: needs("a shot document (a JSON object)") });
 
 /** The document as sent (defaults optional). */
 export type ShotDocumentInput = z.input<typeof ShotDocument>;
