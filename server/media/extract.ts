@@ -224,11 +224,12 @@ export async function extractFrames(config: MediaConfig, o: ExtractOptions): Pro
   }
 
   const frameCount = next - 1;
-  const onDisk = (await readdir(framesDir)).filter((n) => n.endsWith(`.${format}`)).length;
   const fail = (msg: string) =>
     new FfmpegError("invalid_data", msg, { command: "", stderrTail: "", durationMs: Date.now() - started });
   if (frameCount === 0) throw fail("ffmpeg wrote no frames: the video stream could not be decoded");
-  if (onDisk !== frameCount) throw fail(`frame files are not numbered 1..${frameCount} without gaps (${onDisk} files)`);
+  // Frames up to frameCount may already have been moved away by onFrameReady; none may lie beyond.
+  const beyond = (await readdir(framesDir)).filter((n) => Number.parseInt(n, 10) > frameCount);
+  if (beyond.length) throw fail(`frame files are not numbered 1..${frameCount} without gaps (found ${beyond[0]})`);
 
   let frameTimes = frameTimesFromPackets(parsePacketCsv((await times).stdout), o.probe.timeBase);
   let timestampSource: ExtractResult["timestampSource"] = "packets";
