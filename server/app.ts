@@ -2,7 +2,6 @@ import fs from "node:fs";
 import path from "node:path";
 import express from "express";
 import helmet from "helmet";
-import { rateLimit } from "express-rate-limit";
 import { toNodeHandler } from "better-auth/node";
 import { auth } from "./auth/auth";
 import { env } from "./env";
@@ -10,6 +9,9 @@ import { requestLog } from "./log";
 import { problemHandler, sendProblem } from "./http/problem";
 import { apiRouter } from "./routes";
 import { mountRawRoutes } from "./raw-routes";
+import { applyRateLimits } from "./security/rate-limits";
+import { sameOriginWrites } from "./security/same-origin";
+import { trustedOrigins } from "./security/origins";
 
 export function createApp() {
   const e = env();
@@ -37,14 +39,9 @@ export function createApp() {
     }),
   );
 
-  const limiter = (limit: number) =>
-    rateLimit({
-      windowMs: 60_000, limit, standardHeaders: "draft-8", legacyHeaders: false, skip: () => !e.RATE_LIMIT,
-      handler: (_req, res) => sendProblem(res, 429, "rate_limited", "Too many attempts. Wait a minute and try again."),
-    });
-  app.use("/api/auth/sign-in", limiter(10));
-  const inviteLimiter = limiter(30);
-  app.use("/api/teams/:teamId/invitations", (req, res, next) => (req.method === "GET" ? next() : inviteLimiter(req, res, next)));
+  // Cross-site writes refused on every API route, better-auth's included.
+  app.use("/api", sameOriginWrites(() => trustedOrigins()));
+  applyRateLimits(app, e.RATE_LIMIT);
 
   // better-auth reads its own body: mount before express.json().
   const authHandler = toNodeHandler(auth());

@@ -4,6 +4,8 @@ import { log } from "./log";
 import { createApp } from "./app";
 import { startJobs, stopJobs } from "./jobs/runtime";
 import { db } from "./db/client";
+import { startDraining } from "./health/draining";
+import { onShutdown } from "./shutdown";
 
 async function main() {
   let e;
@@ -24,20 +26,17 @@ async function main() {
   await startJobs({ work: e.EMBEDDED_WORKER });
   server.listen(e.PORT, e.HOST, () => log.info({ url: `http://${e.HOST}:${e.PORT}` }, "Loadframe is listening"));
 
-  let stopping = false;
-  const stop = async (signal: string) => {
-    if (stopping) return;
-    stopping = true;
-    log.info({ signal }, "shutting down");
-    server.close();
+  // Graceful shutdown: /api/ready turns 503, no new connections, running requests get a grace
+  // period, running jobs finish or are handed back to the queue (pg-boss retries them
+  // elsewhere), then the pool closes.
+  onShutdown("web server", async () => {
+    startDraining();
+    const closed = new Promise<void>((resolve) => server.close(() => resolve()));
     server.closeIdleConnections();
-    setTimeout(() => server.closeAllConnections(), 5_000).unref();
-    await stopJobs().catch(() => {});
-    await db().pool.end().catch(() => {});
-    process.exit(0);
-  };
-  process.on("SIGINT", () => void stop("SIGINT"));
-  process.on("SIGTERM", () => void stop("SIGTERM"));
+    setTimeout(() => server.closeAllConnections(), 10_000).unref();
+    await Promise.all([closed, stopJobs()]);
+    await db().pool.end();
+  });
 }
 
 void main();

@@ -4,6 +4,8 @@ process.env.LF_PROCESS ??= "worker";
 const { env } = await import("./env");
 const { log } = await import("./log");
 const { startJobs, stopJobs } = await import("./jobs/runtime");
+const { db } = await import("./db/client");
+const { onShutdown } = await import("./shutdown");
 try {
   env();
 } catch (err) {
@@ -12,10 +14,12 @@ try {
 }
 await startJobs({ work: true });
 log.info({ pid: process.pid }, "worker ready");
-const stop = async () => {
-  await stopJobs().catch(() => {});
-  process.exit(0);
-};
-process.on("SIGINT", () => void stop());
-process.on("SIGTERM", () => void stop());
+
+// Take no new jobs; a running job gets a grace period, after which pg-boss marks it failed so it
+// is retried (on another worker) while attempts remain. A worker killed outright leaves its job
+// to expiry and the clip sweep.
+onShutdown("worker", async () => {
+  await stopJobs();
+  await db().pool.end();
+});
 export {};
