@@ -1,0 +1,92 @@
+// Sub-pixel refinement of a template's placement by Gauss–Newton on the normalised intensity
+// difference (Lucas & Kanade 1981, inverse-compositional form for a pure translation). The 3×3
+// quadratic fit of the score map is biased along ridges (a bar's edge barely constrains motion
+// along the bar); this uses every template pixel's gradient instead.
+import type { GrayFrame } from "./types";
+
+const MAX_ITERATIONS = 5;
+const CONVERGED = 0.005;
+/** Farther than this from the score-map peak (whose fit can be ~1 px off along a ridge), a refinement is not trusted. */
+const MAX_SHIFT = 2;
+
+/**
+ * Refined top-left (continuous frame coordinates) of `tpl` whose current estimate is (ox, oy);
+ * null when the template has no texture to refine on or the refinement wanders off.
+ */
+export function refinePlacement(frame: GrayFrame, tpl: GrayFrame, ox: number, oy: number): { x: number; y: number } | null {
+  const { width: tw, height: th, data: t } = tpl;
+  const n = (tw - 2) * (th - 2);
+  if (n < 16) return null;
+  // Interior template pixels (gradients need both neighbours), normalised to zero mean, unit spread.
+  const tn = new Float64Array(n);
+  const gx = new Float64Array(n);
+  const gy = new Float64Array(n);
+  let k = 0;
+  for (let j = 1; j < th - 1; j++)
+    for (let i = 1; i < tw - 1; i++, k++) {
+      const at = j * tw + i;
+      tn[k] = t[at];
+      gx[k] = (t[at + 1] - t[at - 1]) / 2;
+      gy[k] = (t[at + tw] - t[at - tw]) / 2;
+    }
+  const spread = normalise(tn);
+  if (spread === 0) return null;
+  let hxx = 0, hxy = 0, hyy = 0;
+  for (let q = 0; q < n; q++) {
+    gx[q] /= spread;
+    gy[q] /= spread;
+    hxx += gx[q] * gx[q]; hxy += gx[q] * gy[q]; hyy += gy[q] * gy[q];
+  }
+  const det = hxx * hyy - hxy * hxy;
+  if (!(det > 1e-9 * (hxx + hyy) ** 2)) return null;
+
+  const sample = new Float64Array(n);
+  let px = ox, py = oy;
+  for (let it = 0; it < MAX_ITERATIONS; it++) {
+    if (!sampleInto(frame, px, py, tw, th, sample)) return null;
+    if (normalise(sample) === 0) return null;
+    let bx = 0, by = 0;
+    for (let q = 0; q < n; q++) {
+      const e = sample[q] - tn[q];
+      bx += gx[q] * e; by += gy[q] * e;
+    }
+    const dx = (hyy * bx - hxy * by) / det;
+    const dy = (hxx * by - hxy * bx) / det;
+    px -= dx;
+    py -= dy;
+    if (Math.hypot(px - ox, py - oy) > MAX_SHIFT) return null;
+    if (Math.hypot(dx, dy) < CONVERGED) break;
+  }
+  return { x: px, y: py };
+}
+
+/** Subtracts the mean and divides by the root-mean-square spread; returns that spread. */
+function normalise(v: Float64Array): number {
+  let sum = 0;
+  for (let q = 0; q < v.length; q++) sum += v[q];
+  const mean = sum / v.length;
+  let ss = 0;
+  for (let q = 0; q < v.length; q++) {
+    v[q] -= mean;
+    ss += v[q] * v[q];
+  }
+  const spread = Math.sqrt(ss / v.length);
+  if (spread > 0) for (let q = 0; q < v.length; q++) v[q] /= spread;
+  return spread;
+}
+
+/** Bilinear samples of the frame under the template's interior pixels at top-left (px, py); false if outside. */
+function sampleInto(f: GrayFrame, px: number, py: number, tw: number, th: number, out: Float64Array): boolean {
+  // Template pixel (i, j) has its centre at (px + i + 0.5, py + j + 0.5): frame pixel index px + i.
+  const x0 = Math.floor(px), y0 = Math.floor(py);
+  const fx = px - x0, fy = py - y0;
+  if (x0 < -1 || y0 < -1 || x0 + tw > f.width || y0 + th > f.height) return false;
+  const w = f.width, d = f.data;
+  const w00 = (1 - fx) * (1 - fy), w10 = fx * (1 - fy), w01 = (1 - fx) * fy, w11 = fx * fy;
+  let k = 0;
+  for (let j = 1; j < th - 1; j++) {
+    let at = (y0 + j) * w + x0 + 1;
+    for (let i = 1; i < tw - 1; i++, k++, at++) out[k] = w00 * d[at] + w10 * d[at + 1] + w01 * d[at + w] + w11 * d[at + w + 1];
+  }
+  return true;
+}

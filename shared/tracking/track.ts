@@ -1,0 +1,118 @@
+// The tracking assist: from one analyst mark, propose the landmark on the following (or preceding)
+// frames by template matching in a window predicted from the recent motion; stop honestly at the
+// first frame that does not match well enough.
+import { TrackInputError } from "./errors";
+import { createCvMatcher, type Matcher } from "./matcher";
+import { loadOpenCv } from "./opencv";
+import { createPrefetcher } from "./prefetch";
+import { captureReference, type Reference } from "./reference";
+import { searchFrame } from "./search";
+import type { GrayFrame, Proposal, StopReason, TrackProgress, TrackRequest, TrackResult } from "./types";
+import { resolveRequest } from "./validate";
+
+/** A reference is renewed once its score falls below this share of its first score. */
+const REFRESH_RATIO = 0.97;
+/** Search radius grows with speed: constant velocity misses by a share of the step when it bends. */
+const RADIUS_PER_STEP = 0.25;
+const PREFETCH_DEPTH = 2;
+
+export interface TrackDeps {
+  /** A matcher to use (and not dispose); default: OpenCV's, created and freed per run. */
+  matcher?: Matcher;
+}
+
+export async function track(request: TrackRequest, onProgress?: (p: TrackProgress) => void, deps: TrackDeps = {}): Promise<TrackResult> {
+  const req = resolveRequest(request);
+  const { frames, start, prior, direction, templateSize: size, threshold, signal, total, turning } = req;
+  const minSize = Math.max(8, Math.ceil(size / 2));
+  const proposals: Proposal[] = [];
+  const stop = (reason: StopReason, frame: number | null, confidence: number | null, message: string): TrackResult => ({
+    proposals,
+    stop: { reason, frame, confidence, message },
+  });
+  const cancelled = () => stop("cancelled", null, null, `cancelled after ${proposals.length} proposals`);
+  if (signal?.aborted) return cancelled();
+
+  const matcher = deps.matcher ?? createCvMatcher((await loadOpenCv()).cv);
+  const ctx = { matcher, minSize, exclusion: Math.max(2, size / 4) };
+  try {
+    const first = await frames.frame(start.frame, signal);
+    checkFrame(first, start.frame, first);
+    let ref: Reference | null = captureReference(first, start.x, start.y, size, minSize, turning);
+    if (!ref) throw new TrackInputError("start", `the mark (${start.x}, ${start.y}) is too close to the frame edge for a ${size} px template`);
+    // Velocities per frame index (+1), so they hold for either direction.
+    let velocity = prior ? { x: (start.x - prior.x) / (start.frame - prior.frame), y: (start.y - prior.y) / (start.frame - prior.frame) } : null;
+    let angle = 0;
+    let spin = 0;
+    let last = { x: start.x, y: start.y };
+    let firstScore: number | null = null;
+    const frameAt = (k: number) => start.frame + direction * k;
+    const ahead = createPrefetcher(frames, frameAt, total, PREFETCH_DEPTH, signal);
+
+    for (let k = 1; k <= total; k++) {
+      if (signal?.aborted) return cancelled();
+      const index = frameAt(k);
+      let frame: GrayFrame;
+      try {
+        frame = await ahead.get(k);
+      } catch (e) {
+        if (signal?.aborted) return cancelled();
+        throw e;
+      }
+      checkFrame(frame, index, first);
+
+      const predicted = velocity ? { x: last.x + velocity.x * direction, y: last.y + velocity.y * direction } : last;
+      const radius = velocity ? req.searchRadius + RADIUS_PER_STEP * Math.hypot(velocity.x, velocity.y) : Math.max(req.searchRadius, size);
+      const m = searchFrame(frame, ref, predicted, angle + spin * direction, radius, ctx);
+      if (!m) return stop("left-frame", index, null, `the landmark reaches the frame edge at frame ${index}`);
+      const atEdge = m.cropped || nearEdge(predicted, frame, size / 2);
+      const { score, sideLobe, onBorder } = m.peak;
+      if (!(score >= threshold)) {
+        const why = `confidence ${fmt(score)} below ${fmt(threshold)} at frame ${index}`;
+        const s = Number.isFinite(score) ? score : null;
+        return atEdge ? stop("left-frame", index, s, `${why}, at the frame edge`) : stop("low-confidence", index, s, why);
+      }
+      if (req.minPeakMargin > 0 && sideLobe !== null && score - sideLobe < req.minPeakMargin)
+        return stop("ambiguous", index, score, `two places match almost equally (${fmt(score)} and ${fmt(sideLobe)}) at frame ${index}`);
+      if (onBorder)
+        return atEdge
+          ? stop("left-frame", index, score, `the best match is cut by the frame edge at frame ${index}`)
+          : stop("low-confidence", index, score, `no clear peak inside the search window at frame ${index}`);
+
+      const proposal: Proposal = { frame: index, x: m.x, y: m.y, confidence: score, sideLobe };
+      proposals.push(proposal);
+      onProgress?.({ done: k, total, proposal });
+
+      velocity = { x: (m.x - last.x) * direction, y: (m.y - last.y) * direction };
+      spin = ref.source ? (m.angle - angle) * direction : 0;
+      angle = ref.source ? m.angle : 0;
+      last = { x: m.x, y: m.y };
+      if (firstScore === null) firstScore = score;
+      else if (score < REFRESH_RATIO * firstScore && !atEdge) {
+        // Only an uncut match becomes the new reference; otherwise the old one is kept.
+        const fresh = captureReference(frame, m.x, m.y, size, size, turning);
+        if (fresh) {
+          ref = fresh;
+          angle = 0;
+          firstScore = null;
+        }
+      }
+    }
+    return stop("end-of-range", null, null, `${proposals.length} frames proposed, the end of the range`);
+  } finally {
+    if (!deps.matcher) matcher.dispose();
+  }
+}
+
+function checkFrame(f: GrayFrame, index: number, first: GrayFrame) {
+  if (!f || !(f.data instanceof Uint8Array) || f.data.length !== f.width * f.height)
+    throw new Error(`frame ${index} is not an 8-bit grayscale frame (width × height bytes)`);
+  if (f.width !== first.width || f.height !== first.height)
+    throw new Error(`frame ${index} is ${f.width}×${f.height} but the start frame is ${first.width}×${first.height}`);
+}
+
+function nearEdge(p: { x: number; y: number }, f: GrayFrame, margin: number) {
+  return p.x < margin || p.y < margin || p.x > f.width - margin || p.y > f.height - margin;
+}
+
+const fmt = (v: number) => (Number.isFinite(v) ? v.toFixed(2) : String(v));
