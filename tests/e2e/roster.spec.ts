@@ -33,9 +33,10 @@ test("invite a member, accept through the mailed link, and a role change takes e
   const a = await adminCtx.newPage();
   await signIn(a, admin.email);
   await a.goto("/roster");
-  await a.getByLabel("E-mail").fill(email);
-  await a.getByLabel("Role").selectOption("player");
-  await a.getByRole("button", { name: "Send invitation" }).click();
+  const form = a.locator("form").filter({ has: a.getByRole("button", { name: "Send invitation" }) });
+  await form.getByLabel("E-mail").fill(email);
+  await form.getByLabel("Role", { exact: true }).selectOption("player");
+  await form.getByRole("button", { name: "Send invitation" }).click();
   await expect(a.getByRole("cell", { name: email })).toBeVisible();
 
   const link = await inviteLink(email);
