@@ -1,0 +1,67 @@
+// An audit entry as one plain sentence for the team admin, plus the group it belongs to for the
+// filter. Pure, so it is tested without a DOM.
+import { roleLabels, RoleSchema } from "@shared/schemas/roster";
+import type { AuditEntry } from "./api/auditLog";
+
+export type AuditGroup = "people" | "deletions" | "shares";
+export const groupLabels: Record<AuditGroup, string> = { people: "Members and invitations", deletions: "Deletions", shares: "Shares" };
+
+const str = (v: unknown) => (typeof v === "string" && v.trim() ? v : null);
+const role = (v: unknown) => {
+  const r = RoleSchema.safeParse(typeof v === "string" ? v.split(",")[0]?.trim() : v);
+  return r.success ? roleLabels[r.data].toLowerCase() : "another role";
+};
+const quoted = (v: unknown, fallback: string) => (str(v) ? `“${str(v)}”` : fallback);
+
+function listOf(names: string[]): string {
+  if (names.length <= 2) return names.join(" and ");
+  return `${names.slice(0, -1).join(", ")} and ${names.at(-1)}`;
+}
+
+export interface Described {
+  group: AuditGroup;
+  /** Who did it ("Someone" for an action without a signed-in actor, e.g. an accepted invitation). */
+  actor: string;
+  /** What they did, starting with a verb. */
+  text: string;
+}
+
+export function describeAudit(e: AuditEntry, names: ReadonlyMap<string, string>): Described {
+  const d = e.detail ?? {};
+  const person = (id: unknown) => (typeof id === "string" && names.get(id)) || "a former member";
+  const actor = e.actorName ?? "Someone";
+  switch (e.action) {
+    case "member.role_changed":
+      return { group: "people", actor, text: `changed ${person(d.userId)}’s role from ${role(d.from)} to ${role(d.to)}` };
+    case "member.removed":
+      return { group: "people", actor, text: `removed ${person(d.userId)} from the team` };
+    case "member.joined":
+      return { group: "people", actor: str(d.email) ?? "Someone", text: `accepted an invitation and joined as ${role(d.role)}` };
+    case "invitation.created":
+      return { group: "people", actor, text: `invited ${str(d.email) ?? "someone"} as ${role(d.role)}` };
+    case "invitation.resent":
+      return { group: "people", actor, text: `sent the invitation to ${str(d.email) ?? "someone"} again (as ${role(d.role)})` };
+    case "invitation.cancelled":
+      return { group: "people", actor, text: `cancelled the invitation to ${str(d.email) ?? "someone"}` };
+    case "clip.deleted": {
+      const frames = typeof d.frameCount === "number" ? ` and its ${d.frameCount.toLocaleString()} frames` : "";
+      return { group: "deletions", actor, text: `deleted the clip ${quoted(str(d.title) ?? d.originalName, "(untitled)")}${frames}` };
+    }
+    case "shot.deleted":
+      return { group: "deletions", actor, text: `deleted the shot ${quoted(d.label, "(unlabelled)")} with its marks and results` };
+    case "stick.deleted":
+      return { group: "deletions", actor, text: `deleted the stick ${quoted(d.label, "(unlabelled)")} and its bench tests` };
+    case "bench_test.deleted":
+      return { group: "deletions", actor, text: `deleted a bench test of the stick ${quoted(d.stickLabel, "(unlabelled)")}${str(d.testedOn) ? ` from ${d.testedOn}` : ""}` };
+    case "shot.shared": {
+      const added = Array.isArray(d.added) ? d.added : [];
+      const all = Array.isArray(d.with) ? d.with : [];
+      const who = (added.length ? added : all).map(person);
+      const title = quoted(d.title, "a shot");
+      if (!all.length) return { group: "shares", actor, text: `stopped sharing ${title} with anyone` };
+      return { group: "shares", actor, text: added.length ? `shared ${title} with ${listOf(who)}` : `changed who can see ${title} (${listOf(who)})` };
+    }
+    default:
+      return { group: e.targetType === "shot" ? "shares" : "people", actor, text: `${e.action.replace(/[._]/g, " ")} (${e.targetType})` };
+  }
+}
