@@ -19,6 +19,7 @@ export const navItems: readonly NavItem[] = [
   { to: "/progress", label: "Progress", description: "Follow one player's puck exit speed, blade speed and timing across sessions." },
   { to: "/compare", label: "Side by side", description: "Put two shots next to each other, synced at puck strike." },
   { to: "/roster", label: "Roster", description: "Invite members, set their roles and manage pending invitations.", roles: ["admin"] },
+  { to: "/audit", label: "Audit log", description: "See who changed roles, sent invitations, deleted clips, shots or sticks, and shared shots.", roles: ["admin"] },
 ];
 
 export const visibleNav = (role: Role | undefined) => navItems.filter((i) => !i.roles || (role !== undefined && i.roles.includes(role)));
