@@ -139,6 +139,7 @@ export async function extractFrames(config: MediaConfig, o: ExtractOptions): Pro
   let callbackError: unknown;
 
   let next = 1;
+  let beat = () => {};
   let firstFrameMs: number | null = null;
   let scanning = false;
   let rescan = false;
@@ -154,6 +155,7 @@ export async function extractFrames(config: MediaConfig, o: ExtractOptions): Pro
         rescan = false;
         while (await exists(path.join(framesDir, frameFileName(next, format)))) {
           const index = next++;
+          beat();
           firstFrameMs ??= Date.now() - started;
           const file = path.join(framesDir, frameFileName(index, format));
           delivery = delivery.then(async () => {
@@ -173,12 +175,15 @@ export async function extractFrames(config: MediaConfig, o: ExtractOptions): Pro
     }
   };
 
+  // File events announce frames at once; the poll covers file systems without them. ffmpeg's
+  // own progress cannot: with the strip as a second output it reports nothing until the end.
   let watcher: FSWatcher | undefined;
   try {
     watcher = watch(framesDir, () => void scan());
   } catch {
-    // no file events on this file system: progress blocks still trigger scans
+    // polling only
   }
+  const poll = setInterval(() => void scan(), 250);
 
   const spec = buildExtractSpec({
     input: o.input,
@@ -206,16 +211,19 @@ export async function extractFrames(config: MediaConfig, o: ExtractOptions): Pro
       args: buildFfmpegArgs(spec, { threads: config.threads ?? 2, progress: true }),
       timeoutMs,
       stallTimeoutMs: o.stallTimeoutMs ?? 30_000,
+      heartbeat: (b) => (beat = b),
       signal: inner.signal,
       onProgress: () => void scan(),
     });
     watcher?.close();
+    clearInterval(poll);
     while (scanning) await new Promise((r) => setTimeout(r, 5));
     await scan();
     await delivery;
     if (callbackError) throw callbackError;
   } catch (err) {
     watcher?.close();
+    clearInterval(poll);
     inner.abort();
     await delivery;
     throw callbackError ?? err;

@@ -36,8 +36,13 @@ export interface RunOptions {
   args: string[];
   /** Hard limit for the whole run. */
   timeoutMs: number;
-  /** Kill when the progress output shows no change for this long (needs onProgress). */
+  /** Kill when neither the progress output changes nor a heartbeat comes for this long. */
   stallTimeoutMs?: number;
+  /**
+   * Receives a function that counts as progress for the watchdog. ffmpeg 5.1 prints no progress
+   * until every output has started, so a caller watching output files uses this instead.
+   */
+  heartbeat?: (beat: () => void) => void;
   signal?: AbortSignal;
   cwd?: string;
   /** Parse stdout as `-progress` blocks. */
@@ -156,6 +161,7 @@ export async function runTool(config: MediaConfig, o: RunOptions): Promise<RunRe
     stallTimer = setTimeout(() => stop("stalled"), o.stallTimeoutMs);
   };
   armStall();
+  o.heartbeat?.(armStall);
   const onAbort = () => stop("aborted");
   o.signal?.addEventListener("abort", onAbort, { once: true });
 

@@ -69,6 +69,15 @@ describe("runTool", () => {
     expect(seen).toEqual([1, 2, 3, 4, 5, 6, 6]);
   });
 
+  it("a heartbeat from the caller (frames appearing) keeps a run without progress output alive", async () => {
+    const quiet = await standIn(dir, "quiet.sh", "sleep 1.2");
+    let timer: NodeJS.Timeout | undefined;
+    await runTool(testMedia({ ffmpegPath: quiet }), {
+      tool: "ffmpeg", args: [], timeoutMs: 20_000, stallTimeoutMs: 400,
+      heartbeat: (beat) => (timer = setInterval(beat, 100)),
+    }).finally(() => clearInterval(timer));
+  });
+
   it("an AbortSignal cancels the run, and a cancelled run is not retried", async () => {
     const sleeper = await standIn(dir, "sleeper2.sh", "sleep 30");
     const ac = new AbortController();
