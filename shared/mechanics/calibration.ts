@@ -1,6 +1,6 @@
 import { Calibration as CalibrationSchema, type Calibration, type CalibrationInput } from "../schemas/shot-document";
 import { MechanicsInputError, formatPath, type InputPath } from "./errors";
-import { applyHomography, fitHomography, homographyJacobian, homographyLocalScale, homographyW, type Mat3, type Vec2 } from "./homography";
+import { applyHomography, fitHomography, homographyConditioning, homographyJacobian, homographyLocalScale, homographyW, type Mat3, type Vec2 } from "./homography";
 
 // Image pixels (x right, y down, displayed frame) → world millimetres on the plane of the shot.
 
@@ -93,13 +93,12 @@ function planeProblem(points: { image: Vec2; world: Vec2 }[]): CalibrationProble
       return { path: ["points"], message: `all plane points lie on one line in the ${side}: they must span an area` };
     }
   }
-  const fit = fitHomography(
-    points.map((p) => p.image),
-    points.map((p) => p.world),
-  );
-  if (!(fit.conditioning > 1e-10) || fit.H.some((v) => !Number.isFinite(v)))
+  const image = points.map((p) => p.image);
+  const world = points.map((p) => p.world);
+  const H = fitHomography(image, world);
+  if (!(homographyConditioning(image, world) > 1e-10) || H.some((v) => !Number.isFinite(v)))
     return { path: ["points"], message: "plane points do not determine the mapping: too many lie on one line" };
-  const signs = points.map((p) => Math.sign(homographyW(fit.H, p.image[0], p.image[1])));
+  const signs = points.map((p) => Math.sign(homographyW(H, p.image[0], p.image[1])));
   if (signs.some((s) => s !== signs[0]))
     return { path: ["points"], message: "plane points do not match up: the image and world orders differ (the mapping folds over)" };
   return null;
@@ -148,7 +147,7 @@ export function scaleBarMap(a: Vec2, b: Vec2, lengthMm: number): CalibrationMap 
 
 /** Plane map without checks. */
 export function planeMap(points: { image: Vec2; world: Vec2 }[]): CalibrationMap {
-  const { H } = fitHomography(
+  const H = fitHomography(
     points.map((p) => p.image),
     points.map((p) => p.world),
   );

@@ -158,7 +158,10 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
       return linearState(s.src, g, gridIndex(g, p.frame), cal, doc.pixelErrorPx, fps);
     });
     const [pt, pb, ph] = bendStates.map((st) => [st.nominal.x, st.nominal.y] as Vec2);
-    peakGeometry = chordGeometry(pt, pb, ph);
+    const g = chordGeometry(pt, pb, ph);
+    // Top hand on the blade heel (a mis-mark) leaves no chord to measure from.
+    if (Object.values(g).every(Number.isFinite)) peakGeometry = g;
+    else notes.push({ code: "BEND_GEOMETRY", message: `at frame ${p.frame} the top hand and the blade heel coincide: no deflection or stored energy` });
   }
   const bendTrial = (c: CalibrationMap): BendState => {
     const [pt, pb, ph] = bendStates!.map((st) => {
@@ -169,7 +172,7 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
   };
   const stick = doc.stick ?? null;
   const energyNominal = stick && peakGeometry ? storedEnergy(stick.flex, stick.benchSpanMm, peakGeometry) : null;
-  if (stick && peak && !energyNominal)
+  if (stick && peakGeometry && !energyNominal)
     notes.push({ code: "STORED_ENERGY_GEOMETRY", message: "the bottom hand does not lie between the top hand and the blade heel along the shaft: no stored energy" });
   if (stick && !peak) notes.push({ code: "STORED_ENERGY_NEEDS_BEND", message: "a stick is given but the bend could not be measured: no stored energy" });
   if (peak && doc.events.peakBend !== undefined && Math.abs(doc.events.peakBend - peak.frame) > Math.max(3, Math.round(fps / 1000)))
@@ -193,7 +196,7 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
     if (peak && bendStates) {
       const b = bendTrial(c);
       dAngle.push(b.angleDeg - peak.angle);
-      dDefl.push(b.geometry.deflectionMm - peakGeometry!.deflectionMm);
+      if (peakGeometry) dDefl.push(b.geometry.deflectionMm - peakGeometry.deflectionMm);
       if (energyNominal && stick) {
         const e = storedEnergy(stick.flex, stick.benchSpanMm, b.geometry);
         dEnergy.push(e ? e.valueJ - energyNominal.valueJ : NaN);
@@ -204,7 +207,7 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
   const puckU = spreadFields(spreadOf(fit.speedMps, dPuck));
   const bladeU = bladeAt ? spreadFields(spreadOf(bladeAt.speed, dBlade)) : null;
   const angleU = peak ? spreadFields(spreadOf(peak.angle, dAngle)) : null;
-  const deflU = peak ? spreadFields(spreadOf(peakGeometry!.deflectionMm, dDefl)) : null;
+  const deflU = peakGeometry ? spreadFields(spreadOf(peakGeometry.deflectionMm, dDefl)) : null;
   const energyU = energyNominal ? spreadFields(spreadOf(energyNominal.valueJ, dEnergy)) : null;
 
   // Time series for the readout charts.
@@ -247,7 +250,7 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
         : null,
     peakBend: peak && angleU ? { angleDeg: peak.angle, uncertaintyDeg: angleU.u, interval95Deg: angleU.interval95, frame: peak.frame } : null,
     shaftDeflection:
-      peak && deflU
+      peak && deflU && peakGeometry
         ? {
             valueMm: peakGeometry!.deflectionMm,
             uncertaintyMm: deflU.u,

@@ -1,4 +1,4 @@
-import { Matrix, SVD } from "ml-matrix";
+import { Matrix, SVD, solve } from "ml-matrix";
 
 // Planar homography by the normalised direct linear transform (Hartley & Zisserman, Multiple View
 // Geometry, 2nd ed., algorithm 4.2): normalise each point set, solve A h = 0 by SVD, denormalise.
@@ -6,12 +6,6 @@ import { Matrix, SVD } from "ml-matrix";
 export type Vec2 = [number, number];
 /** Row-major 3×3. */
 export type Mat3 = [number, number, number, number, number, number, number, number, number];
-
-export interface HomographyFit {
-  H: Mat3;
-  /** Smallest-but-one over largest singular value of the normalised system: ~0 when degenerate. */
-  conditioning: number;
-}
 
 /** Similarity that moves the centroid to 0 and the mean distance to √2. */
 function normaliser(pts: Vec2[]): Mat3 {
@@ -52,15 +46,12 @@ function invertSimilarity(T: Mat3): Mat3 {
   return [1 / s, 0, -T[2] / s, 0, 1 / s, -T[5] / s, 0, 0, 1];
 }
 
-/** Homography mapping src[i] → dst[i] (≥ 4 pairs). Degeneracy is left to the caller via `conditioning`. */
-export function fitHomography(src: Vec2[], dst: Vec2[]): HomographyFit {
-  const n = src.length;
+/** The DLT rows for normalised points: A h̃ = 0, with the two normalisers. */
+function normalisedSystem(src: Vec2[], dst: Vec2[], rows: number): { A: Matrix; Ts: Mat3; Td: Mat3 } {
   const Ts = normaliser(src);
   const Td = normaliser(dst);
-  // 4 points give 8 rows: pad to 9 so the SVD returns the full right null space.
-  const rows = Math.max(2 * n, 9);
   const A = new Matrix(rows, 9);
-  for (let i = 0; i < n; i++) {
+  for (let i = 0; i < src.length; i++) {
     const x = Ts[0] * src[i][0] + Ts[2];
     const y = Ts[4] * src[i][1] + Ts[5];
     const X = Td[0] * dst[i][0] + Td[2];
@@ -68,18 +59,46 @@ export function fitHomography(src: Vec2[], dst: Vec2[]): HomographyFit {
     A.setRow(2 * i, [0, 0, 0, -x, -y, -1, Y * x, Y * y, Y]);
     A.setRow(2 * i + 1, [x, y, 1, 0, 0, 0, -X * x, -X * y, -X]);
   }
+  return { A, Ts, Td };
+}
+
+/** Right singular vectors of A ordered by singular value, largest first. */
+function svdOrdered(A: Matrix): { sv: number[]; V: Matrix; order: number[] } {
   const svd = new SVD(A, { computeLeftSingularVectors: false, computeRightSingularVectors: true, autoTranspose: false });
   const sv = svd.diagonal;
-  const order = sv.map((v, i) => [v, i] as const).sort((p, q) => q[0] - p[0]);
-  const smallest = order[8][1];
-  const V = svd.rightSingularVectors;
-  const h = V.getColumn(smallest) as Mat3;
-  const conditioning = order[0][0] > 0 ? order[7][0] / order[0][0] : 0;
-  let H = mul(mul(invertSimilarity(Td), h), Ts);
+  const order = sv.map((_, i) => i).sort((p, q) => sv[q] - sv[p]);
+  return { sv, V: svd.rightSingularVectors, order };
+}
+
+function denormalise(h: Mat3, Ts: Mat3, Td: Mat3): Mat3 {
+  const H = mul(mul(invertSimilarity(Td), h), Ts);
   const norm = Math.hypot(...H);
   const scale = Math.abs(H[8]) > 1e-12 * norm ? H[8] : norm;
-  H = H.map((v) => v / scale) as Mat3;
-  return { H, conditioning };
+  return H.map((v) => v / scale) as Mat3;
+}
+
+/**
+ * Homography mapping src[i] → dst[i] (≥ 4 pairs; degeneracy is checked by the caller). Exactly 4
+ * pairs determine it: the 8×8 system with h̃₃₃ = 1 (the normalised centroid maps to a finite
+ * point) is solved directly — the Monte Carlo trials refit it hundreds of times. More pairs: the
+ * least-squares null vector by SVD (4 pairs would give 8 rows: padded to 9 for the full basis).
+ */
+export function fitHomography(src: Vec2[], dst: Vec2[]): Mat3 {
+  const n = src.length;
+  const { A, Ts, Td } = normalisedSystem(src, dst, Math.max(2 * n, 9));
+  if (n === 4) {
+    const h = solve(A.subMatrix(0, 7, 0, 7), A.subMatrix(0, 7, 8, 8).mul(-1)).getColumn(0);
+    if (h.every(Number.isFinite)) return denormalise([...h, 1] as Mat3, Ts, Td);
+  }
+  const { V, order } = svdOrdered(A);
+  return denormalise(V.getColumn(order[8]) as Mat3, Ts, Td);
+}
+
+/** Smallest-but-one over largest singular value of the normalised system: ~0 when the points do not determine a map. */
+export function homographyConditioning(src: Vec2[], dst: Vec2[]): number {
+  const { A } = normalisedSystem(src, dst, Math.max(2 * src.length, 9));
+  const { sv, order } = svdOrdered(A);
+  return sv[order[0]] > 0 ? sv[order[7]] / sv[order[0]] : 0;
 }
 
 /** Jacobian of the map at (x, y), row-major [∂X/∂x, ∂X/∂y, ∂Y/∂x, ∂Y/∂y]. */

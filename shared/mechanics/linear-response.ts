@@ -216,6 +216,17 @@ export function linearState(src: Source, seg: SmoothSegment, i: number, nominalC
         dy = dM[2] * sums.pxp + dM[3] * sums.pyp + dt1 * sums.wp;
         dvx = dM[0] * sums.pxv + dM[1] * sums.pyv + dt0 * sums.wv;
         dvy = dM[2] * sums.pxv + dM[3] * sums.pyv + dt1 * sums.wv;
+      } else if (cal.H) {
+        const H = cal.H;
+        for (let t = 0; t < px.length; t++) {
+          const w = H[6] * px[t] + H[7] * py[t] + H[8];
+          const X = (H[0] * px[t] + H[1] * py[t] + H[2]) / w;
+          const Y = (H[3] * px[t] + H[4] * py[t] + H[5]) / w;
+          dx += wp[t] * (X - nx[t]);
+          dy += wp[t] * (Y - ny[t]);
+          dvx += wv[t] * (X - nx[t]);
+          dvy += wv[t] * (Y - ny[t]);
+        }
       } else {
         for (let t = 0; t < px.length; t++) {
           const [X, Y] = cal.toWorld([px[t], py[t]]);

@@ -67,21 +67,20 @@ function checkEvents(doc: ShotDocument, clip: [number, number] | null): void {
 }
 
 function toImageTrack(marks: Mark[], name: Landmark, clip: [number, number] | null): ImageTrack {
-  const order = marks.map((_, i) => i);
   let sorted = true;
   for (let i = 1; i < marks.length && sorted; i++) sorted = marks[i][0] > marks[i - 1][0];
-  if (!sorted) order.sort((a, b) => marks[a][0] - marks[b][0]);
+  const order = sorted ? null : marks.map((_, i) => i).sort((a, b) => marks[a][0] - marks[b][0]);
   const n = marks.length;
   const t: ImageTrack = { frames: new Int32Array(n), x: new Float64Array(n), y: new Float64Array(n) };
   for (let k = 0; k < n; k++) {
-    const i = order[k];
-    const [f, x, y] = marks[i];
-    const path: InputPath = ["tracks", name, i];
-    if (outside(clip, f)) throw new MechanicsInputError(path, `frame ${f} is outside the clip (${clipText(clip!)})`);
-    if (k > 0 && f === t.frames[k - 1]) throw new MechanicsInputError(path, `frame ${f} is marked twice for ${name}`);
+    const i = order ? order[k] : k;
+    const m = marks[i];
+    const f = m[0];
+    if (outside(clip, f)) throw new MechanicsInputError(["tracks", name, i], `frame ${f} is outside the clip (${clipText(clip!)})`);
+    if (k > 0 && f === t.frames[k - 1]) throw new MechanicsInputError(["tracks", name, i], `frame ${f} is marked twice for ${name}`);
     t.frames[k] = f;
-    t.x[k] = x;
-    t.y[k] = y;
+    t.x[k] = m[1];
+    t.y[k] = m[2];
   }
   return t;
 }
