@@ -22,12 +22,13 @@ export const signedInRoutes: RouteObject[] = [
   {
     path: "sticks",
     handle: { title: "Stick lab" },
-    element: (
-      <ComingNext title="Stick lab">
-        Every stick with its rated flex, length, curve and lie; three-point bench flex tests with the fitted stiffness and % of rated; each
-        stick's stiffness history; and a beam model of the shaft under load.
-      </ComingNext>
-    ),
+    children: [
+      { index: true, lazy: () => import("@/features/sticklab/routes/SticksPage") },
+      { path: ":stickId", handle: { title: "Stick" }, lazy: () => import("@/features/sticklab/routes/StickPage") },
+      { path: ":stickId/bench-tests/new", handle: { title: "New bench test" }, lazy: () => import("@/features/sticklab/routes/NewBenchTestPage") },
+      { path: ":stickId/bench-tests/:testId", handle: { title: "Bench test" }, lazy: () => import("@/features/sticklab/routes/BenchTestPage") },
+      { path: ":stickId/beam", handle: { title: "Beam model" }, lazy: () => import("@/features/sticklab/routes/BeamPage") },
+    ],
   },
   {
     path: "progress",

@@ -1,0 +1,15 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { apiDelete } from "@/lib/api";
+import { sticksKey, stickPath } from "./keys";
+
+/** DELETE /api/teams/:teamId/sticks/:stickId/bench-tests/:testId (staff). */
+export const deleteBenchTest = (teamId: string, stickId: string, testId: string) =>
+  apiDelete(`${stickPath(teamId, stickId)}/bench-tests/${encodeURIComponent(testId)}`);
+
+export function useDeleteBenchTest(teamId: string, stickId: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (testId: string) => deleteBenchTest(teamId, stickId, testId),
+    onSuccess: () => qc.invalidateQueries({ queryKey: sticksKey(teamId) }),
+  });
+}
