@@ -49,7 +49,7 @@ export function toSummary(j: JoinedClip): ClipSummary {
 
 export function toDetail(j: JoinedClip): ClipDetail {
   const c = j.clip;
-  return { ...toSummary(j), exposureUs: c.exposureUs, notes: c.notes, frameTimes: c.frameTimes ?? null, originalUrl: `${clipBase(c.teamId, c.id)}/original` };
+  return { ...toSummary(j), exposureUs: c.exposureUs, notes: c.notes, frameTimes: c.frameTimes ?? null, sha256: c.sha256, originalUrl: `${clipBase(c.teamId, c.id)}/original` };
 }
 
 export const toProgress = (c: ClipRow): ClipProgress => ({

@@ -18,6 +18,6 @@ export interface JobPolicy {
 }
 
 export const jobPolicies: Record<JobName, JobPolicy> = {
-  "clip.extract": { retryLimit: 3, retryDelaySeconds: 5, retryBackoff: true, expireInSeconds: 2 * 3600, concurrency: 1 },
+  "clip.extract": { retryLimit: 3, retryDelaySeconds: 3, retryBackoff: true, expireInSeconds: 2 * 3600, concurrency: 1 },
   "clip.sweep": { retryLimit: 0, retryDelaySeconds: 0, retryBackoff: false, expireInSeconds: 600, concurrency: 1 },
 };

@@ -157,6 +157,8 @@ export interface ClipDetail extends ClipSummary {
   /** Stored presentation time of each frame in seconds, index 0 = frame 1 (null until extracted). */
   frameTimes: number[] | null;
   originalUrl: string;
+  /** SHA-256 of the original as stored (hex). */
+  sha256: string | null;
 }
 
 export interface ClipPage { items: ClipSummary[]; total: number; page: number; pageSize: number }

@@ -51,6 +51,7 @@ export function tusUpload(
   opts: Partial<tus.UploadOptions> & { onUpload?: (u: tus.Upload) => void } = {},
 ): Promise<UploadOutcome> {
   const data = typeof file === "string" ? readFileSync(file) : file;
+  const { onUpload, ...tusOpts } = opts;
   return new Promise((resolve) => {
     const u: tus.Upload = new tus.Upload(data, {
       endpoint: `${base}/api/uploads`,
@@ -58,7 +59,7 @@ export function tusUpload(
       metadata,
       retryDelays: [],
       chunkSize: 4 * 1024 * 1024,
-      ...opts,
+      ...tusOpts,
       onSuccess: (p) => {
         const text = p.lastResponse.getBody();
         resolve({ ok: true, status: p.lastResponse.getStatus(), body: text ? JSON.parse(text) : null, url: u.url });
@@ -74,7 +75,7 @@ export function tusUpload(
         resolve({ ok: false, status: res?.getStatus(), body, url: u.url });
       },
     });
-    opts.onUpload?.(u);
+    onUpload?.(u);
     u.start();
   });
 }
