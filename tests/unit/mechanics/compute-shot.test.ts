@@ -137,6 +137,14 @@ describe("missing parts and plausibility notes", () => {
     expect(codes(computeShot(long, { trials: 20 }))).toContain("CONTACT_TIME_OUTSIDE_RANGE");
   });
 
+  it("a flight mark 15 px off the puck's straight path is flagged", () => {
+    const noisy = syntheticShot({ frames: 300, noisePx: 0.5, seed: "mis-mark" }).doc;
+    expect(codes(computeShot(noisy, { trials: 20 }))).not.toContain("PUCK_FLIGHT_NOT_STRAIGHT");
+    const rel = noisy.events.release;
+    const puck = noisy.tracks.puck.map((m): typeof m => (m[0] === rel + 4 ? [m[0], m[1], m[2] + 15] : m));
+    expect(codes(computeShot({ ...noisy, tracks: { ...noisy.tracks, puck } }, { trials: 20 }))).toContain("PUCK_FLIGHT_NOT_STRAIGHT");
+  });
+
   it("the blade not marked up to puck strike: no blade speed, with a note", () => {
     const strike = doc.events.puckStrike;
     const cut = (t: typeof doc.tracks.puck) => t.filter((m) => m[0] < strike - 5 || m[0] > strike);
