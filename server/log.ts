@@ -20,6 +20,14 @@ export const requestLog: RequestHandler = (req, res, next) => {
   const incoming = req.get("x-request-id");
   req.id = incoming && /^[\w-]{1,64}$/.test(incoming) ? incoming : randomUUID();
   req.log = log.child({ reqId: req.id });
+  if (incoming !== req.id) {
+    // Handlers that rebuild headers from the raw request (the tus upload endpoint, via srvx)
+    // must see the same id, so the job they queue carries it.
+    req.headers["x-request-id"] = req.id;
+    const raw = req.rawHeaders;
+    for (let i = raw.length - 2; i >= 0; i -= 2) if (raw[i].toLowerCase() === "x-request-id") raw.splice(i, 2);
+    raw.push("X-Request-Id", req.id);
+  }
   res.setHeader("X-Request-Id", req.id);
   const t0 = process.hrtime.bigint();
   res.on("finish", () => {

@@ -33,6 +33,6 @@ const postsOnly = (h: RequestHandler): RequestHandler => (req, res, next) => (re
 export function applyRateLimits(app: Express, enabled: boolean) {
   app.use("/api/auth/sign-in", limiter(RATE_LIMITS.signIn, "sign-in attempts", enabled));
   app.use("/api/teams/:teamId/invitations", writesOnly(limiter(RATE_LIMITS.invitations, "invitation changes", enabled)));
-  const uploads = postsOnly(limiter(RATE_LIMITS.uploads, "uploads", enabled));
-  app.use("/api/teams/:teamId/uploads", uploads);
+  // tus: POST creates an upload; its PATCH chunks and HEAD resumes are not counted.
+  app.use("/api/uploads", postsOnly(limiter(RATE_LIMITS.uploads, "uploads", enabled)));
 }

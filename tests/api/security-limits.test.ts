@@ -46,6 +46,15 @@ describe("rate limits", () => {
     await expectLimited(await admin.post(`${T}/invitations`, { email: "new.player@ravens.example", role: "player" }));
     expect((await admin.get(`${T}/members`)).status).toBe(200);
   });
+
+  it("limits starting uploads, not the chunks of one upload", async () => {
+    const post = () => fetch(`${srv.url}/api/uploads`, { method: "POST", headers: { "tus-resumable": "1.0.0", "upload-length": "10", "upload-metadata": `teamId ${Buffer.from(world.teamId).toString("base64")}` } });
+    for (let i = 0; i < RATE_LIMITS.uploads; i++) expect((await post()).status).toBe(401);
+    const over = await post();
+    await expectLimited({ status: over.status, headers: over.headers, json: await over.json() });
+    const chunk = await fetch(`${srv.url}/api/uploads/some-upload-id`, { method: "PATCH", headers: { "tus-resumable": "1.0.0", "upload-offset": "0", "content-type": "application/offset+octet-stream" }, body: "x" });
+    expect(chunk.status).not.toBe(429);
+  });
 });
 
 // Signs in the admin through better-auth's server API (no HTTP, so the sign-in limit above does
