@@ -1,4 +1,36 @@
-import { Router } from "express";
+import { Router, type Request, type Response } from "express";
+import { actorOf } from "../auth/context";
+import { parse } from "../http/validate";
+import { CompareQuery, ExportQuery, ProgressQuery, ShareShotBody, ShotListQuery } from "../../shared/schemas/readout";
+import type { FileAnswer } from "./exports";
+import { marksExport, reportExport, resultsExport } from "./exports";
+import * as svc from "./service";
+import { shareShot } from "./share";
 
-/** Mounted at /api/teams/:teamId (after requireTeamMember). */
+/** Mounted at /api/teams/:teamId (after requireTeamMember). See docs/api.md, "Shot readout …". */
 export const readoutRouter = Router({ mergeParams: true });
+
+const shotId = (req: Request) => String(req.params.shotId);
+
+function sendFile(res: Response, f: FileAnswer) {
+  res.setHeader("Content-Type", f.contentType);
+  res.setHeader("Content-Disposition", `attachment; filename="${f.filename}"`);
+  // Results change whenever marks are saved: never serve a stale copy.
+  res.setHeader("Cache-Control", "no-store");
+  res.send(f.body);
+}
+
+readoutRouter.get("/readout/shots", async (req, res) => void res.json(await svc.listShots(actorOf(req), parse(ShotListQuery, req.query))));
+readoutRouter.get("/readout/shots/:shotId", async (req, res) => void res.json(await svc.getReadout(actorOf(req), shotId(req))));
+readoutRouter.get("/readout/compare", async (req, res) => void res.json(await svc.compare(actorOf(req), parse(CompareQuery, req.query))));
+readoutRouter.get("/readout/players", async (req, res) => void res.json(await svc.players(actorOf(req))));
+readoutRouter.get("/readout/progress", async (req, res) => void res.json(await svc.progress(actorOf(req), parse(ProgressQuery, req.query))));
+
+readoutRouter.post("/readout/shots/:shotId/shares", async (req, res) => {
+  const body = parse(ShareShotBody, req.body ?? {});
+  res.status(201).json(await shareShot(actorOf(req), shotId(req), body));
+});
+
+readoutRouter.get("/readout/shots/:shotId/marks.csv", async (req, res) => sendFile(res, await marksExport(actorOf(req), shotId(req), parse(ExportQuery, req.query).units)));
+readoutRouter.get("/readout/shots/:shotId/results.csv", async (req, res) => sendFile(res, await resultsExport(actorOf(req), shotId(req), parse(ExportQuery, req.query).units)));
+readoutRouter.get("/readout/shots/:shotId/report.pdf", async (req, res) => sendFile(res, await reportExport(actorOf(req), shotId(req), parse(ExportQuery, req.query).units)));

@@ -1,0 +1,81 @@
+// The geometry of a small line chart for the PDF (the page's charts are drawn by recharts in the
+// browser; the report is drawn here as plain SVG paths): linear scales, round tick values, paths.
+
+export interface Box {
+  width: number;
+  height: number;
+  left: number;
+  right: number;
+  top: number;
+  bottom: number;
+}
+
+export interface XY {
+  x: number;
+  y: number;
+}
+
+/** Round tick values covering [lo, hi]: steps of 1, 2 or 5 × 10ⁿ, about `count` of them. */
+export function niceTicks(lo: number, hi: number, count = 5): number[] {
+  if (!Number.isFinite(lo) || !Number.isFinite(hi)) return [];
+  if (hi === lo) {
+    hi = lo + 1;
+    lo = lo - 1;
+  }
+  const raw = (hi - lo) / Math.max(1, count);
+  const mag = 10 ** Math.floor(Math.log10(raw));
+  const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
+  const first = Math.floor(lo / step) * step;
+  const out: number[] = [];
+  for (let v = first; v <= hi + step * 1e-9; v += step) out.push(Math.round(v / step) * step);
+  if (out[out.length - 1] < hi - step * 1e-9) out.push(out[out.length - 1] + step);
+  return out.map((v) => (Math.abs(v) < step * 1e-9 ? 0 : v));
+}
+
+export interface Scale {
+  (v: number): number;
+  domain: [number, number];
+  ticks: number[];
+}
+
+export function linear(domain: [number, number], range: [number, number], tickCount = 5): Scale {
+  const ticks = niceTicks(domain[0], domain[1], tickCount);
+  const d0 = Math.min(domain[0], ticks[0] ?? domain[0]);
+  const d1 = Math.max(domain[1], ticks[ticks.length - 1] ?? domain[1]);
+  const span = d1 - d0 || 1;
+  const f = ((v: number) => range[0] + ((v - d0) / span) * (range[1] - range[0])) as Scale;
+  f.domain = [d0, d1];
+  f.ticks = ticks;
+  return f;
+}
+
+/** An SVG path through the points, broken where a point is not finite. */
+export function linePath(points: XY[]): string {
+  let d = "";
+  let pen = false;
+  for (const p of points) {
+    if (!Number.isFinite(p.x) || !Number.isFinite(p.y)) {
+      pen = false;
+      continue;
+    }
+    d += `${pen ? "L" : "M"}${p.x.toFixed(2)} ${p.y.toFixed(2)} `;
+    pen = true;
+  }
+  return d.trim();
+}
+
+/** Keep at most `max` points, evenly spaced, always keeping the first and last. */
+export function thin<T>(points: T[], max: number): T[] {
+  if (points.length <= max) return points;
+  const out: T[] = [];
+  const step = (points.length - 1) / (max - 1);
+  for (let i = 0; i < max; i++) out.push(points[Math.round(i * step)]);
+  return out;
+}
+
+/** Tick labels without needless decimals: "−20", "0", "2.5". */
+export function tickLabel(v: number, ticks: number[]): string {
+  const step = ticks.length > 1 ? Math.abs(ticks[1] - ticks[0]) : 1;
+  const digits = step >= 1 ? 0 : Math.min(3, Math.ceil(-Math.log10(step)));
+  return v.toFixed(digits).replace("-", "−");
+}

@@ -1,0 +1,41 @@
+import { createElement } from "react";
+import { renderToBuffer, type DocumentProps } from "@react-pdf/renderer";
+import type { ReactElement } from "react";
+import sharp from "sharp";
+import { storage } from "../../clips/deps";
+import { clipKeys } from "../../storage";
+import { log } from "../../log";
+import type { ShotEventKey } from "../../../shared/schemas/shots";
+import type { ShotReadout } from "../../../shared/schemas/readout";
+import { registerFonts } from "./fonts";
+import { ShotReport, type ReportInput } from "./report";
+
+async function readAll(body: NodeJS.ReadableStream): Promise<Buffer> {
+  const chunks: Buffer[] = [];
+  for await (const c of body) chunks.push(Buffer.isBuffer(c) ? c : Buffer.from(c as string));
+  return Buffer.concat(chunks);
+}
+
+/** Small JPEGs of the event frames that are stored; a missing frame just leaves its slot empty. */
+export async function eventThumbs(r: ShotReadout): Promise<Partial<Record<ShotEventKey, Buffer>>> {
+  const out: Partial<Record<ShotEventKey, Buffer>> = {};
+  const ext = r.clip.frameFormat === "webp" ? "webp" : "jpg";
+  await Promise.all(
+    r.events.map(async (e) => {
+      try {
+        const key = clipKeys.frame(r.clip.id, e.frame, ext);
+        if (!(await storage().exists(key))) return;
+        const got = await storage().get(key);
+        out[e.key] = await sharp(await readAll(got.body)).resize({ width: 320, withoutEnlargement: true }).jpeg({ quality: 78 }).toBuffer();
+      } catch (err) {
+        log.warn({ err, clipId: r.clip.id, frame: e.frame }, "report: could not read an event frame");
+      }
+    }),
+  );
+  return out;
+}
+
+export async function renderShotReport(input: ReportInput): Promise<Buffer> {
+  registerFonts();
+  return renderToBuffer(createElement(ShotReport, input) as unknown as ReactElement<DocumentProps>);
+}

@@ -1,0 +1,78 @@
+// From stored rows to the answers of the readout API. Pure apart from nothing: no queries here.
+import { EVENTS, toShotDocument, type ShotStickInfo } from "../../shared/schemas/shots";
+import { frameTimeMs, type ReadoutEvent, type ShareRow, type ShotListItem, type ShotReadout, type ShotType } from "../../shared/schemas/readout";
+import type { ListRow, ReadoutRow } from "./repository";
+
+type Common = Pick<ReadoutRow, "sessionDate" | "clipCreatedAt" | "resultShotVersion" | "resultError" | "calibration" | "events" | "frameStart" | "frameEnd" | "frameCount" | "captureFps">;
+
+/** The session's date, else the day the clip was uploaded. */
+export const dateOf = (r: Pick<Common, "sessionDate" | "clipCreatedAt">) => r.sessionDate ?? r.clipCreatedAt.toISOString().slice(0, 10);
+
+/**
+ * What is still needed before there are results, said as the next step. The stored engine message
+ * when there is one; else the same check the server runs before computing.
+ */
+export function missingOf(r: Common & { marks?: ReadoutRow["marks"] }, hasResults: boolean): string | null {
+  if (hasResults) return null;
+  if (r.resultError) return r.resultError;
+  if (r.marks) {
+    const built = toShotDocument({
+      captureFps: r.captureFps, calibration: r.calibration, marks: r.marks, events: r.events,
+      frameStart: r.frameStart, frameEnd: r.frameEnd ?? r.frameCount ?? r.frameStart, stick: null,
+    });
+    if (built.missing) return built.missing;
+  }
+  return "Results have not been computed for this shot yet: open it on the Digitise page and save its marks.";
+}
+
+export function eventsOf(r: Pick<Common, "events" | "frameStart" | "captureFps">): ReadoutEvent[] {
+  const strike = r.events.puckStrike;
+  return EVENTS.filter((k) => r.events[k] !== undefined).map((key) => {
+    const frame = r.events[key]!;
+    return {
+      key,
+      frame,
+      tMs: frameTimeMs(frame, r.frameStart, r.captureFps),
+      tFromStrikeMs: strike === undefined ? null : frameTimeMs(frame, strike, r.captureFps),
+    };
+  });
+}
+
+export function listItem(r: ListRow, opts: { viewerId: string; sharedWithViewer: boolean; shareCount: number; viewerIsStaff: boolean }): ShotListItem {
+  const s = r.summary;
+  return {
+    id: r.id, label: r.label, clipId: r.clipId, clipTitle: r.clipTitle, playerId: r.playerId, playerName: r.playerName,
+    stickId: r.stickId, stickLabel: r.stickLabel, shotType: r.shotType as ShotType, date: dateOf(r), sessionId: r.sessionId, venue: r.venue || null,
+    captureFps: r.captureFps, hasResults: !!s, missing: missingOf(r, !!s),
+    puckExitSpeedMps: s?.puckExitSpeed.valueMps ?? null,
+    bladeSpeedMps: s?.bladeSpeedAtStrike?.valueMps ?? null,
+    peakBendDeg: s?.peakBend?.angleDeg ?? null,
+    loadTimeMs: s?.loadTimeMs ?? null,
+    contactTimeMs: s?.contactTimeMs ?? null,
+    sharedWithMe: opts.sharedWithViewer && r.playerId !== opts.viewerId && !opts.viewerIsStaff,
+    shareCount: opts.viewerIsStaff ? opts.shareCount : 0,
+  };
+}
+
+export function readout(r: ReadoutRow, o: { shares: ShareRow[]; stick: ShotStickInfo | null; canEdit: boolean; canShare: boolean }): ShotReadout {
+  const hasResults = !!r.results;
+  return {
+    shot: {
+      id: r.id, label: r.label, clipId: r.clipId, playerId: r.playerId, playerName: r.playerName, stickId: r.stickId, stickLabel: r.stickLabel,
+      shotType: r.shotType as ShotType, cameraView: r.cameraView, date: dateOf(r), venue: r.venue || null,
+      frameStart: r.frameStart, frameEnd: r.frameEnd ?? r.frameCount ?? r.frameStart, version: r.version, updatedAt: r.updatedAt.toISOString(),
+    },
+    clip: {
+      id: r.clipId, title: r.clipTitle, status: r.clipStatus, captureFps: r.captureFps, frameCount: r.frameCount ?? 0, width: r.width ?? 0, height: r.height ?? 0,
+      frameFormat: r.frameFormat, calibration: r.calibration?.type ?? null,
+    },
+    events: eventsOf(r),
+    results: r.results,
+    missing: missingOf(r, hasResults),
+    stale: hasResults && r.resultShotVersion !== null && r.resultShotVersion !== r.version,
+    computedAt: r.computedAt?.toISOString() ?? null,
+    stick: o.stick,
+    shares: o.shares,
+    can: { edit: o.canEdit, share: o.canShare },
+  };
+}

@@ -1,0 +1,147 @@
+import { and, asc, desc, eq, inArray, or, sql, type SQL } from "drizzle-orm";
+import { alias } from "drizzle-orm/pg-core";
+import { db } from "../db/client";
+import { auditLog, clip, member, organization, shot, shotResult, shotShare, stick, trainingSession, user } from "../db/schema";
+import type { ShotResults } from "../../shared/schemas/shot-results";
+import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../shared/schemas/shots";
+import type { ShotListQuery } from "../../shared/schemas/readout";
+
+// Drizzle only. Every query names the team, so a row of another team is simply not found. Reads
+// the shots, clips and results tables of other areas directly (read-only) to join them in one go.
+
+const player = alias(user, "player");
+const sharer = alias(user, "sharer");
+
+const baseColumns = {
+  id: shot.id, teamId: shot.teamId, clipId: shot.clipId, label: shot.label, playerId: shot.playerId, playerName: player.name,
+  stickId: shot.stickId, stickLabel: stick.label, frameStart: shot.frameStart, frameEnd: shot.frameEnd, events: shot.events, version: shot.version,
+  createdAt: shot.createdAt, updatedAt: shot.updatedAt,
+  clipTitle: clip.title, clipStatus: clip.status, shotType: clip.shotType, cameraView: clip.cameraView, captureFps: clip.captureFps,
+  frameCount: clip.frameCount, width: clip.width, height: clip.height, frameFormat: clip.frameFormat, calibration: clip.calibration,
+  clipCreatedAt: clip.createdAt, sessionId: clip.sessionId, sessionDate: trainingSession.date, venue: trainingSession.venue,
+  resultShotVersion: shotResult.shotVersion, resultError: shotResult.error, computedAt: shotResult.computedAt,
+};
+
+const withResultSummary = {
+  ...baseColumns,
+  // A result stored as JSON null (not SQL null) must not make "- 'series'" fail.
+  summary: sql<Omit<ShotResults, "series"> | null>`case when jsonb_typeof(${shotResult.results}) = 'object' then ${shotResult.results} - 'series' end`,
+};
+const withEverything = { ...withResultSummary, results: sql<unknown>`${shotResult.results}`, marks: sql<unknown>`${shot.marks}` };
+
+// The joins of every shot query: its clip, session, player, stick and stored result.
+function joined(columns: typeof withEverything) {
+  return db()
+    .select(columns)
+    .from(shot)
+    .innerJoin(clip, eq(clip.id, shot.clipId))
+    .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
+    .leftJoin(player, eq(player.id, shot.playerId))
+    .leftJoin(stick, eq(stick.id, shot.stickId))
+    .leftJoin(shotResult, eq(shotResult.shotId, shot.id));
+}
+
+function typed<R extends { events: unknown; calibration: unknown }>(r: R) {
+  return { ...r, events: r.events as ShotEventsDraft, calibration: r.calibration as ClipCalibration | null };
+}
+
+/** One shot with everything the readout shows, results (with time series) included. */
+export async function shotById(teamId: string, shotId: string) {
+  const [row] = await joined(withEverything)
+    .where(and(eq(shot.id, shotId), eq(shot.teamId, teamId)));
+  return row ? { ...typed(row), results: row.results as ShotResults | null, marks: row.marks as ShotMarks } : null;
+}
+export type ReadoutRow = NonNullable<Awaited<ReturnType<typeof shotById>>>;
+
+export interface ListScope {
+  /** Staff see the team; a player sees own shots and those shared with them. */
+  onlyVisibleTo?: string;
+}
+
+/** Shots of the team, newest first, with the results but without their time series (small rows). */
+export async function listShots(teamId: string, f: ShotListQuery, scope: ListScope) {
+  const where: SQL[] = [eq(shot.teamId, teamId)];
+  if (f.playerId) where.push(eq(shot.playerId, f.playerId));
+  if (f.stickId) where.push(eq(shot.stickId, f.stickId));
+  if (f.shotType) where.push(eq(clip.shotType, f.shotType));
+  if (scope.onlyVisibleTo) {
+    const mine = db().select({ id: shotShare.shotId }).from(shotShare).where(and(eq(shotShare.userId, scope.onlyVisibleTo), eq(shotShare.teamId, teamId)));
+    where.push(or(eq(shot.playerId, scope.onlyVisibleTo), inArray(shot.id, mine))!);
+  }
+  // The list leaves out results and marks (the heavy parts): only the summary travels.
+  const rows = await joined({ ...withEverything, results: sql<null>`null`, marks: sql<null>`null` })
+    .where(and(...where))
+    .orderBy(desc(sql`coalesce(${trainingSession.date}::timestamptz, ${clip.createdAt})`), desc(shot.createdAt));
+  return rows.map(({ results: _r, marks: _m, ...r }) => typed(r));
+}
+export type ListRow = Awaited<ReturnType<typeof listShots>>[number];
+
+/** Everyone each shot is shared with, with names and roles in the team. */
+export async function sharesOf(teamId: string, shotIds: string[]) {
+  if (!shotIds.length) return [];
+  return db()
+    .select({ shotId: shotShare.shotId, userId: shotShare.userId, name: user.name, role: member.role, sharedAt: shotShare.createdAt, sharedByName: sharer.name })
+    .from(shotShare)
+    .innerJoin(user, eq(user.id, shotShare.userId))
+    .leftJoin(member, and(eq(member.userId, shotShare.userId), eq(member.organizationId, teamId)))
+    .leftJoin(sharer, eq(sharer.id, shotShare.sharedBy))
+    .where(and(eq(shotShare.teamId, teamId), inArray(shotShare.shotId, shotIds)))
+    .orderBy(asc(user.name));
+}
+
+/** Adds shares; returns the user ids that were new (an existing share stays as it was). */
+export async function addShares(v: { teamId: string; shotId: string; userIds: string[]; sharedBy: string }) {
+  if (!v.userIds.length) return [];
+  const rows = await db()
+    .insert(shotShare)
+    .values(v.userIds.map((userId) => ({ shotId: v.shotId, userId, teamId: v.teamId, sharedBy: v.sharedBy })))
+    .onConflictDoNothing()
+    .returning({ userId: shotShare.userId });
+  return rows.map((r) => r.userId);
+}
+
+export async function removeShare(teamId: string, shotId: string, userId: string) {
+  const rows = await db()
+    .delete(shotShare)
+    .where(and(eq(shotShare.teamId, teamId), eq(shotShare.shotId, shotId), eq(shotShare.userId, userId)))
+    .returning({ userId: shotShare.userId });
+  return rows.length > 0;
+}
+
+/** Members of the team with their first role and contact, by name. */
+export async function teamMembers(teamId: string) {
+  const rows = await db()
+    .select({ userId: member.userId, name: user.name, email: user.email, role: member.role })
+    .from(member)
+    .innerJoin(user, eq(user.id, member.userId))
+    .where(eq(member.organizationId, teamId))
+    .orderBy(asc(user.name));
+  return rows.map((r) => ({ ...r, role: r.role.split(",")[0]!.trim() }));
+}
+
+/** Shots per player in the team (any result state). */
+export async function shotCountsByPlayer(teamId: string) {
+  const rows = await db()
+    .select({ playerId: shot.playerId, n: sql<number>`count(*)::int` })
+    .from(shot)
+    .where(eq(shot.teamId, teamId))
+    .groupBy(shot.playerId);
+  return new Map(rows.filter((r) => r.playerId).map((r) => [r.playerId!, r.n]));
+}
+
+/** When and by whom a shot of this team was deleted, from the audit log; null if never. */
+export async function shotDeletion(teamId: string, shotId: string) {
+  const [row] = await db()
+    .select({ at: auditLog.createdAt, byName: user.name })
+    .from(auditLog)
+    .leftJoin(user, eq(user.id, auditLog.actorId))
+    .where(and(eq(auditLog.teamId, teamId), eq(auditLog.action, "shot.deleted"), eq(auditLog.targetId, shotId)))
+    .orderBy(desc(auditLog.createdAt))
+    .limit(1);
+  return row ?? null;
+}
+
+export async function teamName(teamId: string) {
+  const [row] = await db().select({ name: organization.name }).from(organization).where(eq(organization.id, teamId));
+  return row?.name ?? "your team";
+}

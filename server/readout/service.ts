@@ -1,0 +1,126 @@
+// The readout's rules: who sees which shot, compare, progress and sharing. Every answer about a
+// shot the actor may not see is the same 404 as for a shot that does not exist: nothing leaks.
+import { isStaff, policy, type Actor } from "../auth/policy";
+import { forbidden, HttpError } from "../http/problem";
+import { stickWithLatestTest } from "../shots/repository";
+import { stickFlex } from "../shots/results";
+import type {
+  CompareResponse, PlayersResponse, ProgressQuery, ProgressResponse, ShareRow, ShotListQuery, ShotListResponse, ShotReadout, ShotType,
+} from "../../shared/schemas/readout";
+import { listItem, readout, dateOf } from "./present";
+import { progressPoints, summarise } from "./progress";
+import * as repo from "./repository";
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+const shotNotFound = (which = "That shot") =>
+  new HttpError(404, "not_found", `${which} was not found in this team. It may have been deleted, belong to another team, or not be shared with you.`);
+
+const invalid = (path: string, message: string) => new HttpError(422, "validation_failed", `${path}: ${message}`, [{ path, message }]);
+
+function shareRows(rows: Awaited<ReturnType<typeof repo.sharesOf>>): ShareRow[] {
+  return rows.map((r) => ({ userId: r.userId, name: r.name, role: r.role?.split(",")[0] ?? "former member", sharedAt: r.sharedAt.toISOString(), sharedByName: r.sharedByName }));
+}
+
+/** A shot the actor may see with its shares, else 404 (410 for staff when the audit log says it was deleted). */
+export async function visibleShot(a: Actor, shotId: string, which = "That shot") {
+  if (!UUID.test(shotId)) throw shotNotFound(which);
+  const row = await repo.shotById(a.teamId, shotId);
+  if (!row) {
+    const gone = isStaff(a) ? await repo.shotDeletion(a.teamId, shotId) : null;
+    if (gone)
+      throw new HttpError(410, "shot_deleted", `${which} was deleted on ${gone.at.toISOString().slice(0, 10)}${gone.byName ? ` by ${gone.byName}` : ""}; its marks and results are gone.`);
+    throw shotNotFound(which);
+  }
+  const shares = shareRows(await repo.sharesOf(a.teamId, [row.id]));
+  if (!policy.viewShot(a, { teamId: row.teamId, playerId: row.playerId, sharedWith: shares.map((s) => s.userId) })) throw shotNotFound(which);
+  return { row, shares };
+}
+
+async function toReadout(a: Actor, v: Awaited<ReturnType<typeof visibleShot>>): Promise<ShotReadout> {
+  const st = v.row.stickId ? await stickWithLatestTest(v.row.stickId) : null;
+  return readout(v.row, {
+    // A player learns only that the shot was shared with them, not with whom else.
+    shares: isStaff(a) ? v.shares : v.shares.filter((s) => s.userId === a.userId),
+    stick: st ? stickFlex(st) : null,
+    canEdit: policy.editShot(a, v.row),
+    canShare: policy.shareShot(a, v.row),
+  });
+}
+
+export async function getReadout(a: Actor, shotId: string): Promise<ShotReadout> {
+  return toReadout(a, await visibleShot(a, shotId));
+}
+
+export async function listShots(a: Actor, q: ShotListQuery): Promise<ShotListResponse> {
+  const staff = isStaff(a);
+  const rows = await repo.listShots(a.teamId, q, staff ? {} : { onlyVisibleTo: a.userId });
+  const shares = await repo.sharesOf(a.teamId, rows.map((r) => r.id));
+  const by = new Map<string, string[]>();
+  for (const s of shares) by.set(s.shotId, [...(by.get(s.shotId) ?? []), s.userId]);
+  const visible = rows.filter((r) => policy.viewShot(a, { teamId: r.teamId, playerId: r.playerId, sharedWith: by.get(r.id) ?? [] }));
+  const players = new Map<string, string>();
+  const sticks = new Map<string, string>();
+  for (const r of visible) {
+    if (r.playerId && r.playerName) players.set(r.playerId, r.playerName);
+    if (r.stickId && r.stickLabel) sticks.set(r.stickId, r.stickLabel);
+  }
+  return {
+    shots: visible.map((r) =>
+      listItem(r, { viewerId: a.userId, viewerIsStaff: staff, sharedWithViewer: (by.get(r.id) ?? []).includes(a.userId), shareCount: (by.get(r.id) ?? []).length }),
+    ),
+    players: [...players].map(([id, name]) => ({ id, name })).sort((x, y) => x.name.localeCompare(y.name)),
+    sticks: [...sticks].map(([id, label]) => ({ id, label })).sort((x, y) => x.label.localeCompare(y.label)),
+  };
+}
+
+export async function compare(a: Actor, ids: { a: string; b: string }): Promise<CompareResponse> {
+  const x = await visibleShot(a, ids.a, "Shot A");
+  const y = await visibleShot(a, ids.b, "Shot B");
+  const own = (v: typeof x) => ({ teamId: v.row.teamId, playerId: v.row.playerId, sharedWith: v.shares.map((s) => s.userId) });
+  if (!policy.compareShots(a, own(x), own(y))) throw shotNotFound("One of the two shots");
+  return { a: await toReadout(a, x), b: await toReadout(a, y) };
+}
+
+export async function players(a: Actor): Promise<PlayersResponse> {
+  const [members, counts] = await Promise.all([repo.teamMembers(a.teamId), repo.shotCountsByPlayer(a.teamId)]);
+  const listed = members.filter((m) => (isStaff(a) ? m.role === "player" || counts.has(m.userId) : m.userId === a.userId));
+  return { players: listed.map((m) => ({ id: m.userId, name: m.name, shots: counts.get(m.userId) ?? 0 })) };
+}
+
+export async function progress(a: Actor, q: ProgressQuery): Promise<ProgressResponse> {
+  const playerId = q.playerId ?? a.userId;
+  if (!policy.viewProgress(a, playerId)) throw forbidden("Players see their own progress only.");
+  const who = (await repo.teamMembers(a.teamId)).find((m) => m.userId === playerId);
+  if (!who) throw new HttpError(404, "not_found", "That player is not a member of this team.");
+  const all = await repo.listShots(a.teamId, { playerId }, {});
+  const sticks = new Map<string, string>();
+  const types = new Set<ShotType>();
+  for (const r of all) {
+    if (r.stickId && r.stickLabel) sticks.set(r.stickId, r.stickLabel);
+    types.add(r.shotType as ShotType);
+  }
+  const rows = all.filter((r) => (!q.stickId || r.stickId === q.stickId) && (!q.shotType || r.shotType === q.shotType));
+  const points = progressPoints(
+    rows.map((r) => ({
+      shotId: r.id, label: r.label, date: dateOf(r), sessionId: r.sessionId, venue: r.venue || null, stickId: r.stickId, stickLabel: r.stickLabel,
+      shotType: r.shotType as ShotType, results: r.summary,
+    })),
+  );
+  return {
+    player: { id: who.userId, name: who.name },
+    sticks: [...sticks].map(([id, label]) => ({ id, label })).sort((x, y) => x.label.localeCompare(y.label)),
+    shotTypes: [...types],
+    points,
+    summary: summarise(points),
+    withoutResults: rows.filter((r) => !r.summary).length,
+  };
+}
+
+/** The shot's results or a 409 that says what is still missing (exports need numbers). */
+export function resultsOrThrow(v: ShotReadout) {
+  if (!v.results) throw new HttpError(409, "no_results", `This shot has no results yet. ${v.missing ?? ""}`.trim());
+  return v.results;
+}
+
+export { invalid };

@@ -1,0 +1,321 @@
+// The readout API (docs/api.md, "Shot readout, side by side, progress, sharing and exports"):
+// queries, bodies and answers both sides share, and the one list of results with their units,
+// digits and wording, so the page, the PDF, the CSV and the e-mail print the same numbers.
+import { z } from "zod";
+import type { ShotResults } from "./shot-results";
+import type { DigitiseClip, ShotEventKey, ShotStickInfo } from "./shots";
+import { display, type UnitSystem } from "../units";
+
+export const SHOT_TYPES = ["slap", "wrist", "snap", "backhand"] as const;
+export type ShotType = (typeof SHOT_TYPES)[number];
+export const shotTypeLabels: Record<ShotType, string> = { slap: "Slap shot", wrist: "Wrist shot", snap: "Snap shot", backhand: "Backhand" };
+
+const id = (what: string) => z.string({ error: `${what} is required` }).trim().min(1, { error: `${what} is required` }).max(100);
+const uuid = (what: string) => z.uuid({ error: `${what} must be a shot id` });
+const units = z.enum(["metric", "imperial"], { error: 'units must be "metric" or "imperial"' });
+
+// ---- queries and bodies ------------------------------------------------------------------------
+
+export const ShotListQuery = z.object({
+  playerId: id("playerId").optional(),
+  stickId: z.uuid({ error: "stickId must be a stick id" }).optional(),
+  shotType: z.enum(SHOT_TYPES, { error: "shotType must be slap, wrist, snap or backhand" }).optional(),
+});
+export type ShotListQuery = z.infer<typeof ShotListQuery>;
+
+export const ProgressQuery = ShotListQuery;
+export type ProgressQuery = ShotListQuery;
+
+export const CompareQuery = z
+  .object({ a: uuid("a"), b: uuid("b") })
+  .refine((q) => q.a !== q.b, { path: ["b"], error: "choose two different shots to compare" });
+export type CompareQuery = z.infer<typeof CompareQuery>;
+
+export const ExportQuery = z.object({ units: units.optional() });
+
+export const ShareShotBody = z
+  .strictObject({
+    /** The shot's own player. */
+    player: z.boolean({ error: "player must be true or false" }).default(true),
+    /** Every coach, analyst and team admin of the team (but the one sharing). */
+    staff: z.boolean({ error: "staff must be true or false" }).default(false),
+  })
+  .refine((b) => b.player || b.staff, { path: ["player"], error: "choose whom to share with: the player, the team's staff, or both" });
+export type ShareShotBody = z.input<typeof ShareShotBody>;
+
+// ---- answers -------------------------------------------------------------------------------------
+
+export interface PersonRef {
+  id: string;
+  name: string;
+}
+
+export interface ShotListItem {
+  id: string;
+  label: string;
+  clipId: string;
+  clipTitle: string;
+  playerId: string | null;
+  playerName: string | null;
+  stickId: string | null;
+  stickLabel: string | null;
+  shotType: ShotType;
+  /** The session's date, else the day the clip was uploaded (YYYY-MM-DD). */
+  date: string;
+  sessionId: string | null;
+  venue: string | null;
+  captureFps: number;
+  /** Results present; otherwise `missing` says what to do next. */
+  hasResults: boolean;
+  missing: string | null;
+  puckExitSpeedMps: number | null;
+  bladeSpeedMps: number | null;
+  peakBendDeg: number | null;
+  loadTimeMs: number | null;
+  contactTimeMs: number | null;
+  /** The viewer sees it because a coach shared it with them (not as its player or staff). */
+  sharedWithMe: boolean;
+  /** How many people it has been shared with (staff only; 0 for players). */
+  shareCount: number;
+}
+
+export interface ShotListResponse {
+  shots: ShotListItem[];
+  /** For the filters: the players and sticks among the listed shots. */
+  players: PersonRef[];
+  sticks: { id: string; label: string }[];
+}
+
+export interface ReadoutEvent {
+  key: ShotEventKey;
+  frame: number;
+  /** From the shot's first frame, by the capture rate. */
+  tMs: number;
+  /** From puck strike (negative before it); null without a puck strike. */
+  tFromStrikeMs: number | null;
+}
+
+export interface ShareRow {
+  userId: string;
+  name: string;
+  role: string;
+  sharedAt: string;
+  sharedByName: string | null;
+}
+
+export interface ShotReadout {
+  shot: {
+    id: string;
+    label: string;
+    clipId: string;
+    playerId: string | null;
+    playerName: string | null;
+    stickId: string | null;
+    stickLabel: string | null;
+    shotType: ShotType;
+    cameraView: string;
+    date: string;
+    venue: string | null;
+    frameStart: number;
+    frameEnd: number;
+    version: number;
+    updatedAt: string;
+  };
+  /** The clip as Digitise knows it; only the calibration's kind, not its points. */
+  clip: Omit<DigitiseClip, "playerId" | "calibration"> & { calibration: "scaleBar" | "plane" | null };
+  events: ReadoutEvent[];
+  results: ShotResults | null;
+  /** When there are no results: what is still needed, said as the next step. */
+  missing: string | null;
+  /** The results were computed from an older version of the marks. */
+  stale: boolean;
+  computedAt: string | null;
+  stick: ShotStickInfo | null;
+  /** Who it was shared with (staff see all; a player sees only their own share). */
+  shares: ShareRow[];
+  can: { edit: boolean; share: boolean };
+}
+
+export interface CompareResponse {
+  a: ShotReadout;
+  b: ShotReadout;
+}
+
+export interface ProgressPoint {
+  shotId: string;
+  label: string;
+  date: string;
+  sessionId: string | null;
+  venue: string | null;
+  stickId: string | null;
+  stickLabel: string | null;
+  shotType: ShotType;
+  values: Partial<Record<MetricKey, { value: number; u: number | null }>>;
+}
+
+export interface MetricSummary {
+  count: number;
+  /** SI, as the metric's `best` direction says (highest or lowest). */
+  best: number | null;
+  bestShotId: string | null;
+  /** Median: the typical value. */
+  typical: number | null;
+  /** Median of the first and of the last session with this result, when there are two sessions or more. */
+  firstSession: number | null;
+  lastSession: number | null;
+}
+
+export interface ProgressResponse {
+  player: PersonRef;
+  /** Filters offered (from every shot of the player, before filtering). */
+  sticks: { id: string; label: string }[];
+  shotTypes: ShotType[];
+  points: ProgressPoint[];
+  summary: Record<MetricKey, MetricSummary>;
+  /** Shots of the player (after filters) still without results. */
+  withoutResults: number;
+}
+
+export interface PlayersResponse {
+  players: (PersonRef & { shots: number })[];
+}
+
+export interface ShareResponse {
+  recipients: { userId: string; name: string; role: string; added: boolean; mailed: boolean; note: string | null }[];
+}
+
+// ---- results, their units and wording ----------------------------------------------------------
+
+export const METRIC_KEYS = ["puckExitSpeed", "bladeSpeedAtStrike", "peakBend", "loadTime", "contactTime", "storedEnergy"] as const;
+export type MetricKey = (typeof METRIC_KEYS)[number];
+
+type Kind = "speed" | "angle" | "time" | "energy" | "length";
+
+export interface MetricDef {
+  key: MetricKey;
+  label: string;
+  kind: Kind;
+  /** What "best" means for this result, and its name in a sentence. */
+  best: "max" | "min";
+  bestLabel: string;
+  /** Short explanation on the card. */
+  hint: string;
+  /** SI value and standard uncertainty from the engine's results, or null. */
+  read: (r: ShotResults) => { value: number; u: number | null } | null;
+}
+
+export const METRICS: readonly MetricDef[] = [
+  {
+    key: "puckExitSpeed", label: "Puck exit speed", kind: "speed", best: "max", bestLabel: "Fastest",
+    hint: "Straight-line fit to the puck's flight after release.",
+    read: (r) => ({ value: r.puckExitSpeed.valueMps, u: r.puckExitSpeed.uncertaintyMps }),
+  },
+  {
+    key: "bladeSpeedAtStrike", label: "Blade speed at strike", kind: "speed", best: "max", bestLabel: "Fastest",
+    hint: "Speed of the blade as it reaches the puck.",
+    read: (r) => (r.bladeSpeedAtStrike ? { value: r.bladeSpeedAtStrike.valueMps, u: r.bladeSpeedAtStrike.uncertaintyMps } : null),
+  },
+  {
+    key: "peakBend", label: "Peak bend", kind: "angle", best: "max", bestLabel: "Most bend",
+    hint: "Largest bend angle of the shaft (0° when straight).",
+    read: (r) => (r.peakBend ? { value: r.peakBend.angleDeg, u: r.peakBend.uncertaintyDeg } : null),
+  },
+  {
+    key: "loadTime", label: "Load time", kind: "time", best: "max", bestLabel: "Longest load",
+    hint: "Ice strike → puck strike: how long the stick was loaded against the ice.",
+    read: (r) => (r.loadTimeMs === null ? null : { value: r.loadTimeMs, u: r.frameTimeMs }),
+  },
+  {
+    key: "contactTime", label: "Contact time", kind: "time", best: "min", bestLabel: "Quickest release",
+    hint: "Puck strike → release: how long the puck stayed on the blade.",
+    read: (r) => ({ value: r.contactTimeMs, u: r.frameTimeMs }),
+  },
+  {
+    key: "storedEnergy", label: "Stored energy", kind: "energy", best: "max", bestLabel: "Most energy",
+    hint: "Energy in the bent shaft at peak bend, from the stick's stiffness.",
+    read: (r) => (r.storedEnergy ? { value: r.storedEnergy.valueJ, u: r.storedEnergy.uncertaintyJ } : null),
+  },
+];
+
+export const metricDef = (k: MetricKey): MetricDef => METRICS.find((m) => m.key === k)!;
+
+const DIGITS: Record<Kind, Record<UnitSystem, number>> = {
+  speed: { metric: 1, imperial: 1 },
+  angle: { metric: 1, imperial: 1 },
+  time: { metric: 1, imperial: 1 },
+  energy: { metric: 1, imperial: 1 },
+  length: { metric: 1, imperial: 2 },
+};
+
+/** Unit label of a kind of result in a unit system. */
+export function unitOf(kind: Kind, system: UnitSystem): string {
+  if (kind === "angle") return "°";
+  if (kind === "time") return "ms";
+  return display[kind][system].unit;
+}
+
+/** SI → the number shown (times stay ms, angles degrees). Linear, so it also converts uncertainties. */
+export function convert(kind: Kind, si: number, system: UnitSystem): number {
+  if (kind === "angle" || kind === "time") return si;
+  return display[kind][system].from(si);
+}
+
+export const digitsOf = (kind: Kind, system: UnitSystem) => DIGITS[kind][system];
+
+/** "108.4" — the number alone, as printed everywhere (point as decimal mark, no grouping). */
+export function formatNumber(kind: Kind, si: number, system: UnitSystem): string {
+  return convert(kind, si, system).toFixed(digitsOf(kind, system));
+}
+
+const withUnit = (text: string, unit: string) => (unit === "°" ? `${text}°` : `${text} ${unit}`);
+
+/** "108.4 km/h", "7.0°", "25.0 ms". */
+export function formatValue(kind: Kind, si: number | null | undefined, system: UnitSystem): string {
+  if (si === null || si === undefined || !Number.isFinite(si)) return "—";
+  return withUnit(formatNumber(kind, si, system), unitOf(kind, system));
+}
+
+/** "108.4 ± 1.3 km/h"; without an uncertainty just the value. */
+export function formatWithU(kind: Kind, si: number | null | undefined, u: number | null | undefined, system: UnitSystem): string {
+  if (si === null || si === undefined || !Number.isFinite(si)) return "—";
+  if (u === null || u === undefined || !Number.isFinite(u)) return formatValue(kind, si, system);
+  const d = digitsOf(kind, system);
+  const text = `${convert(kind, si, system).toFixed(d)} ± ${Math.abs(convert(kind, u, system)).toFixed(d)}`;
+  return unitOf(kind, system) === "°" ? `${text}°` : `${text} ${unitOf(kind, system)}`;
+}
+
+/** A metric of a result set, formatted: value, "± u" and unit separately for cards and tables. */
+export function metricText(def: MetricDef, r: ShotResults | null, system: UnitSystem) {
+  const v = r ? def.read(r) : null;
+  if (!v) return null;
+  const d = digitsOf(def.kind, system);
+  return {
+    value: formatNumber(def.kind, v.value, system),
+    u: v.u === null ? null : Math.abs(convert(def.kind, v.u, system)).toFixed(d),
+    unit: unitOf(def.kind, system),
+    full: formatWithU(def.kind, v.value, v.u, system),
+  };
+}
+
+/** Which result a plausibility note (by its engine code) belongs to; null = the whole shot. */
+export function noteMetric(code: string): MetricKey | null {
+  if (code.startsWith("PUCK_")) return "puckExitSpeed";
+  if (code.startsWith("BLADE_")) return "bladeSpeedAtStrike";
+  if (code.startsWith("CONTACT_")) return "contactTime";
+  if (code.startsWith("LOAD_")) return "loadTime";
+  if (code.startsWith("BEND_")) return "peakBend";
+  if (code.startsWith("ENERGY_") || code.startsWith("STORED_")) return "storedEnergy";
+  return null;
+}
+
+/** Time of a frame by the capture rate, from `fromFrame`, in ms. */
+export const frameTimeMs = (frame: number, fromFrame: number, captureFps: number) => ((frame - fromFrame) / captureFps) * 1000;
+
+/** Links into the app, the same in e-mails, PDFs and pages. */
+export const readoutPath = (shotId: string, teamId?: string) => `/readout/${shotId}${teamId ? `?team=${encodeURIComponent(teamId)}` : ""}`;
+
+/** A shot's name for headings, lists and e-mails: its label, else what and when. */
+export function shotTitle(s: { label: string; shotType: ShotType; date: string; playerName?: string | null }): string {
+  if (s.label.trim()) return s.label.trim();
+  return [shotTypeLabels[s.shotType] ?? "Shot", s.playerName, s.date].filter(Boolean).join(" · ");
+}
