@@ -4,6 +4,7 @@
 import { eiFromFlex } from "../../shared/mechanics/sticklab";
 import type { StickStiffness } from "../../shared/schemas/sticks";
 import { log } from "../log";
+import { recomputeShot } from "../shots/results";
 import * as repo from "./repository";
 
 export async function stickStiffness(teamId: string, stickId: string, onDate?: string): Promise<StickStiffness | null> {
@@ -23,29 +24,19 @@ export interface StiffnessChange {
   /** Shots taken with the stick, whose stored results used the old stiffness. */
   shotIds: string[];
 }
-type StiffnessListener = (change: StiffnessChange) => Promise<void>;
-const listeners: StiffnessListener[] = [];
-
-/**
- * Shot results depend on the stick's stiffness (stored energy): the shots area registers here
- * to recompute them. Kept as a registry so this area does not import the shots area.
- */
-export function onStickStiffnessChange(listener: StiffnessListener): void {
-  listeners.push(listener);
-}
 
 /**
  * After a bench test is added or removed, the rating changes or the stick is deleted (pass the
- * shots it had, as they are unlinked by then). Never fails the caller's request.
+ * shots it had, as they are unlinked by then): the shots' stored results (stored energy) used
+ * the old stiffness, so the shots area recomputes them. Never fails the caller's request.
  */
 export async function stickStiffnessChanged(teamId: string, stickId: string, shotIds?: string[]): Promise<StiffnessChange> {
   const change = { teamId, stickId, shotIds: shotIds ?? (await repo.shotIdsWithStick(teamId, stickId)) };
-  if (change.shotIds.length === 0) return change;
-  for (const listener of listeners) {
+  for (const shotId of change.shotIds) {
     try {
-      await listener(change);
+      await recomputeShot(shotId);
     } catch (err) {
-      log.error({ err, stickId, shots: change.shotIds.length }, "recomputing shots after a stiffness change failed");
+      log.error({ err, stickId, shotId }, "recomputing a shot after a stiffness change failed");
     }
   }
   return change;

@@ -179,4 +179,18 @@ describe("beam model", () => {
     expect(unlinked.json.detail).toMatch(/not linked to a stick/);
     expect((await db().select().from(stick).where(eq(stick.id, s.id))).length).toBe(1);
   });
+
+  it("has the shots taken with a stick recomputed when a bench test changes its stiffness", async () => {
+    const s = await newStick({ label: "Recompute stick", ownerId: playerId() });
+    const [c] = await db().insert(clip).values({ teamId: world.teamId, captureFps: 3200, playerId: playerId(), stickId: s.id, status: "ready" }).returning();
+    const [sh] = await db().insert(shot).values({ teamId: world.teamId, clipId: c.id, playerId: playerId(), stickId: s.id, label: "Unmarked" }).returning();
+    expect(await db().select().from(shotResult).where(eq(shotResult.shotId, sh.id))).toHaveLength(0);
+    const t = await analyst.post(`${T()}/sticks/${s.id}/bench-tests`, { date: "2026-10-01", loadUnit: "lbf", deflectionUnit: "in", readings: onLine(80) });
+    expect(t.status).toBe(201);
+    // No marks yet: the recomputed result says what is missing instead of numbers.
+    const [stored] = await db().select().from(shotResult).where(eq(shotResult.shotId, sh.id));
+    expect(stored).toBeDefined();
+    expect(stored.results).toBeNull();
+    expect(stored.error).toBeTruthy();
+  });
 });
