@@ -29,6 +29,8 @@ export interface ExtractRun {
   signal?: AbortSignal;
   /** Called once frame 1 is viewable (benchmarks). */
   onFirstFrame?: () => void;
+  /** false: no mail to the uploader (seed). */
+  notify?: boolean;
 }
 
 export type ExtractOutcome = "ready" | "failed" | "skipped";
@@ -41,7 +43,7 @@ export async function extractClip(clipId: string, run: ExtractRun): Promise<Extr
   }
   try {
     await extractInto(row, run);
-    return (await finishReady(row)) ? "ready" : "skipped";
+    return (await finishReady(row, run.notify !== false)) ? "ready" : "skipped";
   } catch (err) {
     if (err instanceof ClipGone || !(await clipById(clipId))) {
       await storage().deletePrefix(clipKeys.prefix(clipId));
@@ -55,7 +57,7 @@ export async function extractClip(clipId: string, run: ExtractRun): Promise<Extr
     const reason = (err as Error).message || "Frame extraction failed";
     run.log.warn({ clipId, err }, "clip extraction failed");
     const failed = await updateClip(clipId, { status: "failed", failureReason: isRetryable(err) ? `${reason} (gave up after several attempts)` : reason });
-    if (failed) await notifyClipDone(failed);
+    if (failed && run.notify !== false) await notifyClipDone(failed);
     return "failed";
   }
 }
@@ -135,12 +137,12 @@ async function putFrame(key: string, file: string, format: "jpg" | "webp") {
   await rename(tmp, dest);
 }
 
-async function finishReady(row: ClipRow): Promise<boolean> {
+async function finishReady(row: ClipRow, notify: boolean): Promise<boolean> {
   const ready = await updateClip(row.id, { status: "ready", failureReason: null });
   if (!ready) {
     await storage().deletePrefix(clipKeys.prefix(row.id));
     return false;
   }
-  await notifyClipDone(ready);
+  if (notify) await notifyClipDone(ready);
   return true;
 }
