@@ -25,8 +25,8 @@ const F_HI = 0.4;
 /** The straight-line (noise-only) region, as fractions of the sampling rate. */
 const TAIL_LO = 0.25;
 const TAIL_POINTS = 6;
-/** 12 halvings of the log range give the cutoff to ~0.1 %. */
-const BISECTIONS = 12;
+/** 10 halvings of the log range (a factor of 200) give the cutoff to ~0.5 %. */
+const BISECTIONS = 10;
 
 export function residualRms(series: ResidualSeries[], fcHz: number): number {
   let ss = 0;
