@@ -1,0 +1,216 @@
+// Shot readout, list, side by side and progress on real PostgreSQL: the numbers are the engine's,
+// a player sees own and shared shots only, comparing across teams or reading a deleted shot gives a
+// clear message and nothing of the other shot.
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { Client, EMAILS, seedWorld, startServer, type TestServer } from "./helpers";
+import { insertReadyClip } from "./routes/shots";
+import { insertShotWithResults, scene } from "./routes/readout";
+
+let srv: TestServer;
+let world: Awaited<ReturnType<typeof seedWorld>>;
+let analyst: Client, coach: Client, player: Client, player2: Client, outsider: Client;
+
+beforeAll(async () => {
+  srv = await startServer();
+  world = await seedWorld();
+  analyst = await new Client(srv.url).signIn(EMAILS.analyst);
+  coach = await new Client(srv.url).signIn(EMAILS.coach);
+  player = await new Client(srv.url).signIn(EMAILS.player);
+  player2 = await new Client(srv.url).signIn(EMAILS.player2);
+  outsider = await new Client(srv.url).signIn(world.outsiderEmail);
+});
+afterAll(() => srv.close());
+
+const R = () => `/api/teams/${world.teamId}/readout`;
+const uid = (email: string) => world.users[email];
+
+describe("shot readout", () => {
+  it("reads back what the shots API stored, with the events timed by the capture rate", async () => {
+    // Digitised the way Digitise does it: marks saved, then the clip calibrated (each recomputes).
+    const s = scene();
+    const clipId = await insertReadyClip(world.teamId, { playerId: uid(EMAILS.player), frameCount: 400, width: 2000, height: 720, captureFps: 3200 });
+    const shot = (await analyst.post(`/api/teams/${world.teamId}/clips/${clipId}/shots`, { frameStart: 1, frameEnd: 400, label: "Real path" })).json;
+    expect((await analyst.put(`/api/teams/${world.teamId}/shots/${shot.id}/marks`, { baseVersion: 1, marks: s.marks, events: s.events })).status).toBe(200);
+
+    const before = await player.get(`${R()}/shots/${shot.id}`);
+    expect(before.status, before.text).toBe(200);
+    expect(before.json.results).toBeNull();
+    expect(before.json.missing).toMatch(/calibration/);
+
+    expect((await analyst.put(`/api/teams/${world.teamId}/clips/${clipId}/calibration`, { calibration: s.calibration })).status).toBe(200);
+    const stored = (await analyst.get(`/api/teams/${world.teamId}/shots/${shot.id}`)).json.storedResult.results;
+    const r = await player.get(`${R()}/shots/${shot.id}`);
+    expect(r.status).toBe(200);
+    expect(r.json.missing).toBeNull();
+    expect(r.json.stale).toBe(false);
+    expect(r.json.results.puckExitSpeed.valueMps).toBe(stored.puckExitSpeed.valueMps);
+    // [CP] the synthetic scene's known exit speed (30 m/s), to 1 %.
+    expect(Math.abs(r.json.results.puckExitSpeed.valueMps - s.truth.exitSpeedMps) / s.truth.exitSpeedMps).toBeLessThan(0.01);
+    const ev = Object.fromEntries(r.json.events.map((e: { key: string }) => [e.key, e]));
+    // Times come from the capture rate: (frame − puck strike) / 3200 fps.
+    expect(ev.release.tFromStrikeMs).toBeCloseTo(((s.events.release - s.events.puckStrike) / 3200) * 1000, 9);
+    expect(ev.release.tFromStrikeMs).toBeCloseTo(r.json.results.contactTimeMs, 9);
+    expect(ev.iceStrike.tMs).toBeCloseTo(((s.events.iceStrike - 1) / 3200) * 1000, 9);
+    expect(r.json.results.series.puckSpeed.points.length).toBeGreaterThan(100);
+    expect(r.json.can).toEqual({ edit: false, share: false });
+    expect((await coach.get(`${R()}/shots/${shot.id}`)).json.can).toEqual({ edit: true, share: true });
+  });
+
+  it("a player cannot open another player's shot: the same 404 as a shot that does not exist", async () => {
+    const theirs = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player2), label: "Jonah private" });
+    const r = await player.get(`${R()}/shots/${theirs.shotId}`);
+    expect(r.status).toBe(404);
+    expect(r.json.detail).toMatch(/not found in this team.*not be shared with you/);
+    expect(r.text).not.toContain("Jonah private");
+    const none = await player.get(`${R()}/shots/${crypto.randomUUID()}`);
+    expect(none.status).toBe(404);
+    expect(none.json.detail).toBe(r.json.detail);
+    expect((await player.get(`${R()}/shots/not-an-id`)).status).toBe(404);
+  });
+
+  it("a deleted shot behind an old link: staff learn when and by whom, a player gets the plain 404", async () => {
+    const gone = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Soon deleted" });
+    expect((await analyst.del(`/api/teams/${world.teamId}/shots/${gone.shotId}`)).status).toBe(204);
+    const staff = await coach.get(`${R()}/shots/${gone.shotId}`);
+    expect(staff.status).toBe(410);
+    expect(staff.json.code).toBe("shot_deleted");
+    expect(staff.json.detail).toMatch(/deleted on \d{4}-\d\d-\d\d by Priya Lindqvist/);
+    const own = await player.get(`${R()}/shots/${gone.shotId}`);
+    expect(own.status).toBe(404);
+    expect(own.json.detail).toMatch(/may have been deleted/);
+  });
+});
+
+describe("list of shots", () => {
+  it("staff see the team's shots; a player sees own and shared ones only, with filters", async () => {
+    const { db } = await import("../../server/db/client");
+    const { shotShare, stick } = await import("../../server/db/schema");
+    const [st] = await db().insert(stick).values({ teamId: world.teamId, label: "List 75", ratedFlex: 75 }).returning();
+    const own = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "List own", stickId: st.id, shotType: "wrist" });
+    const other = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player2), label: "List other" });
+    const shared = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player2), label: "List shared" });
+    await db().insert(shotShare).values({ shotId: shared.shotId, userId: uid(EMAILS.player), teamId: world.teamId, sharedBy: uid(EMAILS.coach) });
+
+    const mine = (await player.get(`${R()}/shots`)).json;
+    const ids = mine.shots.map((s: { id: string }) => s.id);
+    expect(ids).toContain(own.shotId);
+    expect(ids).toContain(shared.shotId);
+    expect(ids).not.toContain(other.shotId);
+    expect(mine.shots.find((s: { id: string }) => s.id === shared.shotId)).toMatchObject({ sharedWithMe: true, shareCount: 0 });
+    expect(mine.shots.find((s: { id: string }) => s.id === own.shotId)).toMatchObject({ sharedWithMe: false, hasResults: true, stickLabel: "List 75", shotType: "wrist" });
+
+    const all = (await coach.get(`${R()}/shots`)).json.shots.map((s: { id: string }) => s.id);
+    expect(all).toEqual(expect.arrayContaining([own.shotId, other.shotId, shared.shotId]));
+    const wrist = (await coach.get(`${R()}/shots?shotType=wrist`)).json.shots;
+    expect(wrist.every((s: { shotType: string }) => s.shotType === "wrist")).toBe(true);
+    expect(wrist.map((s: { id: string }) => s.id)).toContain(own.shotId);
+    const byStick = (await coach.get(`${R()}/shots?stickId=${st.id}`)).json.shots.map((s: { id: string }) => s.id);
+    expect(byStick).toEqual([own.shotId]);
+    const bad = await coach.get(`${R()}/shots?shotType=lob`);
+    expect(bad.status).toBe(422);
+    expect(bad.json.errors[0].path).toBe("shotType");
+  });
+});
+
+describe("side by side", () => {
+  it("two of one's own shots, each with its own capture rate", async () => {
+    const a = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Cmp 3200" });
+    const b = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Cmp 1000", scene: { captureFps: 1000 } });
+    const r = await player.get(`${R()}/compare?a=${a.shotId}&b=${b.shotId}`);
+    expect(r.status, r.text).toBe(200);
+    expect(r.json.a.clip.captureFps).toBe(3200);
+    expect(r.json.b.clip.captureFps).toBe(1000);
+    expect(r.json.b.results.puckExitSpeed.valueMps).toBe(b.results!.puckExitSpeed.valueMps);
+  });
+
+  it("a player cannot put another player's shot beside their own; nothing of it comes back", async () => {
+    const a = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Mine" });
+    const b = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player2), label: "Not mine" });
+    const r = await player.get(`${R()}/compare?a=${a.shotId}&b=${b.shotId}`);
+    expect(r.status).toBe(404);
+    expect(r.json.detail).toMatch(/^Shot B was not found in this team/);
+    expect(r.text).not.toContain("Not mine");
+  });
+
+  it("shots from different teams: a clear message, nothing of the other team's shot", async () => {
+    const ours = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Ours" });
+    const theirs = await insertShotWithResults({ teamId: world.otherTeamId, label: "Foxes secret" });
+    const r = await coach.get(`${R()}/compare?a=${ours.shotId}&b=${theirs.shotId}`);
+    expect(r.status).toBe(404);
+    expect(r.json.detail).toMatch(/Shot B was not found in this team\. It may .* belong to another team/);
+    expect(r.text).not.toContain("Foxes secret");
+    expect(r.text).not.toContain(world.otherTeamId);
+    // From the other side: the outsider is not a member of our team at all.
+    const o = await outsider.get(`${R()}/compare?a=${ours.shotId}&b=${theirs.shotId}`);
+    expect(o.status).toBe(404);
+    expect(o.text).not.toContain("Ours");
+    const same = await coach.get(`${R()}/compare?a=${ours.shotId}&b=${ours.shotId}`);
+    expect(same.status).toBe(422);
+    expect(same.json.detail).toMatch(/two different shots/);
+  });
+
+  it("a shot with no results yet still compares, saying what it is missing", async () => {
+    const a = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player) });
+    const b = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), uncalibrated: true });
+    const r = await player.get(`${R()}/compare?a=${a.shotId}&b=${b.shotId}`);
+    expect(r.status).toBe(200);
+    expect(r.json.b.results).toBeNull();
+    expect(r.json.b.missing).toMatch(/calibration/);
+  });
+});
+
+describe("progress", () => {
+  it("best and typical (median) over the player's sessions, filtered by stick and shot type", async () => {
+    const { db } = await import("../../server/db/client");
+    const { member, stick } = await import("../../server/db/schema");
+    const { auth } = await import("../../server/auth/auth");
+    // A player of our own, so other tests' shots do not count here.
+    const signUp = await auth().api.signUpEmail({ body: { email: "progress@ravens.example", password: "ravens-demo-2026", name: "Pat Progress" } });
+    const pid = signUp.user.id;
+    await db().insert(member).values({ id: crypto.randomUUID(), organizationId: world.teamId, userId: pid, role: "player", createdAt: new Date() });
+    const pat = await new Client(srv.url).signIn("progress@ravens.example");
+    const [st] = await db().insert(stick).values({ teamId: world.teamId, label: "Prog 85", ratedFlex: 85 }).returning();
+    const speeds = [20, 26, 23];
+    const made = [];
+    for (const [i, v] of speeds.entries())
+      made.push(await insertShotWithResults({ teamId: world.teamId, playerId: pid, sessionDate: `2026-0${i + 1}-15`, stickId: i === 2 ? st.id : null, scene: { exitSpeedMps: v, seed: `p${i}` } }));
+    await insertShotWithResults({ teamId: world.teamId, playerId: pid, uncalibrated: true, shotType: "wrist" });
+
+    const r = await coach.get(`${R()}/progress?playerId=${pid}`);
+    expect(r.status, r.text).toBe(200);
+    const got = made.map((m) => m.results!.puckExitSpeed.valueMps);
+    expect(r.json.points.map((p: { values: { puckExitSpeed: { value: number } } }) => p.values.puckExitSpeed.value)).toEqual(got); // in date order
+    const sorted = [...got].sort((x, y) => x - y);
+    expect(r.json.summary.puckExitSpeed).toMatchObject({ count: 3, best: sorted[2], typical: sorted[1], bestShotId: made[1].shotId, firstSession: got[0], lastSession: got[2] });
+    // [CP] the scenes' known exit speeds, to 2 %: best is the 26 m/s shot.
+    expect(Math.abs(r.json.summary.puckExitSpeed.best - 26) / 26).toBeLessThan(0.02);
+    // Contact time: best is the shortest (all three scenes share 30 ms).
+    expect(r.json.summary.contactTime.best).toBeCloseTo(30, 6);
+    expect(r.json.withoutResults).toBe(1);
+    expect(r.json.sticks).toEqual([{ id: st.id, label: "Prog 85" }]);
+    expect(r.json.shotTypes.sort()).toEqual(["slap", "wrist"]);
+
+    const byStick = (await coach.get(`${R()}/progress?playerId=${pid}&stickId=${st.id}`)).json;
+    expect(byStick.points.map((p: { shotId: string }) => p.shotId)).toEqual([made[2].shotId]);
+    const wrist = (await coach.get(`${R()}/progress?playerId=${pid}&shotType=wrist`)).json;
+    expect(wrist.points).toEqual([]);
+    expect(wrist.withoutResults).toBe(1);
+
+    // The player sees only themself; without a playerId they get their own.
+    const self = await pat.get(`${R()}/progress`);
+    expect(self.status).toBe(200);
+    expect(self.json.player).toEqual({ id: pid, name: "Pat Progress" });
+    const nosy = await pat.get(`${R()}/progress?playerId=${uid(EMAILS.player)}`);
+    expect(nosy.status).toBe(403);
+    expect(nosy.json.detail).toMatch(/own progress only/);
+    expect((await coach.get(`${R()}/progress?playerId=not-a-member`)).status).toBe(404);
+  });
+
+  it("players to pick: staff get the team's players, a player only themself", async () => {
+    const staff = (await coach.get(`${R()}/players`)).json.players.map((p: { name: string }) => p.name);
+    expect(staff).toEqual(expect.arrayContaining(["Theo Marchetti", "Jonah Okafor", "Elin Sandberg"]));
+    expect(staff).not.toContain("Casey Outsider");
+    const self = (await player2.get(`${R()}/players`)).json.players;
+    expect(self.map((p: { id: string }) => p.id)).toEqual([uid(EMAILS.player2)]);
+  });
+});
