@@ -15,7 +15,7 @@ die() { printf '\033[1;31m✗ %s\033[0m\n' "$*" >&2; exit 1; }
 ensure_debs() {
   local missing=() bin pkg
   while [ $# -gt 0 ]; do bin=$1 pkg=$2; shift 2
-    command -v "$bin" >/dev/null 2>&1 || [ -x "$bin" ] || missing+=("$pkg")
+    command -v "$bin" >/dev/null 2>&1 || [ -e "$bin" ] || missing+=("$pkg")
   done
   [ ${#missing[@]} -eq 0 ] && return 0
   say "Installing Debian packages: ${missing[*]}"
