@@ -130,6 +130,7 @@ export function BeamDiagrams({ input, result, system, axisFrom, supportNames, lo
   }, []);
   const PLOT_W = W - LEFT - RIGHT;
   const xOf = (mm: number) => LEFT + (mm / input.lengthMm) * PLOT_W;
+  const posDigits = system === "imperial" ? 1 : 0;
   const len = (mm: number, digits?: number) => fmt("length", mm, system, digits);
   const lengthUnit = toDisplay("length", 0, system).unit;
   const forceUnit = toDisplay("force", 0, system).unit;
@@ -160,7 +161,7 @@ export function BeamDiagrams({ input, result, system, axisFrom, supportNames, lo
       height={height}
       className="block max-w-full touch-none select-none"
       role="img"
-      aria-label={`Beam model: largest bending moment ${fmt("moment", Math.abs(result.maxMoment.valueNm), system)} at ${len(result.maxMoment.xMm, 0)} ${axisFrom}`}
+      aria-label={`Beam model: largest bending moment ${fmt("moment", Math.abs(result.maxMoment.valueNm), system)} at ${len(result.maxMoment.xMm, posDigits)} ${axisFrom}`}
       onPointerMove={onMove}
       onPointerLeave={() => setHoverMm(null)}
       fontFamily="inherit"
@@ -175,7 +176,7 @@ export function BeamDiagrams({ input, result, system, axisFrom, supportNames, lo
 
       <Panel top={tops.shear} height={H.shear} title={`Shear force (${forceUnit})`} stations={result.stations} value={(s) => s.shearN} show={(v) => toDisplay("force", v, system).value} color={chartColors.shear} xOf={xOf} width={W} />
       <Panel top={tops.moment} height={H.moment} title={`Bending moment (${momentUnit})`} stations={result.stations} value={(s) => s.momentNm} show={(v) => toDisplay("moment", v, system).value} color={chartColors.moment} xOf={xOf} width={W}
-        note={`● Largest ${fmt("moment", Math.abs(result.maxMoment.valueNm), system)} at ${len(result.maxMoment.xMm, 0)}: predicted break point`}
+        note={`● Largest ${fmt("moment", Math.abs(result.maxMoment.valueNm), system)} at ${len(result.maxMoment.xMm, posDigits)}: predicted break point`}
       >
         {(yOf) => {
           const y = yOf(result.maxMoment.valueNm);
@@ -213,7 +214,7 @@ export function BeamDiagrams({ input, result, system, axisFrom, supportNames, lo
         <g pointerEvents="none">
           <line x1={xOf(hover.xMm)} x2={xOf(hover.xMm)} y1={tops.shear} y2={tops.axis} stroke={chartColors.ink} strokeOpacity={0.35} />
           <text x={LEFT} y={14} fontSize={12} fill={chartColors.ink}>
-            at {len(hover.xMm, 0)}: shear {fmt("force", hover.shearRightN, system)} · moment {fmt("moment", hover.momentNm, system)}
+            at {len(hover.xMm, posDigits)}: shear {fmt("force", hover.shearRightN, system)} · moment {fmt("moment", hover.momentNm, system)}
             {hover.deflectionMm !== undefined ? ` · deflection ${len(hover.deflectionMm)}` : ""}
           </text>
         </g>

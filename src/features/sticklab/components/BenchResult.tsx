@@ -31,7 +31,7 @@ function Stat({ label, children, hint }: { label: string; children: ReactNode; h
 export function BenchResult({ fit, readings, units, alertPercent, compact = false }: Props) {
   const below = fit.percentOfRated !== null && fit.percentOfRated < alertPercent;
   const spanNote =
-    fit.spanMm === fit.referenceSpanMm && fit.loadPointMm === fit.spanMm / 2
+    Math.abs(fit.spanMm - fit.referenceSpanMm) < 0.5 && Math.abs(fit.loadPointMm - fit.spanMm / 2) < 0.5
       ? `Centre load on a ${formatNumber(fit.spanMm, 0)} mm span: the rating's own test.`
       : `Tested on a ${formatNumber(fit.spanMm, 0)} mm span with the load ${formatNumber(fit.loadPointMm, 0)} mm from a support; converted to the rating's ${formatNumber(fit.referenceSpanMm, 0)} mm centre-load test.`;
   const intercept = units === "imperial" ? `${formatNumber(fit.interceptLbf, 1)} lbf` : `${formatNumber(fit.interceptN, 1)} N`;

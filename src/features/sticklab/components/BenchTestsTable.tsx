@@ -6,7 +6,7 @@ import { formatDay, formatFlex, formatNumber, formatPercent } from "../lib/forma
 
 /** Every bench test of a stick, newest first, each opening its fit. */
 export function BenchTestsTable({ tests, alertPercent, action }: { tests: readonly BenchTestRow[]; alertPercent: number; action?: React.ReactNode }) {
-  const { format } = useUnits();
+  const { format, system } = useUnits();
   return (
     <Card title="Bench tests" description={tests.length === 0 ? undefined : `${tests.length} test${tests.length === 1 ? "" : "s"}, newest first`} actions={action} flush>
       {tests.length === 0 ? (
@@ -37,7 +37,7 @@ export function BenchTestsTable({ tests, alertPercent, action }: { tests: readon
                   <Td className={below ? "text-right font-medium text-warn tabular-nums" : "text-right tabular-nums"}>{formatPercent(t.fit.percentOfRated)}</Td>
                   <Td className="hidden text-right tabular-nums sm:table-cell">{formatNumber(t.fit.r2, 4)}</Td>
                   <Td className="hidden text-ink-muted md:table-cell">
-                    {format("length", t.spanMm, { digits: 0 })}
+                    {format("length", t.spanMm, { digits: system === "imperial" ? 1 : 0 })}
                     {t.loadPointMm !== t.spanMm / 2 && <> · off-centre</>}
                   </Td>
                   <Td>{t.fit.flags.length === 0 ? <Badge tone="ok">Straight line</Badge> : <Badge tone="warn">{t.fit.flags.length} to check</Badge>}</Td>

@@ -1,4 +1,4 @@
-import { Bar, CartesianGrid, ComposedChart, Label, Legend, Line, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import { CartesianGrid, ComposedChart, Label, Legend, Line, ReferenceArea, ReferenceLine, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
 import type { BenchTestRow } from "@shared/schemas/sticks";
 import { axisTick, chartColors } from "../lib/chart-colors";
 import { formatDay, formatFlex, formatRated } from "../lib/format";
@@ -25,6 +25,10 @@ export function HistoryChart({ tests, shotsByDate, ratedFlex, alertPercent, heig
   const times = [...flex, ...shots].map((p) => p.t);
   const pad = 4 * 86_400_000;
   const maxShots = Math.max(1, ...shots.map((s) => s.shots));
+  // Ticks on the test days (thinned to about eight), so each dot has its date under it.
+  const testDays = [...new Set(flex.map((f) => f.t))];
+  const every = Math.ceil(testDays.length / 8);
+  const ticks = (testDays.length ? testDays : times).filter((_, i, all) => i % every === 0 || i === all.length - 1);
   return (
     <div style={{ height }} role="img" aria-label={`Measured flex over ${tests.length} bench tests${ratedFlex ? `, rated ${ratedFlex}` : ""}`}>
       <ResponsiveContainer width="100%" height="100%">
@@ -34,6 +38,7 @@ export function HistoryChart({ tests, shotsByDate, ratedFlex, alertPercent, heig
             type="number"
             dataKey="t"
             scale="time"
+            ticks={ticks}
             domain={[Math.min(...times) - pad, Math.max(...times) + pad]}
             tick={axisTick}
             tickFormatter={(t: number) => shortDate.format(new Date(t))}
@@ -59,7 +64,11 @@ export function HistoryChart({ tests, shotsByDate, ratedFlex, alertPercent, heig
               <Label value={`Alert: ${alertPercent} % of rated = ${formatFlex(alertFlex)} flex`} position="insideBottomLeft" fill={chartColors.warn} fontSize={12} />
             </ReferenceLine>
           )}
-          {shots.length > 0 && <Bar yAxisId="shots" data={shots} dataKey="shots" name="Shots taken" fill={chartColors.gold} barSize={8} isAnimationActive={false} />}
+          {/* Shots per day as stems from the floor (a bar series would turn the time axis into categories). */}
+          {shots.map((s) => (
+            <ReferenceLine key={s.t} yAxisId="shots" segment={[{ x: s.t, y: 0 }, { x: s.t, y: s.shots }]} stroke={chartColors.gold} strokeWidth={5} />
+          ))}
+          {shots.length > 0 && <Scatter yAxisId="shots" data={shots} dataKey="shots" name="Shots taken" fill={chartColors.gold} shape="diamond" isAnimationActive={false} />}
           <Line
             yAxisId="flex"
             data={flex}

@@ -254,12 +254,14 @@ function solveManual(input: BeamInput): { input: BeamInput; result: BeamResult }
 type Format = ReturnType<typeof useUnits>["format"];
 
 function BreakPointSummary({ result, axisFrom, format }: { result: BeamResult; axisFrom: string; format: Format }) {
+  const { system } = useUnits();
+  const pos = system === "imperial" ? 1 : 0;
   return (
     <dl className="grid grid-cols-2 gap-x-6 gap-y-3 rounded-lg bg-sunken/60 px-4 py-3 sm:grid-cols-4">
       <div className="col-span-2">
         <dt className="text-xs font-medium tracking-wide text-danger uppercase">Predicted break point</dt>
         <dd className="text-lg font-semibold text-ink tabular-nums" data-testid="break-point-summary">
-          {format("length", result.maxMoment.xMm, { digits: 0 })} {axisFrom}
+          {format("length", result.maxMoment.xMm, { digits: pos })} {axisFrom}
         </dd>
         <dd className="text-sm text-ink-muted">where the bending moment is largest: {format("moment", Math.abs(result.maxMoment.valueNm))}</dd>
       </div>
@@ -272,7 +274,7 @@ function BreakPointSummary({ result, axisFrom, format }: { result: BeamResult; a
       <div>
         <dt className="text-xs font-medium tracking-wide text-ink-muted uppercase">Largest bend</dt>
         <dd className="text-sm font-medium text-ink tabular-nums">
-          {result.maxDeflectionMm !== undefined ? `${format("length", Math.abs(result.maxDeflectionMm))} at ${format("length", result.maxDeflectionXMm!, { digits: 0 })}` : "needs EI"}
+          {result.maxDeflectionMm !== undefined ? `${format("length", Math.abs(result.maxDeflectionMm))} at ${format("length", result.maxDeflectionXMm!, { digits: pos })}` : "needs EI"}
         </dd>
       </div>
     </dl>

@@ -33,14 +33,16 @@ function BenchTestForm({ teamId, stickId, detail }: { teamId: string; stickId: s
   const lengthDigits = system === "imperial" ? 2 : 0;
   const [mode, setMode] = useState<Mode>("table");
   const [date, setDate] = useState(todayIso());
-  const [span, setSpan] = useState(formatNumber(lengthFromMm(system, DEFAULT_BENCH_SPAN_MM), lengthDigits).replace(/,/g, ""));
+  const defaultSpan = formatNumber(lengthFromMm(system, DEFAULT_BENCH_SPAN_MM), lengthDigits).replace(/,/g, "");
+  const [span, setSpan] = useState(defaultSpan);
   const [loadPoint, setLoadPoint] = useState("");
   const [units, setUnits] = useState<BenchUnits>(benchUnitsFor(system));
   const [rows, setRows] = useState<ReadingRow[]>(blankRows(4));
   const [csv, setCsv] = useState<{ file: File; parsed: ParsedReadings | null; error: string | null } | null>(null);
   const [serverError, setServerError] = useState<string | null>(null);
 
-  const spanMm = lengthToMm(system, Number(span));
+  // The default stays exactly 1,000 mm: 39.37 in read back would be 999.998 mm.
+  const spanMm = span === defaultSpan ? DEFAULT_BENCH_SPAN_MM : lengthToMm(system, Number(span));
   const loadPointMm = loadPoint.trim() === "" ? undefined : lengthToMm(system, Number(loadPoint));
   const geometryProblem =
     !(spanMm > 0) ? "Enter the distance between the supports." : loadPointMm !== undefined && !(loadPointMm > 0 && loadPointMm < spanMm) ? "The load point must lie between the supports." : null;

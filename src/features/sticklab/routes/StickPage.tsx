@@ -20,7 +20,8 @@ export function Component() {
 
 function StickView({ teamId, teamName, detail }: { teamId: string; teamName: string; detail: StickDetail }) {
   const { stick, benchTests, flexAlertPercent: alert } = detail;
-  const { format } = useUnits();
+  const { format, system } = useUnits();
+  const lengthDigits = system === "imperial" ? 1 : 0;
   const [editing, setEditing] = useState(false);
   const [removing, setRemoving] = useState(false);
   const navigate = useNavigate();
@@ -30,7 +31,7 @@ function StickView({ teamId, teamName, detail }: { teamId: string; teamName: str
   const first = benchTests[0];
   const shotsTotal = detail.shotsByDate.reduce((n, d) => n + d.count, 0);
 
-  const summary = [stick.owner?.name ?? "Team stick", stick.ratedFlex !== null ? `rated ${formatRated(stick.ratedFlex)} flex` : "no rating", stick.lengthMm ? format("length", stick.lengthMm, { digits: 0 }) : null]
+  const summary = [stick.owner?.name ?? "Team stick", stick.ratedFlex !== null ? `rated ${formatRated(stick.ratedFlex)} flex` : "no rating", stick.lengthMm ? format("length", stick.lengthMm, { digits: lengthDigits }) : null]
     .filter(Boolean)
     .join(" · ");
 
@@ -68,7 +69,7 @@ function StickView({ teamId, teamName, detail }: { teamId: string; teamName: str
             title="Stiffness history"
             description={
               benchTests.length > 0
-                ? `Measured flex at each bench test${stick.ratedFlex ? ", against the rating and the team's alert line" : ""}${shotsTotal ? `; bars: shots taken with it (${shotsTotal} in all)` : ""}.`
+                ? `Measured flex at each bench test${stick.ratedFlex ? ", against the rating and the team's alert line" : ""}${shotsTotal ? `; gold: shots taken with it each day (${shotsTotal} in all)` : ""}.`
                 : undefined
             }
           >
@@ -85,7 +86,7 @@ function StickView({ teamId, teamName, detail }: { teamId: string; teamName: str
             <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-2 text-sm">
               <Detail label="Owner">{stick.owner?.name ?? "Team stick"}</Detail>
               <Detail label="Rated flex">{formatRated(stick.ratedFlex)}</Detail>
-              <Detail label="Length">{stick.lengthMm ? format("length", stick.lengthMm, { digits: 0 }) : "—"}</Detail>
+              <Detail label="Length">{stick.lengthMm ? format("length", stick.lengthMm, { digits: lengthDigits }) : "—"}</Detail>
               <Detail label="Blade curve">{stick.bladeCurve || "—"}</Detail>
               <Detail label="Lie">{stick.lie || "—"}</Detail>
               <Detail label="First used">{formatDay(stick.firstUseDate)}</Detail>
