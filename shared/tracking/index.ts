@@ -4,5 +4,5 @@ export * from "./errors";
 export { track, type TrackDeps } from "./track";
 export { DEFAULTS as TRACK_DEFAULTS } from "./validate";
 export { createCvMatcher, type Matcher, type Rect, type ScoreMap } from "./matcher";
-export { loadOpenCv, type OpenCv } from "./opencv";
+export { loadOpenCv, provideOpenCv, type OpenCv } from "./opencv";
 export { findPeak, type Peak } from "./peak";

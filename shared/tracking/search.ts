@@ -1,10 +1,10 @@
-// One frame's search: the template at the predicted angle, placed around the predicted position;
-// the search widens when the best match sits on the window's edge, and the angle is stepped while
-// a turned template matches better.
+// One frame's search: the template at the predicted angle, placed around the predicted position
+// (the window widens when the best match sits on its edge); then, for a reference that can turn,
+// turned templates are tried in a small window around that match while they score better.
 import type { Matcher } from "./matcher";
 import { findPeak, type Peak } from "./peak";
-import { templateAt, type Reference } from "./reference";
 import { refinePlacement } from "./refine";
+import { templateAt, type Reference } from "./reference";
 import { planSearch, type SearchPlan } from "./template";
 import type { GrayFrame } from "./types";
 
@@ -12,6 +12,8 @@ import type { GrayFrame } from "./types";
 export const TURN_STEP = 0.03;
 /** Steps tried beyond the first neighbour on the better side. */
 const TURN_WALK = 3;
+/** Radius of the window around the first match in which turned templates are placed. */
+const TURN_RADIUS = 3;
 /** Search widenings (radius doubled) tried when the best match sits on the window's edge. */
 const WIDENINGS = 2;
 
@@ -25,7 +27,11 @@ export interface SearchContext {
 export interface FrameMatch {
   x: number;
   y: number;
-  peak: Peak;
+  /** Best NCC score, and the strongest rival in the search window. */
+  score: number;
+  sideLobe: number | null;
+  /** The best match of the search window sat on its edge: the true one may lie outside. */
+  onBorder: boolean;
   /** Refined angle of the landmark relative to the reference. */
   angle: number;
   /** The template had to be cut short at the frame edge. */
@@ -46,27 +52,38 @@ export function searchFrame(
   startRadius: number,
   ctx: SearchContext,
 ): FrameMatch | null {
-  let radius = startRadius;
-  const attempt = (angle: number): Attempt | null => {
+  let reach = false;
+  const attempt = (angle: number, around: { x: number; y: number }, radius: number): Attempt | null => {
     const tpl = templateAt(ref, angle, ctx.matcher);
-    const plan = planSearch(frame, tpl, predicted, radius, ctx.minSize);
+    const plan = planSearch(frame, tpl, around, radius, ctx.minSize, reach);
     if (!plan) return null;
     return { plan, peak: findPeak(ctx.matcher.match(frame, plan.window, plan.template), ctx.exclusion), cropped: plan.template !== tpl.patch };
   };
-  let centre = attempt(predictedAngle);
+
+  let radius = startRadius;
+  let centre = attempt(predictedAngle, predicted, radius);
   if (!centre) return null;
+  if (centre.peak.onBorder) {
+    // Perhaps the frame edge cut the placements short: crop the template to reach the edge.
+    reach = true;
+    const reaching = attempt(predictedAngle, predicted, radius);
+    if (reaching) centre = reaching;
+    else reach = false;
+  }
   for (let w = 0; w < WIDENINGS && centre.peak.onBorder; w++) {
     radius *= 2;
-    const wider = attempt(predictedAngle);
+    const wider = attempt(predictedAngle, predicted, radius);
     if (!wider) break;
     centre = wider;
   }
-  if (!ref.source) return refined(frame, centre, centre.plan.template, 0);
+  const found = landmark(centre, centre.plan.window.x + centre.peak.x, centre.plan.window.y + centre.peak.y);
+  const base = { score: centre.peak.score, sideLobe: centre.peak.sideLobe, onBorder: centre.peak.onBorder, cropped: centre.cropped };
+  if (!ref.source || centre.peak.onBorder) return { ...base, ...refined(frame, centre, centre.plan.template), angle: predictedAngle };
 
   // Steps k·TURN_STEP around the predicted angle; walk towards the better neighbour while it improves.
   const tried = new Map<number, Attempt | null>([[0, centre]]);
   const at = (k: number) => {
-    if (!tried.has(k)) tried.set(k, attempt(predictedAngle + k * TURN_STEP));
+    if (!tried.has(k)) tried.set(k, attempt(predictedAngle + k * TURN_STEP, found, TURN_RADIUS));
     return tried.get(k)!;
   };
   const score = (k: number) => at(k)?.peak.score ?? -Infinity;
@@ -80,15 +97,19 @@ export function searchFrame(
   const angle = predictedAngle + (best + offset) * TURN_STEP;
   // Refined against the template at the refined angle, cropped the same way as the one matched.
   const turned = templateAt(ref, angle, ctx.matcher);
-  const replan = planSearch(frame, turned, predicted, radius, ctx.minSize);
-  const template = replan && replan.template.width === chosen.plan.template.width && replan.template.height === chosen.plan.template.height ? replan.template : chosen.plan.template;
-  return refined(frame, chosen, template, angle);
+  const replan = planSearch(frame, turned, found, TURN_RADIUS, ctx.minSize, reach);
+  const same = replan && replan.template.width === chosen.plan.template.width && replan.template.height === chosen.plan.template.height;
+  return { ...base, score: Math.max(base.score, chosen.peak.score), ...refined(frame, chosen, same ? replan.template : chosen.plan.template), angle };
 }
 
-/** The placement refined to sub-pixel (falling back to the score-map fit), as the landmark position. */
-function refined(frame: GrayFrame, a: Attempt, template: GrayFrame, angle: number): FrameMatch {
+function landmark(a: Attempt, ox: number, oy: number) {
+  return { x: ox + a.plan.ax, y: oy + a.plan.ay };
+}
+
+/** The landmark at the placement refined to sub-pixel (falling back to the score-map fit). */
+function refined(frame: GrayFrame, a: Attempt, template: GrayFrame): { x: number; y: number } {
   const ox = a.plan.window.x + a.peak.x;
   const oy = a.plan.window.y + a.peak.y;
   const r = a.peak.onBorder ? null : refinePlacement(frame, template, ox, oy);
-  return { x: (r?.x ?? ox) + a.plan.ax, y: (r?.y ?? oy) + a.plan.ay, peak: a.peak, angle, cropped: a.cropped };
+  return landmark(a, r?.x ?? ox, r?.y ?? oy);
 }

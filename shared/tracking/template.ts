@@ -49,15 +49,16 @@ interface AxisPlan {
 
 /**
  * One axis of the search: template placements from floor(q − r) to ceil(q + r), q being the
- * predicted top-left. The template is cropped only by what would leave the frame at the predicted
- * placement itself; the placements are then limited to those that keep the (cropped) template inside.
+ * predicted top-left. The template is cropped by what would leave the frame at the predicted
+ * placement (or, with `reach`, at the farthest placements, to follow a landmark right up to the
+ * edge); the placements are then limited to those that keep the cropped template inside.
  */
-function planAxis(frameLength: number, tplLength: number, anchor: number, predicted: number, radius: number, minSize: number): AxisPlan | null {
+function planAxis(frameLength: number, tplLength: number, anchor: number, predicted: number, radius: number, minSize: number, reach: boolean): AxisPlan | null {
   if (!(predicted >= 0 && predicted < frameLength)) return null;
   const q = predicted - anchor;
   const qr = Math.round(q);
-  const cropStart = Math.max(0, -qr);
-  const cropEnd = Math.max(0, qr + tplLength - frameLength);
+  const cropStart = Math.max(0, -(reach ? Math.floor(q - radius) : qr));
+  const cropEnd = Math.max(0, (reach ? Math.ceil(q + radius) : qr) + tplLength - frameLength);
   const cropLength = tplLength - cropStart - cropEnd;
   const a = anchor - cropStart;
   if (cropLength < minSize || a < 0 || a > cropLength) return null;
@@ -73,9 +74,10 @@ export function planSearch(
   predicted: { x: number; y: number },
   radius: number,
   minSize: number,
+  reach = false,
 ): SearchPlan | null {
-  const px = planAxis(frame.width, tpl.patch.width, tpl.ax, predicted.x, radius, minSize);
-  const py = planAxis(frame.height, tpl.patch.height, tpl.ay, predicted.y, radius, minSize);
+  const px = planAxis(frame.width, tpl.patch.width, tpl.ax, predicted.x, radius, minSize, reach);
+  const py = planAxis(frame.height, tpl.patch.height, tpl.ay, predicted.y, radius, minSize, reach);
   if (!px || !py) return null;
   const cropped = px.cropLength !== tpl.patch.width || py.cropLength !== tpl.patch.height;
   const template = cropped

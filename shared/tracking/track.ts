@@ -66,7 +66,7 @@ export async function track(request: TrackRequest, onProgress?: (p: TrackProgres
       const m = searchFrame(frame, ref, predicted, angle + spin * direction, radius, ctx);
       if (!m) return stop("left-frame", index, null, `the landmark reaches the frame edge at frame ${index}`);
       const atEdge = m.cropped || nearEdge(predicted, frame, size / 2);
-      const { score, sideLobe, onBorder } = m.peak;
+      const { score, sideLobe, onBorder } = m;
       if (!(score >= threshold)) {
         const why = `confidence ${fmt(score)} below ${fmt(threshold)} at frame ${index}`;
         const s = Number.isFinite(score) ? score : null;

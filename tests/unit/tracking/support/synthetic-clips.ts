@@ -1,11 +1,12 @@
 // Clips with a known trajectory, rendered by the system ffmpeg from lavfi sources. The truth of
 // every test that uses them is the generator's own formula: each shape's position is written once
 // as an ffmpeg expression and once in TypeScript, both as functions of the frame time t = n / fps
-// (ffmpeg's own T/t), and the selfCheck in clips.test.ts confirms the two agree on noise-free renders.
+// (ffmpeg's own T/t); clips.test.ts checks on noise-free renders that the two agree.
 //
 // A disc is drawn sub-pixel exactly: geq paints it into a small sprite at the fractional part of
 // its position and overlay places the sprite at the whole part (geq over a whole frame is ~20×
-// slower). Edges are anti-aliased by pixel coverage, clip(r + 0.5 − distance, 0, 1).
+// slower). Its edge is anti-aliased by pixel coverage, clip(r + 0.5 − distance, 0, 1). A bar is a
+// drawbox turned by the rotate filter (bilinear) about the centre of its canvas.
 import { execa } from "execa";
 import type { FrameSource, GrayFrame } from "../../../../shared/tracking/types";
 

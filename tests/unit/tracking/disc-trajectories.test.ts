@@ -1,0 +1,41 @@
+// A disc (the puck) tracked over 500 noisy frames against its known trajectory.
+// Source of truth: the generator's own formula (support/synthetic-clips.ts, checked in clips.test.ts).
+import { describe, expect, it } from "vitest";
+import { arcClip, lineClip } from "./support/scenarios";
+import { trackClip } from "./support/track-clip";
+
+describe.each([240, 1000])("a disc at %i fps with noise, over 500 frames", (fps) => {
+  it.each([
+    ["on a straight line", lineClip],
+    ["on an arc", arcClip],
+  ])("%s: mean error under 1 px and no drift", async (_, clip) => {
+    const { result, stats } = await trackClip(clip(fps));
+    expect(result.stop.reason).toBe("end-of-range");
+    expect(stats.count).toBe(499);
+    expect(stats.mean).toBeLessThan(1);
+    // No drift: the last 50 frames are as good as the whole run, and no frame strays.
+    expect(stats.tailMean).toBeLessThan(1);
+    expect(stats.max).toBeLessThan(2);
+  });
+});
+
+describe("a disc on an arc at 240 fps", () => {
+  it("is tracked backwards from the last frame as well as forwards", async () => {
+    const { result, stats } = await trackClip(arcClip(240), { direction: -1 });
+    expect(result.stop.reason).toBe("end-of-range");
+    expect(result.proposals.slice(0, 3).map((p) => p.frame)).toEqual([498, 497, 496]);
+    expect(stats.mean).toBeLessThan(1);
+  });
+
+  it("is tracked as well without the turning search (what a puck needs)", async () => {
+    const { stats } = await trackClip(arcClip(240), { turning: false });
+    expect(stats.mean).toBeLessThan(1);
+    expect(stats.tailMean).toBeLessThan(1);
+  });
+
+  it("stops after maxFrames proposals", async () => {
+    const { result } = await trackClip(arcClip(240), { maxFrames: 25 });
+    expect(result.proposals.map((p) => p.frame)).toEqual(Array.from({ length: 25 }, (_, i) => i + 1));
+    expect(result.stop).toMatchObject({ reason: "end-of-range", frame: null });
+  });
+});
