@@ -1,8 +1,8 @@
 // Frame extraction: every decoded frame written once, as an image named by its index, plus a
 // preview strip, in one ffmpeg run. Frames are announced as soon as their file is complete
 // (ffmpeg writes each to a temp name and renames it), so marking can start before the end.
-import { watch, type FSWatcher } from "node:fs";
-import { access, mkdir, readdir } from "node:fs/promises";
+import { existsSync, watch, type FSWatcher } from "node:fs";
+import { mkdir, readdir } from "node:fs/promises";
 import path from "node:path";
 import { buildFfmpegArgs, buildFfprobeArgs, type FfmpegSpec } from "./command";
 import { FfmpegError } from "./errors";
@@ -116,12 +116,6 @@ export function buildExtractSpec(s: ExtractSpecInput): FfmpegSpec {
   };
 }
 
-const exists = (p: string) =>
-  access(p).then(
-    () => true,
-    () => false,
-  );
-
 export async function extractFrames(config: MediaConfig, o: ExtractOptions): Promise<ExtractResult> {
   const started = Date.now();
   const format = o.format ?? "jpg";
@@ -153,7 +147,8 @@ export async function extractFrames(config: MediaConfig, o: ExtractOptions): Pro
     try {
       do {
         rescan = false;
-        while (await exists(path.join(framesDir, frameFileName(next, format)))) {
+        // existsSync: a failed async access() builds an Error per call, which costs more here.
+        while (existsSync(path.join(framesDir, frameFileName(next, format)))) {
           const index = next++;
           beat();
           firstFrameMs ??= Date.now() - started;
@@ -179,7 +174,10 @@ export async function extractFrames(config: MediaConfig, o: ExtractOptions): Pro
   // own progress cannot: with the strip as a second output it reports nothing until the end.
   let watcher: FSWatcher | undefined;
   try {
-    watcher = watch(framesDir, () => void scan());
+    // Only finished files: ffmpeg writes each frame as <name>.tmp and renames it when complete.
+    watcher = watch(framesDir, (event, name) => {
+      if (event === "rename" && !String(name ?? "").endsWith(".tmp")) void scan();
+    });
   } catch {
     // polling only
   }
@@ -256,7 +254,7 @@ export async function extractFrames(config: MediaConfig, o: ExtractOptions): Pro
     frameTimes,
     timestampSource,
     framesDir,
-    stripPath: stripPath && (await exists(stripPath)) ? stripPath : null,
+    stripPath: stripPath && existsSync(stripPath) ? stripPath : null,
     format,
     elapsedMs: Date.now() - started,
     firstFrameMs,

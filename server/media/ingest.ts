@@ -5,6 +5,7 @@ import { createWriteStream } from "node:fs";
 import path from "node:path";
 import { pipeline } from "node:stream/promises";
 import { clipKeys, frameIndexOf, StorageError, type Storage } from "../storage";
+import { FfmpegError } from "./errors";
 import { extractFrames, type ExtractOptions, type ExtractProgress, type FrameFormat } from "./extract";
 import { withJobDir, type MediaConfig } from "./ffmpeg";
 
@@ -15,7 +16,7 @@ export interface ExtractClipOptions
   onProgress?: (p: ExtractProgress) => void;
   /** Least time between two onProgress calls; the last one always comes. Default 250 ms. */
   progressIntervalMs?: number;
-  /** Frames put to storage at the same time. Default 1 on local disk (a rename), 8 otherwise. */
+  /** Frames put to storage at the same time. Default 4 on local disk (renames), 8 otherwise. */
   uploadConcurrency?: number;
 }
 
@@ -29,6 +30,9 @@ export interface ExtractClipResult {
   staleFramesRemoved: number;
   /** From the call to frame 1 being in storage (viewable). */
   firstFrameMs: number | null;
+  /** Until ffmpeg and the timestamp listing were done. */
+  extractMs: number;
+  /** Until every frame and the strip were stored. */
   elapsedMs: number;
 }
 
@@ -63,13 +67,19 @@ export async function extractClipFrames(
     };
 
     // Puts run a few at a time; progress counts only frames stored without a gap from frame 1.
-    const concurrency = o.uploadConcurrency ?? (storage.kind === "local" ? 1 : 8);
+    const concurrency = o.uploadConcurrency ?? (storage.kind === "local" ? 4 : 8);
     const inflight = new Set<Promise<void>>();
     const stored = new Set<number>();
     let contiguous = 0;
     let firstFrameMs: number | null = null;
     let putError: unknown;
     const drain = () => Promise.allSettled([...inflight]);
+    // Stop storing as soon as the job is cancelled (clip deleted), also when ffmpeg has finished.
+    const checkAbort = () => {
+      if (o.signal?.aborted) {
+        throw new FfmpegError("aborted", "frame extraction was cancelled", { command: "", stderrTail: "", durationMs: Date.now() - started });
+      }
+    };
 
     try {
       const result = await extractFrames(deps.media, {
@@ -85,6 +95,7 @@ export async function extractClipFrames(
         onFrameReady: async (index, file) => {
           while (inflight.size >= concurrency) await Promise.race(inflight);
           if (putError) throw putError;
+          checkAbort();
           const put = storage
             .putFile(clipKeys.frame(o.clipId, index, format), file, { move: true, contentType: contentTypes[format] })
             .then(() => {
@@ -102,6 +113,7 @@ export async function extractClipFrames(
       });
       await drain();
       if (putError) throw putError;
+      checkAbort();
 
       let stripKey: string | null = null;
       if (result.stripPath) {
@@ -124,6 +136,7 @@ export async function extractClipFrames(
         stripKey,
         staleFramesRemoved: stale.length,
         firstFrameMs,
+        extractMs: result.elapsedMs,
         elapsedMs: Date.now() - started,
       };
     } catch (err) {
