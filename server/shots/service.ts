@@ -3,9 +3,8 @@ import { recordAudit } from "../audit/repository";
 import { forbidden, HttpError, notFound } from "../http/problem";
 import { checkCalibration } from "../../shared/mechanics/calibration";
 import {
-  calibrationFrameProblem, EVENTS, LANDMARKS, marksProblem,
-  type ClipCalibration, type CreateShotBody, type FrameBox, type SaveMarksBody, type SaveMarksResponse, type ShotDetail, type ShotEventsDraft,
-  type ShotMarks, type ShotSummary, type UpdateShotBody,
+  calibrationFrameProblem, canonicalMarks as canonical, LANDMARKS, marksProblem,
+  type ClipCalibration, type ClipShots, type CreateShotBody, type DigitiseClip, type FrameBox, type SaveMarksBody, type SaveMarksResponse, type ShotDetail, type ShotSummary, type UpdateShotBody,
 } from "../../shared/schemas/shots";
 import { VersionConflictError } from "./conflict";
 import * as repo from "./repository";
@@ -48,18 +47,6 @@ function boxOf(c: repo.ClipRow, s: { frameStart: number; frameEnd: number | null
   return { width: c.width ?? 0, height: c.height ?? 0, frameStart: s.frameStart, frameEnd: s.frameEnd ?? c.frameCount ?? s.frameStart };
 }
 
-/** Sorted by frame, empty tracks dropped, events in a fixed order: the same edits give the same text. */
-export function canonical(marks: ShotMarks, events: ShotEventsDraft) {
-  const m: ShotMarks = {};
-  for (const k of LANDMARKS) {
-    const t = marks[k];
-    if (t?.length) m[k] = [...t].sort((p, q) => p[0] - q[0]);
-  }
-  const e: ShotEventsDraft = {};
-  for (const k of EVENTS) if (events[k] !== undefined) e[k] = events[k];
-  return { marks: m, events: e, key: JSON.stringify([m, e]) };
-}
-
 function summary(s: repo.ShotRow): ShotSummary {
   const markCounts: ShotSummary["markCounts"] = {};
   for (const k of LANDMARKS) if (s.marks[k]?.length) markCounts[k] = s.marks[k]!.length;
@@ -78,10 +65,7 @@ async function detail(a: Actor, s: repo.ShotRow): Promise<ShotDetail> {
   return {
     ...summary(s),
     marks: s.marks,
-    clip: {
-      id: c.id, title: c.title, status: c.status, captureFps: c.captureFps, frameCount: c.frameCount ?? 0, width: c.width ?? 0, height: c.height ?? 0,
-      frameFormat: c.frameFormat, playerId: c.playerId, calibration: c.calibration,
-    },
+    clip: clipFor(c),
     stick: st ? stickFlex(st) : null,
     storedResult: s.resultEngine
       ? toStoredResult({ engineVersion: s.resultEngine, results: s.results, error: s.resultError, shotVersion: s.resultShotVersion!, computedAt: s.computedAt! })
@@ -90,13 +74,20 @@ async function detail(a: Actor, s: repo.ShotRow): Promise<ShotDetail> {
   };
 }
 
-export async function listShots(a: Actor, clipId: string): Promise<ShotSummary[]> {
+function clipFor(c: repo.ClipRow): DigitiseClip {
+  return {
+    id: c.id, title: c.title, status: c.status, captureFps: c.captureFps, frameCount: c.frameCount ?? 0, width: c.width ?? 0, height: c.height ?? 0,
+    frameFormat: c.frameFormat, playerId: c.playerId, calibration: c.calibration,
+  };
+}
+
+export async function listShots(a: Actor, clipId: string): Promise<ClipShots> {
   const c = await clipOrThrow(a, clipId);
   const rows = await repo.shotsOfClip(a.teamId, clipId);
   const shares = await repo.sharesOf(rows.map((r) => r.id));
   const visible = rows.filter((r) => policy.viewShot(a, { teamId: r.teamId, playerId: r.playerId, sharedWith: shares.get(r.id) ?? [] }));
   if (!visible.length && !policy.viewClip(a, { teamId: c.teamId, playerId: c.playerId })) throw notFound("That clip");
-  return visible.map(summary);
+  return { clip: clipFor(c), shots: visible.map(summary), canEdit: policy.editShot(a, c) };
 }
 
 async function checkPeople(a: Actor, playerId: string | null | undefined, stickId: string | null | undefined) {

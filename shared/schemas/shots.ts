@@ -172,6 +172,18 @@ export function calibrationFrameProblem(c: ClipCalibrationInput, box: { width: n
   return null;
 }
 
+/** Sorted by frame, empty tracks dropped, events in a fixed order: the same edits give the same key. */
+export function canonicalMarks(marks: ShotMarks, events: ShotEventsDraft): { marks: ShotMarks; events: ShotEventsDraft; key: string } {
+  const m: ShotMarks = {};
+  for (const k of LANDMARKS) {
+    const t = marks[k];
+    if (t?.length) m[k] = [...t].sort((p, q) => p[0] - q[0]);
+  }
+  const e: ShotEventsDraft = {};
+  for (const k of EVENTS) if (events[k] !== undefined) e[k] = events[k];
+  return { marks: m, events: e, key: JSON.stringify([m, e]) };
+}
+
 // ---- from a shot to the engine's document ------------------------------------------------------
 
 export interface ShotDocumentParts {
@@ -259,6 +271,13 @@ export interface DigitiseClip {
   frameFormat: string;
   playerId: string | null;
   calibration: ClipCalibration | null;
+}
+
+/** GET /clips/:clipId/shots: the clip, the shots the caller may see, and whether they may add some. */
+export interface ClipShots {
+  clip: DigitiseClip;
+  shots: ShotSummary[];
+  canEdit: boolean;
 }
 
 export interface ShotStickInfo {

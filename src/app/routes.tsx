@@ -19,6 +19,9 @@ export const signedInRoutes: RouteObject[] = [
       </ComingNext>
     ),
   },
+  // Shots of a clip and the Digitise page (src/features/digitise).
+  { path: "clips/:clipId/shots", handle: { title: "Shots" }, lazy: () => import("@/features/digitise/routes/ClipShotsPage") },
+  { path: "clips/:clipId/shots/:shotId/digitise", handle: { title: "Digitise" }, lazy: () => import("@/features/digitise/routes/DigitisePage") },
   {
     path: "sticks",
     handle: { title: "Stick lab" },

@@ -39,7 +39,9 @@ describe("creating shots", () => {
     expect(shot.storedResult.results).toBeNull();
     expect(shot.storedResult.error).toMatch(/calibration.*puck strike.*release.*3 puck marks/);
     const list = await analyst.get(`${T()}/clips/${clipId}/shots`);
-    expect(list.json.map((x: { id: string }) => x.id)).toEqual([shot.id]);
+    expect(list.json.shots.map((x: { id: string }) => x.id)).toEqual([shot.id]);
+    expect(list.json.clip).toMatchObject({ id: clipId, captureFps: 3200, frameCount: 400, width: 1280, height: 720 });
+    expect(list.json.canEdit).toBe(true);
   });
 
   it("refuses a frame range beyond the clip, a clip that is not ready and a stick of another team", async () => {
@@ -62,7 +64,7 @@ describe("creating shots", () => {
     const notReady = await analyst.post(`${T()}/clips/${pending.id}/shots`, { frameStart: 1, frameEnd: 10 });
     expect(notReady.status).toBe(409);
     expect(notReady.json.code).toBe("clip_not_ready");
-    expect((await analyst.get(`${T()}/clips/${clipId}/shots`)).json).toEqual([]);
+    expect((await analyst.get(`${T()}/clips/${clipId}/shots`)).json.shots).toEqual([]);
   });
 });
 

@@ -1,0 +1,119 @@
+import { useEffect, useReducer, useRef } from "react";
+import { Image as KImage, Layer, Rect, Stage } from "react-konva";
+import type { FrameCache } from "../model/frame-cache";
+import type { DigitiseStore } from "../model/store";
+import type { Vec2 } from "../model/viewport";
+import { CalibrationOverlay } from "./CalibrationOverlay";
+import { MarksOverlay } from "./MarksOverlay";
+import { useDigitise } from "./useDigitise";
+import { ViewerHud } from "./ViewerHud";
+
+declare global {
+  interface Window {
+    /** Set by the Digitise benchmark: told each time a frame's picture has been drawn. */
+    __lfFrameDrawn?: (frame: number) => void;
+  }
+}
+
+/**
+ * The frame at its original pixels under the view transform, with the overlays on top. Pointer
+ * and wheel events go to the store in stage coordinates; the store's tools turn them into frame
+ * pixels. Konva only draws.
+ */
+export function FrameViewer({ store, cache, extraOverlay }: { store: DigitiseStore; cache: FrameCache<ImageBitmap>; extraOverlay?: React.ReactNode }) {
+  const box = useRef<HTMLDivElement>(null);
+  const s = useDigitise(store, (st) => ({ frame: st.frame, view: st.view, stage: st.stage, frameSize: st.frameSize, cursor: st.cursor }));
+  const [, rerender] = useReducer((n: number) => n + 1, 0);
+  const shown = useRef<{ frame: number; img: ImageBitmap } | null>(null);
+
+  // Size: the stage fills its box.
+  useEffect(() => {
+    const el = box.current!;
+    const ro = new ResizeObserver(() => store.setStage(Math.floor(el.clientWidth), Math.floor(el.clientHeight)));
+    ro.observe(el);
+    return () => ro.disconnect();
+  }, [store]);
+
+  // Frames: look at the current one (prefetching around it); redraw when it arrives.
+  useEffect(() => {
+    void cache.focus(s.frame).catch(() => {});
+  }, [cache, s.frame]);
+  useEffect(() => cache.onLoaded((f) => f === store.getState().frame && rerender()), [cache, store]);
+
+  const img = cache.get(s.frame);
+  if (img) shown.current = { frame: s.frame, img };
+  const current = shown.current;
+  const stale = !current || current.frame !== s.frame;
+
+  // Native listeners: pointer capture while dragging, and a non-passive wheel so the page does not scroll.
+  useEffect(() => {
+    const el = box.current!;
+    const at = (e: { clientX: number; clientY: number }): Vec2 => {
+      const r = el.getBoundingClientRect();
+      return [e.clientX - r.left, e.clientY - r.top];
+    };
+    const down = (e: PointerEvent) => {
+      if (e.target instanceof HTMLElement && e.target.closest("[data-hud]")) return;
+      el.setPointerCapture(e.pointerId);
+      el.focus({ preventScroll: true });
+      store.pointer({ type: "down", screen: at(e), button: e.button, panKey: e.altKey });
+    };
+    const move = (e: PointerEvent) => store.pointer({ type: "move", screen: at(e) });
+    const up = (e: PointerEvent) => {
+      if (el.hasPointerCapture(e.pointerId)) el.releasePointerCapture(e.pointerId);
+      store.pointer({ type: "up", screen: at(e) });
+    };
+    const cancel = (e: PointerEvent) => store.pointer({ type: "cancel", screen: at(e) });
+    const wheel = (e: WheelEvent) => {
+      e.preventDefault();
+      store.wheel(at(e), e.deltaMode === 1 ? e.deltaY * 33 : e.deltaY);
+    };
+    const menu = (e: MouseEvent) => e.preventDefault();
+    el.addEventListener("pointerdown", down);
+    el.addEventListener("pointermove", move);
+    el.addEventListener("pointerup", up);
+    el.addEventListener("pointercancel", cancel);
+    el.addEventListener("wheel", wheel, { passive: false });
+    el.addEventListener("contextmenu", menu);
+    return () => {
+      el.removeEventListener("pointerdown", down);
+      el.removeEventListener("pointermove", move);
+      el.removeEventListener("pointerup", up);
+      el.removeEventListener("pointercancel", cancel);
+      el.removeEventListener("wheel", wheel);
+      el.removeEventListener("contextmenu", menu);
+    };
+  }, [store]);
+
+  const { view, frameSize, stage } = s;
+  return (
+    <div
+      ref={box}
+      tabIndex={-1}
+      data-testid="frame-viewer"
+      data-frame={current?.frame ?? ""}
+      className="relative h-full w-full touch-none overflow-hidden bg-[#101517] outline-none select-none"
+      style={{ cursor: s.cursor }}
+    >
+      {stage.width > 0 && (
+        <Stage width={stage.width} height={stage.height} listening={false}>
+          <Layer
+            listening={false}
+            imageSmoothingEnabled={view.zoom < 2}
+            onDraw={() => current && window.__lfFrameDrawn?.(current.frame)}
+          >
+            <Rect x={view.panX} y={view.panY} width={frameSize.width * view.zoom} height={frameSize.height * view.zoom} fill="#1b2326" />
+            {current && <KImage image={current.img} x={view.panX} y={view.panY} width={frameSize.width * view.zoom} height={frameSize.height * view.zoom} opacity={stale ? 0.55 : 1} />}
+            <Rect x={view.panX - 0.5} y={view.panY - 0.5} width={frameSize.width * view.zoom + 1} height={frameSize.height * view.zoom + 1} stroke="#3b474b" strokeWidth={1} />
+          </Layer>
+          <Layer listening={false}>
+            <CalibrationOverlay store={store} />
+            <MarksOverlay store={store} />
+            {extraOverlay}
+          </Layer>
+        </Stage>
+      )}
+      <ViewerHud store={store} loading={stale} />
+    </div>
+  );
+}

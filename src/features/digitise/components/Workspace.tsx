@@ -1,0 +1,205 @@
+import { useEffect, useMemo, useState } from "react";
+import { Link, useSearchParams } from "react-router-dom";
+import type { ShotDetail } from "@shared/schemas/shots";
+import { Button } from "@/components/ui";
+import { formatDateTime } from "@/lib/format";
+import { frameUrl, loadFrameBitmap } from "../api/frames";
+import { checkDraft } from "../model/calibration-draft";
+import { capacityFor, FrameCache } from "../model/frame-cache";
+import { commandFor, isTypingTarget, type Command } from "../model/keymap";
+import { DigitiseStore } from "../model/store";
+import { usePreview } from "../preview/usePreview";
+import { CalibrationPanel } from "./CalibrationPanel";
+import { EventsPanel } from "./EventsPanel";
+import { FrameStrip } from "./FrameStrip";
+import { FrameViewer } from "./FrameViewer";
+import { HelpOverlay } from "./HelpOverlay";
+import { LandmarkPanel } from "./LandmarkPanel";
+import { PreviewPanel } from "./PreviewPanel";
+import { SaveIndicator } from "./SaveIndicator";
+import { TrackingBar, TrackingButton, TrackingOverlay, useTrackingAssist } from "./TrackingAssist";
+import { Transport } from "./Transport";
+import { useDigitise } from "./useDigitise";
+import { usePlayback } from "./usePlayback";
+import { initialDoc, useShotSaving } from "./useShotSaving";
+
+/** The Digitise page for one shot: frame viewer, transport and strip on the left, panels on the right. */
+export function Workspace({ teamId, shot }: { teamId: string; shot: ShotDetail }) {
+  const [search] = useSearchParams();
+  const [start] = useState(() => initialDoc(shot));
+  const { width, height } = shot.clip;
+  const [store] = useState(
+    () =>
+      new DigitiseStore({
+        readOnly: !shot.canEdit,
+        frameSize: { width, height },
+        frameStart: shot.frameStart,
+        frameEnd: shot.frameEnd,
+        captureFps: shot.clip.captureFps,
+        doc: start.doc,
+        frame: Number(search.get("frame")) || undefined,
+      }),
+  );
+  const url = (f: number) => frameUrl(teamId, shot.clip.id, f);
+  const [cache] = useState(
+    () => new FrameCache<ImageBitmap>({ load: (f, signal) => loadFrameBitmap(url(f), signal), first: shot.frameStart, last: shot.frameEnd, capacity: capacityFor(width, height) }),
+  );
+  useEffect(() => () => cache.dispose(), [cache]);
+
+  const saving = useShotSaving(teamId, shot, store, start);
+  const playback = usePlayback(store);
+  const tracking = useTrackingAssist(store, { teamId, clipId: shot.clip.id, frameStart: shot.frameStart, frameEnd: shot.frameEnd, enabled: shot.canEdit });
+  const [help, setHelp] = useState(false);
+  const [jumpRequest, setJumpRequest] = useState(0);
+
+  const doc = useDigitise(store, (s) => ({ d: s.doc })).d;
+  const check = checkDraft(doc.calibration, { width, height });
+  const calibrated = check.state === "ready";
+  const parts = useMemo(
+    () => ({
+      captureFps: shot.clip.captureFps,
+      calibration: check.state === "ready" ? check.calibration : null,
+      marks: doc.marks,
+      events: doc.events,
+      frameStart: shot.frameStart,
+      frameEnd: shot.frameEnd,
+      stick: shot.stick?.flex ? { flex: shot.stick.flex, benchSpanMm: shot.stick.benchSpanMm } : null,
+    }),
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [doc],
+  );
+  const preview = usePreview(parts);
+
+  useEffect(() => {
+    const run = (c: Command) => {
+      if (c !== "play" && c !== "playBack" && c !== "slower" && c !== "faster" && c !== "help") playback.stop();
+      if (c.startsWith("landmark:")) return store.setActiveLandmark(c.slice(9) as Parameters<DigitiseStore["setActiveLandmark"]>[0]);
+      if (c.startsWith("event:")) return void store.toggleEvent(c.slice(6) as Parameters<DigitiseStore["toggleEvent"]>[0]);
+      if (c.startsWith("gotoEvent:")) return store.gotoEvent(c.slice(10) as Parameters<DigitiseStore["gotoEvent"]>[0]);
+      const st = store.getState();
+      const actions: Partial<Record<Command, () => void>> = {
+        prev: () => store.stepBy(-1),
+        next: () => store.stepBy(1),
+        prev10: () => store.stepBy(-10),
+        next10: () => store.stepBy(10),
+        first: () => store.goto(st.frameStart),
+        last: () => store.goto(st.frameEnd),
+        jump: () => setJumpRequest((n) => n + 1),
+        prevMark: () => store.gotoNeighbourMark(-1),
+        nextMark: () => store.gotoNeighbourMark(1),
+        play: () => playback.toggle(1),
+        playBack: () => playback.toggle(-1),
+        slower: playback.slower,
+        faster: playback.faster,
+        nextLandmark: () => store.cycleLandmark(1),
+        prevLandmark: () => store.cycleLandmark(-1),
+        deleteMark: () => void store.deleteMark(),
+        toggleVisible: () => store.toggleVisible(),
+        showAll: () => store.showAll(),
+        trail: () => store.cycleTrail(),
+        autoAdvance: () => store.setAutoAdvance(!st.autoAdvance),
+        track: () => tracking.start(),
+        zoomIn: () => store.zoomBy(1.25),
+        zoomOut: () => store.zoomBy(1 / 1.25),
+        fit: () => store.fit(),
+        original: () => store.originalPixels(),
+        toolMark: () => store.setTool("mark"),
+        toolScaleBar: () => store.setTool("scaleBar"),
+        toolPlane: () => store.setTool("plane"),
+        escape: () => (tracking.busy ? tracking.cancel() : store.setTool("mark")),
+        undo: () => store.undo(),
+        redo: () => store.redo(),
+        help: () => setHelp((h) => !h),
+      };
+      actions[c]?.();
+    };
+    const onKey = (e: KeyboardEvent) => {
+      if (isTypingTarget(e.target as HTMLElement)) return;
+      if (document.querySelector("dialog[open]")) return;
+      const c = commandFor(e, store.getState().readOnly);
+      if (!c) return;
+      if (help && c !== "help" && c !== "escape") return;
+      e.preventDefault();
+      if (help && c === "escape") return setHelp(false);
+      run(c);
+    };
+    window.addEventListener("keydown", onKey);
+    return () => window.removeEventListener("keydown", onKey);
+  }, [store, playback, help, tracking]);
+
+  return (
+    <div className="relative left-1/2 -mt-4 w-[min(calc(100vw-1.5rem),1920px)] -translate-x-1/2">
+      <header className="mb-2 flex flex-wrap items-center gap-x-4 gap-y-2">
+        <div className="min-w-0 flex-1">
+          <nav aria-label="Breadcrumb" className="text-xs text-ink-muted">
+            <Link to="/clips" className="hover:underline">
+              Clips
+            </Link>
+            <span className="mx-1.5">/</span>
+            <Link to={`/clips/${shot.clip.id}/shots`} className="hover:underline">
+              {shot.clip.title || "Clip"}
+            </Link>
+          </nav>
+          <h1 className="truncate text-lg font-semibold text-ink">
+            Digitise · {shot.label || `Shot, frames ${shot.frameStart}–${shot.frameEnd}`}
+            <span className="ml-3 text-sm font-normal text-ink-muted">
+              {shot.playerName ?? "No player"} · {shot.clip.captureFps.toLocaleString()} fps
+              {shot.stick && ` · ${shot.stick.label}${shot.stick.flex ? ` (${shot.stick.flexSource === "measured" ? "measured" : "rated"} ${Math.round(shot.stick.flex)} flex)` : ""}`}
+            </span>
+          </h1>
+        </div>
+        <SaveIndicator marks={saving.status} cal={saving.calStatus} />
+        <Button variant="secondary" size="sm" onClick={() => setHelp(true)} aria-keyshortcuts="?">
+          Keys <kbd className="rounded border border-line-strong px-1 font-mono text-[11px]">?</kbd>
+        </Button>
+      </header>
+
+      {saving.status?.kind === "conflict" && (
+        <div role="alert" className="mb-2 flex flex-wrap items-center gap-3 rounded-lg border border-danger/30 bg-danger-soft px-4 py-2.5 text-sm text-danger-strong" data-testid="conflict-banner">
+          <p className="flex-1">
+            <b>{saving.status.conflict.savedBy ?? "Someone"}</b> saved this shot at {formatDateTime(saving.status.conflict.savedAt)} (version {saving.status.conflict.currentVersion}) while you were
+            editing. Your edits are kept here and have not been saved.
+          </p>
+          <Button size="sm" variant="danger" onClick={saving.keepMine}>
+            Keep mine — save over theirs
+          </Button>
+          <Button size="sm" variant="secondary" onClick={() => void saving.takeTheirs()}>
+            Load theirs — drop mine
+          </Button>
+        </div>
+      )}
+      {saving.status?.kind === "error" && (
+        <div role="alert" className="mb-2 rounded-lg border border-danger/30 bg-danger-soft px-4 py-2 text-sm text-danger-strong">
+          Not saved: {saving.status.message}
+        </div>
+      )}
+      {!calibrated && (
+        <div role="status" className="mb-2 flex items-center gap-2 rounded-lg border border-warn/30 bg-warn-soft px-4 py-2 text-sm text-warn" data-testid="calibration-warning">
+          <span aria-hidden className="text-base">⚠</span>
+          <span>
+            <b>No calibration for this clip</b> — results are in pixels only.{" "}
+            {shot.canEdit && "Draw a scale bar (S; a puck's diameter works) or a plane layout (L)."}
+          </span>
+        </div>
+      )}
+
+      <div className="grid h-[max(34rem,calc(100dvh-13rem))] grid-cols-[minmax(0,1fr)_21rem] overflow-hidden rounded-[var(--radius-card)] border border-line bg-surface shadow-[var(--shadow-card)]">
+        <div className="flex min-h-0 min-w-0 flex-col bg-[#101517]">
+          <div className="relative min-h-0 flex-1">
+            <FrameViewer store={store} cache={cache} extraOverlay={<TrackingOverlay store={store} tracking={tracking} />} />
+          </div>
+          <TrackingBar store={store} tracking={tracking} />
+          <Transport store={store} playback={playback} jumpRequest={jumpRequest} />
+          <FrameStrip store={store} thumbUrl={url} />
+        </div>
+        <aside className="min-h-0 overflow-y-auto border-l border-line" aria-label="Digitise panels">
+          <LandmarkPanel store={store} tracking={<TrackingButton tracking={tracking} />} />
+          <EventsPanel store={store} />
+          <CalibrationPanel store={store} status={saving.calStatus.kind === "saving" ? "saving…" : saving.calStatus.kind === "offline" ? "offline" : null} />
+          <PreviewPanel preview={preview} stored={saving.stored} version={saving.version} />
+        </aside>
+      </div>
+      {help && <HelpOverlay onClose={() => setHelp(false)} readOnly={!shot.canEdit} />}
+    </div>
+  );
+}

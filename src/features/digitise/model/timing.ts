@@ -1,0 +1,30 @@
+// Times from the capture rate, never the stored (playback) rate: frame n is (n − 1) / fps after
+// the clip's first frame.
+
+export const msSinceFirst = (frame: number, captureFps: number) => ((frame - 1) * 1000) / captureFps;
+export const msSince = (frame: number, from: number, captureFps: number) => ((frame - from) * 1000) / captureFps;
+
+/** "+12.500 ms" with a sign, digits enough to tell neighbouring frames apart. */
+export function formatMs(ms: number, captureFps: number): string {
+  const step = 1000 / captureFps;
+  const digits = step >= 10 ? 1 : step >= 1 ? 2 : step >= 0.1 ? 3 : 4;
+  const sign = ms > 0 ? "+" : ms < 0 ? "−" : "±";
+  return `${sign}${Math.abs(ms).toFixed(digits)} ms`;
+}
+
+/** Playback at a fraction of real time: frames to show per second of wall clock. */
+export const playbackFps = (captureFps: number, fraction: number) => captureFps * fraction;
+
+export const PLAYBACK_FRACTIONS = [1 / 1000, 1 / 400, 1 / 200, 1 / 100, 1 / 50, 1 / 20, 1 / 10, 1 / 4, 1] as const;
+
+export const fractionLabel = (f: number) => (f >= 1 ? "real time" : `1/${Math.round(1 / f)} real time`);
+
+/**
+ * Frames to advance for a tick of `elapsedMs`, carrying the remainder, so slow fractions step
+ * every few display frames and fast ones skip frames rather than fall behind.
+ */
+export function playbackAdvance(carry: number, elapsedMs: number, captureFps: number, fraction: number): { frames: number; carry: number } {
+  const exact = carry + (elapsedMs / 1000) * playbackFps(captureFps, fraction);
+  const frames = Math.floor(exact + 1e-9); // sums of tick lengths are not exact
+  return { frames, carry: exact - frames };
+}
