@@ -130,43 +130,74 @@ export function validateCalibration(cal: unknown): string | null {
   return path ? `${path}: ${p.message}` : p.message;
 }
 
-/** Scale bar map without checks (the Monte Carlo trials build many). */
-export function scaleBarMap(a: Vec2, b: Vec2, lengthMm: number): CalibrationMap {
-  const s = lengthMm / Math.hypot(b[0] - a[0], b[1] - a[1]);
-  return {
-    type: "scaleBar",
-    toWorld: (p) => [(p[0] - a[0]) * s, (a[1] - p[1]) * s],
-    mmPerPx: s,
-    mmPerPxAt: () => s,
-    inFront: () => true,
-    rmsResidualMm: null,
-    jacobian: () => [s, 0, 0, -s],
-    affine: { M: [s, 0, 0, -s], t: [-a[0] * s, a[1] * s] },
-  };
+// Classes rather than object literals of closures: the Monte Carlo trials build hundreds of maps.
+
+class ScaleBarMap implements CalibrationMap {
+  readonly type = "scaleBar" as const;
+  readonly mmPerPx: number;
+  readonly rmsResidualMm = null;
+  readonly affine: { M: [number, number, number, number]; t: Vec2 };
+  constructor(
+    private readonly a: Vec2,
+    b: Vec2,
+    lengthMm: number,
+  ) {
+    const s = lengthMm / Math.hypot(b[0] - a[0], b[1] - a[1]);
+    this.mmPerPx = s;
+    this.affine = { M: [s, 0, 0, -s], t: [-a[0] * s, a[1] * s] };
+  }
+  toWorld(p: Vec2): Vec2 {
+    return [(p[0] - this.a[0]) * this.mmPerPx, (this.a[1] - p[1]) * this.mmPerPx];
+  }
+  mmPerPxAt(): number {
+    return this.mmPerPx;
+  }
+  inFront(): boolean {
+    return true;
+  }
+  jacobian(): [number, number, number, number] {
+    return [this.mmPerPx, 0, 0, -this.mmPerPx];
+  }
 }
 
-/** Plane map without checks. */
+class PlaneMap implements CalibrationMap {
+  readonly type = "plane" as const;
+  readonly rmsResidualMm: number | null = null;
+  private readonly side: number;
+  constructor(readonly H: Mat3, points: { image: Vec2; world: Vec2 }[]) {
+    this.side = Math.sign(homographyW(H, points[0].image[0], points[0].image[1]));
+    if (points.length > 4) {
+      let ss = 0;
+      for (const p of points) ss += dist2(applyHomography(H, p.image[0], p.image[1]), p.world);
+      this.rmsResidualMm = Math.sqrt(ss / points.length);
+    }
+  }
+  toWorld(p: Vec2): Vec2 {
+    return applyHomography(this.H, p[0], p[1]);
+  }
+  mmPerPxAt(p: Vec2): number {
+    return homographyLocalScale(this.H, p[0], p[1]);
+  }
+  inFront(p: Vec2): boolean {
+    return Math.sign(homographyW(this.H, p[0], p[1])) === this.side;
+  }
+  jacobian(p: Vec2): [number, number, number, number] {
+    return homographyJacobian(this.H, p[0], p[1]);
+  }
+}
+
+/** Scale bar map without checks (its methods need their object: call them as map.toWorld(p)). */
+export function scaleBarMap(a: Vec2, b: Vec2, lengthMm: number): CalibrationMap {
+  return new ScaleBarMap(a, b, lengthMm);
+}
+
+/** Plane map without checks (its methods need their object). */
 export function planeMap(points: { image: Vec2; world: Vec2 }[]): CalibrationMap {
   const H = fitHomography(
     points.map((p) => p.image),
     points.map((p) => p.world),
   );
-  const side = Math.sign(homographyW(H, points[0].image[0], points[0].image[1]));
-  let rms: number | null = null;
-  if (points.length > 4) {
-    let ss = 0;
-    for (const p of points) ss += dist2(applyHomography(H, p.image[0], p.image[1]), p.world);
-    rms = Math.sqrt(ss / points.length);
-  }
-  return {
-    type: "plane",
-    toWorld: (p) => applyHomography(H, p[0], p[1]),
-    mmPerPxAt: (p) => homographyLocalScale(H, p[0], p[1]),
-    inFront: (p) => Math.sign(homographyW(H, p[0], p[1])) === side,
-    rmsResidualMm: rms,
-    jacobian: (p) => homographyJacobian(H, p[0], p[1]),
-    H,
-  };
+  return new PlaneMap(H, points);
 }
 
 /** Checked calibration map; throws MechanicsInputError (path relative to the calibration). */
@@ -179,5 +210,17 @@ export function makeCalibration(cal: CalibrationInput): CalibrationMap {
   const p = checkCalibration(parsed.data);
   if (p) throw new MechanicsInputError(p.path, p.message);
   const c = parsed.data;
-  return c.type === "scaleBar" ? scaleBarMap(c.a, c.b, c.lengthMm) : planeMap(c.points);
+  const m = c.type === "scaleBar" ? scaleBarMap(c.a, c.b, c.lengthMm) : planeMap(c.points);
+  // A plain object whose functions may be passed around on their own (e.g. `const { toWorld } = …`).
+  return {
+    type: m.type,
+    mmPerPx: m.mmPerPx,
+    rmsResidualMm: m.rmsResidualMm,
+    affine: m.affine,
+    H: m.H,
+    toWorld: (p) => m.toWorld(p),
+    mmPerPxAt: (p) => m.mmPerPxAt(p),
+    inFront: (p) => m.inFront(p),
+    jacobian: (p) => m.jacobian(p),
+  };
 }

@@ -79,5 +79,9 @@ describe("calibration checks for live preview", () => {
     expect(() => makeCalibration({ type: "scaleBar", a: [0, 0], b: [0, 0] })).toThrow(MechanicsInputError);
     // Default length: a puck's 76.2 mm across (IIHF Rule 13.1 [P]).
     expect(makeCalibration({ type: "scaleBar", a: [0, 0], b: [40, 0] }).mmPerPx).toBeCloseTo(1.905, 12);
+    const { toWorld } = makeCalibration({ type: "scaleBar", a: [10, 20], b: [50, 20] });
+    const [X, Y] = toWorld([30, 10]); // x right, y up, from end a
+    expect(X).toBeCloseTo(38.1, 12);
+    expect(Y).toBeCloseTo(19.05, 12);
   });
 });
