@@ -1,8 +1,7 @@
 // Database rows → the API's shapes (shared/schemas/sticks.ts). The stored fit is the engine's
 // output at the time of the test; the rating may have changed since, so % of rated is taken
 // against the stick's current rating whenever a test is shown.
-import type { BenchFit } from "../../shared/mechanics/sticklab";
-import type { BenchReading } from "../../shared/mechanics/sticklab";
+import type { BenchFit, BenchReading } from "../../shared/mechanics/sticklab";
 import type { BenchEntry, BenchTestRow, LatestBenchTest, StickRow } from "../../shared/schemas/sticks";
 import type { BenchTestRecord, StickRecord } from "./repository";
 
