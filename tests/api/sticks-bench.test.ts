@@ -23,7 +23,7 @@ afterAll(() => srv.close());
 const base = () => `/api/teams/${world.teamId}/sticks/${stickId}`;
 const stored = async () => (await db().select().from(benchTest).where(eq(benchTest.stickId, stickId))).length;
 
-function csvForm(csv: string | Uint8Array, fields: Record<string, string> = { date: "2026-11-20" }, name = "readings.csv") {
+function csvForm(csv: string, fields: Record<string, string> = { date: "2026-11-20" }, name = "readings.csv") {
   const form = new FormData();
   for (const [k, v] of Object.entries(fields)) form.set(k, v);
   form.set("file", new Blob([csv], { type: "text/csv" }), name);
@@ -114,7 +114,7 @@ describe("bench test from a CSV upload", () => {
   });
 
   const huge = "load_lbf,deflection_in\n" + "20,0.28\n".repeat(140_000); // ~1.1 MB
-  const badCsvs: [string, string | Uint8Array, RegExp][] = [
+  const badCsvs: [string, string, RegExp][] = [
     ["missing columns", "load_lbf\n20\n40\n60\n", /missing column deflection_in or deflection_mm/],
     ["unknown units", "load_kg,deflection_in\n20,0.28\n40,0.56\n60,0.84\n", /column "load_kg": unknown unit "kg"/],
     ["text in a number cell", "load_lbf,deflection_in\n20,0.28\n40,about half\n60,0.84\n", /line 3, column deflection_in: "about half" is not a number/],
