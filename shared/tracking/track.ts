@@ -15,6 +15,8 @@ const REFRESH_RATIO = 0.97;
 /** Search radius grows with speed: constant velocity misses by a share of the step when it bends. */
 const RADIUS_PER_STEP = 0.25;
 const PREFETCH_DEPTH = 2;
+/** Work between pauses for the event loop, so a cancel message is read even when frames come from memory. */
+const YIELD_EVERY_MS = 30;
 
 export interface TrackDeps {
   /** A matcher to use (and not dispose); default: OpenCV's, created and freed per run. */
@@ -38,8 +40,12 @@ export async function track(request: TrackRequest, onProgress?: (p: TrackProgres
   try {
     const first = await frames.frame(start.frame, signal);
     checkFrame(first, start.frame, first);
+    for (const [field, m] of [["start", start], ["prior", prior]] as const)
+      if (m && !(m.x >= 0 && m.y >= 0 && m.x < first.width && m.y < first.height))
+        throw new TrackInputError(field, `(${m.x}, ${m.y}) lies outside the ${first.width}×${first.height} frame`);
     let ref: Reference | null = captureReference(first, start.x, start.y, size, minSize, turning);
-    if (!ref) throw new TrackInputError("start", `the mark (${start.x}, ${start.y}) is too close to the frame edge for a ${size} px template`);
+    if (!ref)
+      throw new TrackInputError("templateSize", `a ${size} px template around (${start.x}, ${start.y}) keeps less than ${minSize} px inside the ${first.width}×${first.height} frame`);
     // Velocities per frame index (+1), so they hold for either direction.
     let velocity = prior ? { x: (start.x - prior.x) / (start.frame - prior.frame), y: (start.y - prior.y) / (start.frame - prior.frame) } : null;
     let angle = 0;
@@ -49,7 +55,12 @@ export async function track(request: TrackRequest, onProgress?: (p: TrackProgres
     const frameAt = (k: number) => start.frame + direction * k;
     const ahead = createPrefetcher(frames, frameAt, total, PREFETCH_DEPTH, signal);
 
+    let lastPause = Date.now();
     for (let k = 1; k <= total; k++) {
+      if (Date.now() - lastPause > YIELD_EVERY_MS) {
+        await new Promise((r) => setTimeout(r, 0));
+        lastPause = Date.now();
+      }
       if (signal?.aborted) return cancelled();
       const index = frameAt(k);
       let frame: GrayFrame;

@@ -1,8 +1,11 @@
 // The test clips themselves: noise-free renders must put each shape where its formula says.
 // Source of truth: the generator's own formula (support/synthetic-clips.ts); ffmpeg renders it.
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, vi } from "vitest";
 import { centroid, renderGray, type ClipSpec } from "./support/synthetic-clips";
 import { arcClip, lineClip, shaftClip } from "./support/scenarios";
+
+// Each clip is rendered by ffmpeg first: allow for a busy machine.
+vi.setConfig({ testTimeout: 60_000 });
 
 async function worstCentroidError(spec: ClipSpec, expected: (n: number) => { x: number; y: number }) {
   const frames = await renderGray(spec);

@@ -18,3 +18,13 @@ export function errorStats(proposals: Proposal[], truth: (frame: number) => Poin
   const mean = (v: number[]) => (v.length ? v.reduce((a, b) => a + b, 0) / v.length : NaN);
   return { count: errs.length, mean: mean(errs), max: errs.length ? Math.max(...errs) : NaN, tailMean: mean(errs.slice(-tail)) };
 }
+
+/** What every whole-clip run must show: all frames proposed, under 1 px on average, no drift. */
+export function expectAccurateThroughout(stop: { reason: string }, stats: ErrorStats, frames: number, expect: (v: unknown) => any) {
+  expect(stop.reason).toBe("end-of-range");
+  expect(stats.count).toBe(frames - 1);
+  expect(stats.mean).toBeLessThan(1);
+  // No drift: the last 50 frames are as good as the whole run, and no frame strays.
+  expect(stats.tailMean).toBeLessThan(1);
+  expect(stats.max).toBeLessThan(2);
+}
