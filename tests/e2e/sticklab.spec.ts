@@ -63,6 +63,15 @@ test("an analyst bench-tests a used 85 flex, sees ~71 flex (84 %), the season's 
   await expect(page.getByTestId("break-point")).toBeVisible();
   await expect(page.getByText(/predicted break point/).first()).toBeVisible();
 
+  // From a demo shot taken with this stick (seeded by the shots area): top hand and heel hold, the bottom hand pushes.
+  const shotValue = await page.locator('optgroup[label="A digitised shot with this stick"] option').first().getAttribute("value");
+  expect(shotValue).toMatch(/^shot:/);
+  await page.getByLabel("Start from").selectOption(shotValue!);
+  await expect(page).toHaveURL(/\?shot=/);
+  await expect(page.getByText("Bottom hand's push")).toBeVisible();
+  await expect(page.getByTestId("break-point-summary")).toHaveText(/\d+ mm from the top hand/);
+  await expect(page.getByTestId("break-point")).toBeVisible();
+
   // Move the bottom hand: the peak moves with it.
   await page.getByLabel("Start from").selectOption("hands");
   await page.getByLabel("Position of load 1").fill("500");
