@@ -9,16 +9,8 @@ import { NotFound } from "./NotFound";
  */
 export const signedInRoutes: RouteObject[] = [
   { index: true, handle: { title: "Home" }, lazy: () => import("@/features/home/routes/HomePage") },
-  {
-    path: "clips",
-    handle: { title: "Clips" },
-    element: (
-      <ComingNext title="Clips">
-        The team's clip library: upload high-frame-rate shot video with its capture frame rate and camera notes, watch each clip through frame
-        extraction, and filter by session and player.
-      </ComingNext>
-    ),
-  },
+  { path: "clips", handle: { title: "Clips" }, lazy: () => import("@/features/clips/routes/ClipsPage") },
+  { path: "clips/:clipId", handle: { title: "Clip" }, lazy: () => import("@/features/clips/routes/ClipPage") },
   // Shots of a clip and the Digitise page (src/features/digitise).
   { path: "clips/:clipId/shots", handle: { title: "Shots" }, lazy: () => import("@/features/digitise/routes/ClipShotsPage") },
   { path: "clips/:clipId/shots/:shotId/digitise", handle: { title: "Digitise" }, lazy: () => import("@/features/digitise/routes/DigitisePage") },

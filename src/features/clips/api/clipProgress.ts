@@ -1,0 +1,36 @@
+import { useEffect, useState } from "react";
+import { useQueryClient } from "@tanstack/react-query";
+import { env } from "@/lib/env";
+import type { ClipProgress } from "@shared/schemas/clips";
+import { clipKey, clipPath, clipsKey } from "./keys";
+
+/**
+ * GET /api/teams/:teamId/clips/:clipId/progress as Server-Sent Events while `live`: each event
+ * updates the bar; the end (ready, failed) refreshes the clip and the list.
+ */
+export function useClipProgress(teamId: string, clipId: string, live: boolean): ClipProgress | null {
+  const qc = useQueryClient();
+  const [progress, setProgress] = useState<ClipProgress | null>(null);
+  useEffect(() => {
+    if (!live) return;
+    const source = new EventSource(`${env.apiBase}${clipPath(teamId, clipId)}/progress`);
+    const refresh = () => {
+      void qc.invalidateQueries({ queryKey: clipKey(teamId, clipId) });
+      void qc.invalidateQueries({ queryKey: clipsKey(teamId) });
+    };
+    source.addEventListener("progress", (e) => {
+      const p = JSON.parse((e as MessageEvent<string>).data) as ClipProgress;
+      setProgress(p);
+      if (p.status === "ready" || p.status === "failed") {
+        source.close();
+        refresh();
+      }
+    });
+    source.addEventListener("gone", () => {
+      source.close();
+      refresh();
+    });
+    return () => source.close();
+  }, [teamId, clipId, live, qc]);
+  return progress;
+}

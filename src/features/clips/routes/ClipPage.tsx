@@ -1,0 +1,112 @@
+import { useState } from "react";
+import { useNavigate, useParams, useSearchParams } from "react-router-dom";
+import { Alert, Button, ButtonLink, Card, ConfirmDialog, EmptyState, PageHeader, PageSpinner, toast } from "@/components/ui";
+import { errorMessage, isApiError } from "@/lib/api";
+import { useActiveTeam } from "@/lib/session";
+import { useClip } from "../api/clip";
+import { useClipProgress } from "../api/clipProgress";
+import { useDeleteClip } from "../api/deleteClip";
+import { useRetryClip } from "../api/retryClip";
+import { CaptureRateConfirm } from "../components/CaptureRateConfirm";
+import { ClipFacts } from "../components/ClipFacts";
+import { EditClipDialog } from "../components/EditClipDialog";
+import { FrameStrip, FrameViewer } from "../components/FrameViewer";
+import { ProgressBar } from "../components/ProgressBar";
+import { formatCount, sessionLabel } from "../format";
+import { cameraViewLabels, shotTypeLabels } from "@shared/schemas/clips";
+
+export function Component() {
+  const team = useActiveTeam();
+  const { clipId = "" } = useParams();
+  if (!team) return <EmptyState title="No team yet" />;
+  return <ClipView teamId={team.id} clipId={clipId} staff={team.role !== "player"} />;
+}
+
+function ClipView({ teamId, clipId, staff }: { teamId: string; clipId: string; staff: boolean }) {
+  const navigate = useNavigate();
+  const clip = useClip(teamId, clipId);
+  const live = useClipProgress(teamId, clipId, clip.data?.status === "extracting");
+  const retry = useRetryClip(teamId);
+  const remove = useDeleteClip(teamId);
+  const [params, setParams] = useSearchParams();
+  const [editing, setEditing] = useState(false);
+  const [confirmDelete, setConfirmDelete] = useState(false);
+
+  if (clip.isPending) return <PageSpinner label="Loading the clip…" />;
+  if (clip.isError)
+    return isApiError(clip.error) && clip.error.status === 404 ? (
+      <EmptyState title="Clip not found" action={<ButtonLink to="/clips">Back to clips</ButtonLink>}>It may have been deleted, or it belongs to another team.</EmptyState>
+    ) : (
+      <Alert tone="danger" title="Couldn't load the clip">{errorMessage(clip.error)}</Alert>
+    );
+
+  const c = clip.data;
+  const status = live?.status ?? c.status;
+  const framesDone = live?.framesDone ?? c.framesDone;
+  const available = status === "ready" ? c.frameCount ?? 0 : framesDone;
+  const frame = Math.min(Math.max(1, Number(params.get("frame")) || 1), Math.max(1, available));
+  const setFrame = (n: number) => setParams((p) => { p.set("frame", String(n)); return p; }, { replace: true });
+  const openFrame1 = () => {
+    setFrame(1);
+    document.getElementById("frame-viewer")?.focus();
+  };
+
+  return (
+    <>
+      <PageHeader
+        eyebrow={sessionLabel(c.session)}
+        title={c.title || c.originalName}
+        description={[c.player?.name, shotTypeLabels[c.shotType], `${cameraViewLabels[c.cameraView]} view`].filter(Boolean).join(" · ")}
+        actions={
+          <>
+            <ButtonLink to="/clips" variant="ghost">All clips</ButtonLink>
+            <Button variant="secondary" onClick={openFrame1} disabled={available < 1}>Open frame 1</Button>
+            {staff && <Button variant="secondary" onClick={() => setEditing(true)}>Edit details</Button>}
+            {staff && <Button variant="ghost-danger" onClick={() => setConfirmDelete(true)}>Delete</Button>}
+          </>
+        }
+      />
+      <div className="flex flex-col gap-4">
+        {status === "extracting" && (
+          <Card>
+            <ProgressBar value={c.frameCount ? framesDone / c.frameCount : 0} label={`Extracting frames: ${formatCount(framesDone)} of ${formatCount(c.frameCount)}`} />
+          </Card>
+        )}
+        {status === "failed" && (
+          <Alert tone="danger" title="Frame extraction failed">
+            <p>{live?.failureReason ?? c.failureReason}</p>
+            {staff && (
+              <Button size="sm" variant="secondary" className="mt-2" loading={retry.isPending}
+                onClick={() => retry.mutate(c.id, { onSuccess: () => { toast.success("Extraction queued again.", "Retrying"); void clip.refetch(); } })}>
+                Retry
+              </Button>
+            )}
+          </Alert>
+        )}
+        {c.needsCaptureRateConfirmation && staff && <CaptureRateConfirm teamId={teamId} clip={c} />}
+        {c.needsCaptureRateConfirmation && !staff && (
+          <Alert tone="warn">The capture rate of this clip has not been confirmed yet, so speeds from it may be wrong.</Alert>
+        )}
+        <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,1fr)_22rem]">
+          <Card title="Frames" description="Step through the clip frame by frame; the time shown is real time from the capture rate.">
+            <div className="flex flex-col gap-4">
+              <FrameViewer clip={c} frame={frame} onFrame={setFrame} available={available} />
+              <FrameStrip clip={c} onFrame={setFrame} />
+            </div>
+          </Card>
+          <ClipFacts clip={c} />
+        </div>
+      </div>
+      {editing && <EditClipDialog teamId={teamId} clip={c} open={editing} onClose={() => setEditing(false)} />}
+      <ConfirmDialog
+        open={confirmDelete}
+        title="Delete this clip?"
+        description="The clip, all its frames and every shot digitised on it are removed. This cannot be undone."
+        confirmLabel="Delete clip"
+        pending={remove.isPending}
+        onCancel={() => setConfirmDelete(false)}
+        onConfirm={() => remove.mutate(c.id, { onSuccess: () => { toast.success("The clip and its frames are deleted.", "Deleted"); navigate("/clips"); } })}
+      />
+    </>
+  );
+}

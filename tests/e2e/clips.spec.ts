@@ -1,0 +1,68 @@
+import { execFileSync } from "node:child_process";
+import { mkdtempSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { expect, test, type Page } from "@playwright/test";
+import { DEMO_PASSWORD } from "../../server/seed/demo-people";
+
+// Done-when of clip ingest: a coach uploads a lab clip stored at 30 fps, confirms that the camera
+// captured at 3,200 fps, watches the extraction bar, and opens frame 1.
+
+async function signIn(page: Page, email: string) {
+  await page.goto("/sign-in");
+  await page.getByLabel("E-mail").fill(email);
+  await page.getByLabel("Password").fill(DEMO_PASSWORD);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await expect(page).not.toHaveURL(/sign-in/);
+}
+
+function makeClip() {
+  const file = path.join(mkdtempSync(path.join(os.tmpdir(), "lf-e2e-")), "lab-camera-take-7.mp4");
+  execFileSync("ffmpeg", ["-hide_banner", "-loglevel", "error", "-nostdin", "-y", "-f", "lavfi", "-i", "testsrc2=size=640x360:rate=30",
+    "-frames:v", "240", "-c:v", "libx264", "-preset", "ultrafast", "-pix_fmt", "yuv420p", file]);
+  return file;
+}
+
+test("a coach uploads a 3,200 fps clip stored at 30 fps, confirms the rate, watches the bar and opens frame 1", async ({ page }) => {
+  const file = makeClip();
+  await signIn(page, "coach@ravens.example");
+  await page.goto("/clips");
+  await page.getByTestId("clip-file-input").setInputFiles(file);
+
+  const item = page.getByRole("listitem", { name: "Upload of lab-camera-take-7.mp4" });
+  await item.getByLabel("Player").selectOption({ label: "Theo Marchetti" });
+  await item.getByLabel("Shot type").selectOption("slap");
+  await item.getByLabel("Venue").fill("Lakeport Arena, lab corner");
+  await item.getByLabel("Drill").fill("Slap shots, lab camera");
+  await item.getByRole("button", { name: "Upload" }).click();
+
+  // The server probed the file: stored at 30 fps looks like a playback rate, so it asks.
+  await expect(item.getByText("Stored", { exact: true })).toBeVisible();
+  await expect(item.getByText("The file is stored at 30 fps.", { exact: false })).toBeVisible();
+  const confirm = item.getByText("Confirm the capture rate").locator("..");
+  await confirm.getByLabel("Capture rate (fps)").fill("3200");
+  await confirm.getByRole("button", { name: "Confirm capture rate" }).click();
+  await expect(page.getByText("Capture rate set to 3,200 fps.")).toBeVisible();
+
+  const bar = item.getByRole("progressbar");
+  await expect(bar).toBeVisible();
+  await expect(bar).toHaveAttribute("aria-valuenow", "100", { timeout: 30_000 });
+  await expect(item.getByText("All frames ready")).toBeVisible();
+
+  // The library row shows both rates.
+  const row = page.locator("tr", { hasText: "lab-camera-take-7" });
+  await expect(row).toContainText("3,200 fps");
+  await expect(row).toContainText("stored 30 fps");
+  await expect(row).toContainText("240");
+
+  await item.getByRole("link", { name: "Open clip" }).click();
+  await expect(page.getByRole("heading", { name: "lab-camera-take-7" })).toBeVisible();
+  await expect(page.getByText("3,200 fps", { exact: true })).toBeVisible();
+  await expect(page.getByText("(confirmed)")).toBeVisible();
+  await page.getByRole("button", { name: "Next frame" }).click();
+  await page.getByRole("button", { name: "Open frame 1" }).click();
+  const frame = page.getByTestId("frame-image");
+  await expect(frame).toHaveAttribute("src", /\/frames\/1$/);
+  await expect.poll(() => frame.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth)).toBe(640);
+  await expect(page.getByLabel("Frame number")).toHaveValue("1");
+});
