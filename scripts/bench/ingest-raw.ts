@@ -75,7 +75,7 @@ export async function timeOurIngest(media: MediaConfig, clip: string, p: ProbeRe
   const clipId = "bench";
   await storage.putFile(clipKeys.original(clipId), clip);
   const t0 = performance.now();
-  const r = await extractClipFrames({ media: { ...media, tmpRoot: path.join(root, ".jobs") }, storage }, { clipId, probe: p });
+  const r = await extractClipFrames({ media, storage }, { clipId, probe: p });
   return { ms: performance.now() - t0, frames: r.frameCount, firstFrameMs: r.firstFrameMs, extractMs: r.extractMs };
 }
 

@@ -12,4 +12,4 @@ export {
   type FrameFormat,
   type StripOptions,
 } from "./extract";
-export { extractClipFrames, type ExtractClipOptions, type ExtractClipResult } from "./ingest";
+export { extractClipFrames, jobTmpRoot, type ExtractClipOptions, type ExtractClipResult } from "./ingest";

@@ -4,7 +4,7 @@
 import { createWriteStream } from "node:fs";
 import path from "node:path";
 import { pipeline } from "node:stream/promises";
-import { clipKeys, frameIndexOf, StorageError, type Storage } from "../storage";
+import { clipKeys, frameIndexOf, LocalDiskStorage, StorageError, type Storage } from "../storage";
 import { FfmpegError } from "./errors";
 import { extractFrames, type ExtractOptions, type ExtractProgress, type FrameFormat } from "./extract";
 import { withJobDir, type MediaConfig } from "./ffmpeg";
@@ -38,6 +38,16 @@ export interface ExtractClipResult {
 
 const contentTypes: Record<FrameFormat, string> = { jpg: "image/jpeg", webp: "image/webp" };
 
+/**
+ * Where extraction jobs put their temp folders: the configured tmpRoot, else, on local disk, a
+ * folder inside the storage root, so each frame moves into place by a rename instead of a copy
+ * across file systems. Sweep stale job folders (sweepStaleJobDirs) in this same place.
+ */
+export function jobTmpRoot(media: MediaConfig, storage: Storage): string | undefined {
+  if (media.tmpRoot) return media.tmpRoot;
+  return storage instanceof LocalDiskStorage ? path.join(storage.root, ".jobs") : undefined;
+}
+
 export async function extractClipFrames(
   deps: { media: MediaConfig; storage: Storage },
   o: ExtractClipOptions,
@@ -50,7 +60,7 @@ export async function extractClipFrames(
     throw new StorageError("not_found", `Clip ${o.clipId} has no stored original`, { key: originalKey });
   }
 
-  return withJobDir(deps.media, `extract-${o.clipId}`, async (dir) => {
+  return withJobDir({ tmpRoot: jobTmpRoot(deps.media, storage) }, `extract-${o.clipId}`, async (dir) => {
     let input = storage.localPath(originalKey);
     if (!input) {
       input = path.join(dir, "original");

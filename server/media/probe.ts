@@ -65,7 +65,7 @@ export interface FfprobeStream {
 }
 export interface FfprobeJson {
   streams?: FfprobeStream[];
-  format?: { format_name?: string; duration?: string; size?: string; start_time?: string };
+  format?: { filename?: string; format_name?: string; duration?: string; size?: string; start_time?: string };
 }
 
 /** A stored rate of 60 fps or less is usually a playback rate: ask for the capture rate. */
@@ -178,6 +178,8 @@ export async function probe(config: MediaConfig, file: string, o: ProbeOptions =
     );
   }
 
+  // The server's temp path of the upload is no business of the clip's record.
+  if (raw.format) delete raw.format.filename;
   const streams = raw.streams ?? [];
   const formatName = raw.format?.format_name ?? "";
   const hasAudio = streams.some((s) => s.codec_type === "audio");

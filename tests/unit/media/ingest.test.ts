@@ -1,6 +1,6 @@
 // extractClipFrames(): a stored clip's frames land in storage under their index keys, with the
 // strip; an interrupted run followed by a retry ends with exactly one frame per index.
-import { existsSync } from "node:fs";
+import { existsSync, readdirSync } from "node:fs";
 import { readdir } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
@@ -8,7 +8,7 @@ import { Readable } from "node:stream";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { FfmpegError } from "../../../server/media/errors";
 import { JOB_DIR_PREFIX } from "../../../server/media/ffmpeg";
-import { extractClipFrames } from "../../../server/media/ingest";
+import { extractClipFrames, jobTmpRoot } from "../../../server/media/ingest";
 import type { ExtractProgress } from "../../../server/media/extract";
 import { probe, type ProbeResult } from "../../../server/media/probe";
 import { clipKeys, LocalDiskStorage, type Storage } from "../../../server/storage";
@@ -59,6 +59,25 @@ describe.each([
     expect(done).toEqual([...done].sort((a, b) => a - b));
     expect(progress.at(-1)).toEqual({ framesDone: 120, totalFrames: 120, percent: 100 });
     expect((await readdir(path.join(dir, "jobs"))).filter((n) => n.startsWith(JOB_DIR_PREFIX))).toEqual([]);
+  });
+});
+
+describe("job folders on local disk", () => {
+  it("default to a folder inside the storage root (frames move by rename) and are removed", async () => {
+    const root = path.join(dir, "uploads-jobs");
+    const storage = new LocalDiskStorage({ root });
+    const plain = testMedia(); // no tmpRoot
+    expect(jobTmpRoot(plain, storage)).toBe(path.join(root, ".jobs"));
+    expect(jobTmpRoot(plain, s3.storage())).toBeUndefined();
+    await storage.putFile(clipKeys.original("c-jobs"), clip);
+    let sawJobDir = false;
+    await extractClipFrames({ media: plain, storage }, {
+      clipId: "c-jobs", probe: p, strip: false, progressIntervalMs: 0,
+      onProgress: () => { sawJobDir ||= existsSync(path.join(root, ".jobs")) && readdirSync(path.join(root, ".jobs")).length === 1; },
+    });
+    expect(sawJobDir).toBe(true);
+    expect(await readdir(path.join(root, ".jobs"))).toEqual([]);
+    expect(await frameKeys(storage, "c-jobs")).toEqual(allFrameNames(120));
   });
 });
 

@@ -112,6 +112,7 @@ describe("probe describes", () => {
     });
     expect(p.durationS).toBeCloseTo(1, 2);
     expect(p.raw.streams?.[0]?.codec_name).toBe("h264");
+    expect(JSON.stringify(p.raw)).not.toContain(dir); // no server paths in what the clip keeps
   });
 
   it("a rotated phone clip with its displayed size", async () => {
