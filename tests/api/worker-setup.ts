@@ -2,12 +2,12 @@
 // environment the server modules read (they parse it lazily, on first use).
 import pg from "pg";
 import { randomBytes } from "node:crypto";
-import { dbUrl, TEMPLATE_DB } from "./global-setup";
+import { dbUrl, templateDb } from "./global-setup";
 
 const name = `loadframe_test_${process.env.VITEST_POOL_ID ?? "0"}_${randomBytes(3).toString("hex")}`;
 const admin = new pg.Client({ connectionString: process.env.PG_ADMIN_URL });
 await admin.connect();
-await admin.query(`create database ${name} template ${TEMPLATE_DB}`);
+await admin.query(`create database ${name} template ${templateDb()}`);
 await admin.end();
 
 process.env.DATABASE_URL = dbUrl(name);
