@@ -68,15 +68,25 @@ const consoleLogger: MediaLogger = {
 };
 
 // Children run in their own process group so a kill also reaches anything they started; that
-// means Node's own exit no longer takes them along, so this does it.
+// means a dying Node no longer takes them along, so this does it: on exit, and on the usual
+// stop signals (re-raised afterwards when nobody else handles them, so Node still stops).
 const liveGroups = new Set<number>();
 let exitHookInstalled = false;
+const killAll = () => {
+  for (const g of liveGroups) killGroup(g, "SIGKILL");
+};
 function trackGroup(pid: number) {
   if (!exitHookInstalled) {
     exitHookInstalled = true;
-    process.once("exit", () => {
-      for (const g of liveGroups) killGroup(g, "SIGKILL");
-    });
+    process.once("exit", killAll);
+    for (const sig of ["SIGINT", "SIGTERM", "SIGHUP"] as const) {
+      const onSignal = () => {
+        killAll();
+        process.removeListener(sig, onSignal);
+        if (process.listenerCount(sig) === 0) process.kill(process.pid, sig);
+      };
+      process.on(sig, onSignal);
+    }
   }
   liveGroups.add(pid);
 }

@@ -1,7 +1,8 @@
 // The wrapper's guarantees, checked with shell scripts standing in for ffmpeg (they sleep, hang,
 // crash or complain on cue) plus one real ffmpeg run.
 import { existsSync } from "node:fs";
-import { mkdir, readdir, utimes } from "node:fs/promises";
+import { execa } from "execa";
+import { mkdir, readdir, readFile, utimes, writeFile } from "node:fs/promises";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { buildFfmpegArgs } from "../../../server/media/command";
@@ -134,6 +135,30 @@ describe("runTool", () => {
     expect(frames.at(-1)).toBe(90);
     expect(frames).toEqual([...frames].sort((a, b) => a - b));
   });
+});
+
+describe("a worker stopped by SIGTERM", () => {
+  it("takes its ffmpeg children (and theirs) along", async () => {
+    const pidFile = path.join(dir, "child.pid");
+    const tool = await standIn(dir, "long.sh", `sleep 60 &\necho $! > ${pidFile}\nwait`);
+    const worker = path.join(dir, "worker.mts");
+    const wrapper = path.resolve("server/media/ffmpeg.ts");
+    await writeFile(
+      worker,
+      `import { runTool } from ${JSON.stringify(wrapper)};\n` +
+        `await runTool({ ffmpegPath: ${JSON.stringify(tool)}, ffprobePath: "ffprobe", niceness: 0 }, { tool: "ffmpeg", args: [], timeoutMs: 60000 });\n`,
+    );
+    const sub = execa("node", ["--import", "tsx", worker], { reject: false });
+    for (let i = 0; i < 100 && !existsSync(pidFile); i++) await new Promise((r) => setTimeout(r, 100));
+    const grandchild = Number((await readFile(pidFile, "utf8")).trim());
+    sub.kill("SIGTERM");
+    const r = await sub;
+    expect(r.signal).toBe("SIGTERM"); // Node still stops the usual way
+    await new Promise((res) => setTimeout(res, 200));
+    // Gone, or a zombie waiting for init to reap it (state Z in /proc/<pid>/stat, proc(5)).
+    const stat = await readFile(`/proc/${grandchild}/stat`, "utf8").catch(() => "");
+    expect(stat === "" || stat.split(") ")[1]?.startsWith("Z")).toBe(true);
+  }, 20_000);
 });
 
 describe("job folders", () => {
