@@ -1,9 +1,10 @@
 import { randomUUID } from "node:crypto";
 import type { RequestHandler } from "express";
 import pino from "pino";
-import { env } from "./env";
 
-export const log = pino({ level: process.env.LOG_LEVEL ?? env().LOG_LEVEL, base: { svc: process.env.LF_PROCESS ?? "web" } });
+// Reads LOG_LEVEL itself (not the whole validated env) so that importing a module that logs never
+// requires a database URL — tools and tests import server code without one.
+export const log = pino({ level: process.env.LOG_LEVEL ?? "info", base: { svc: process.env.LF_PROCESS ?? "web" } });
 
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
