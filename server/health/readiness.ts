@@ -8,6 +8,7 @@ import { db } from "../db/client";
 import { env } from "../env";
 import { runTool } from "../media/ffmpeg";
 import { storage } from "../clips/deps";
+import { StorageError } from "../storage";
 import { jobPolicies } from "../jobs/types";
 
 /** Waiting and running jobs; fails when pg-boss has not installed its schema or our queues. */
@@ -31,7 +32,11 @@ export async function checkStorage(): Promise<string> {
   const st = storage();
   const key = `health/probe-${randomUUID()}`;
   const body = Buffer.from("ok");
-  await st.putStream(key, Readable.from([body]), { contentType: "text/plain" });
+  await st.putStream(key, Readable.from([body]), { contentType: "text/plain" }).catch((err) => {
+    // A read-only disk surfaces from mkdir -p as ENOENT ("not found"), which would mislead here.
+    if (err instanceof StorageError && err.code === "not_found") throw new Error(`cannot write to the storage (${st.kind === "local" ? "its folder is read-only, missing or not permitted" : "bucket refused the write"})`);
+    throw err;
+  });
   try {
     if (!(await st.exists(key))) throw new Error("an object just written cannot be found");
   } finally {
