@@ -16,8 +16,10 @@ export interface NavItem {
 export const navItems: readonly NavItem[] = [
   { to: "/clips", label: "Clips", description: "Upload high-frame-rate shot clips and follow each one from upload to frames ready for digitising." },
   { to: "/sticks", label: "Stick lab", description: "Log sticks, run three-point bench flex tests and keep each stick's stiffness history." },
-  { to: "/progress", label: "Progress", description: "Follow one player's puck exit speed, blade speed and timing across sessions." },
-  { to: "/compare", label: "Side by side", description: "Put two shots next to each other, synced at puck strike." },
+  { to: "/readout", label: "Shots", description: "Find a shot and open its readout: results with their uncertainty, the phase timeline, charts and the PDF report." },
+  { to: "/compare", label: "Side by side", description: "Put two shots next to each other, synced at puck strike, and see which loaded the stick longer and released faster." },
+  { to: "/progress", label: "Progress", description: "Follow one player's puck exit speed, blade speed and timing across sessions, with best and typical values." },
+  { to: "/settings", label: "Settings", description: "Choose your units (metric or imperial) and which e-mails you get." },
   { to: "/roster", label: "Roster", description: "Invite members, set their roles and manage pending invitations.", roles: ["admin"] },
   { to: "/audit", label: "Audit log", description: "See who changed roles, sent invitations, deleted clips, shots or sticks, and shared shots.", roles: ["admin"] },
 ];

@@ -25,24 +25,12 @@ export const signedInRoutes: RouteObject[] = [
       { path: ":stickId/beam", handle: { title: "Beam model" }, lazy: () => import("@/features/sticklab/routes/BeamPage") },
     ],
   },
-  {
-    path: "progress",
-    handle: { title: "Progress" },
-    element: (
-      <ComingNext title="Progress">
-        One player's results over sessions: puck exit speed, blade speed at strike, peak bend and timing, each with its uncertainty.
-      </ComingNext>
-    ),
-  },
-  {
-    path: "compare",
-    handle: { title: "Side by side" },
-    element: (
-      <ComingNext title="Side by side">
-        Two shots next to each other, synced at puck strike, with their numbers lined up so the differences are easy to see.
-      </ComingNext>
-    ),
-  },
+  // Shot readout, side by side, progress and one's own settings (src/features/readout, compare, progress, settings).
+  { path: "readout", handle: { title: "Shots" }, lazy: () => import("@/features/readout/routes/ShotsPage") },
+  { path: "readout/:shotId", handle: { title: "Shot readout" }, lazy: () => import("@/features/readout/routes/ReadoutPage") },
+  { path: "compare", handle: { title: "Side by side" }, lazy: () => import("@/features/compare/routes/ComparePage") },
+  { path: "progress", handle: { title: "Progress" }, lazy: () => import("@/features/progress/routes/ProgressPage") },
+  { path: "settings", handle: { title: "Settings" }, lazy: () => import("@/features/settings/routes/SettingsPage") },
   { path: "roster", handle: { title: "Roster" }, lazy: () => import("@/features/roster/routes/RosterPage") },
   { path: "*", handle: { title: "Not found" }, element: <NotFound /> },
 ];

@@ -15,7 +15,7 @@ export interface XY {
   y: number;
 }
 
-/** Round tick values covering [lo, hi]: steps of 1, 2 or 5 × 10ⁿ, about `count` of them. */
+/** Round tick values covering [lo, hi]: steps of 1, 2 or 5 × 10ⁿ, about `count` intervals. */
 export function niceTicks(lo: number, hi: number, count = 5): number[] {
   if (!Number.isFinite(lo) || !Number.isFinite(hi)) return [];
   if (hi === lo) {
@@ -24,11 +24,12 @@ export function niceTicks(lo: number, hi: number, count = 5): number[] {
   }
   const raw = (hi - lo) / Math.max(1, count);
   const mag = 10 ** Math.floor(Math.log10(raw));
-  const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
+  // The 1-2-5 step nearest the raw one (on a log scale), so the count stays close to the one asked.
+  const step = [1, 2, 5, 10].map((m) => m * mag).reduce((b, s) => (Math.abs(Math.log(s / raw)) < Math.abs(Math.log(b / raw)) ? s : b));
   const first = Math.floor(lo / step) * step;
   const out: number[] = [];
-  for (let v = first; v <= hi + step * 1e-9; v += step) out.push(Math.round(v / step) * step);
-  if (out[out.length - 1] < hi - step * 1e-9) out.push(out[out.length - 1] + step);
+  for (let v = first; v <= hi + step * 1e-9; v += step) out.push(Number((Math.round(v / step) * step).toPrecision(12)));
+  if (out[out.length - 1] < hi - step * 1e-9) out.push(Number((out[out.length - 1] + step).toPrecision(12)));
   return out.map((v) => (Math.abs(v) < step * 1e-9 ? 0 : v));
 }
 

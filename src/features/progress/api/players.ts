@@ -1,0 +1,12 @@
+import { queryOptions, useQuery } from "@tanstack/react-query";
+import { apiGet } from "@/lib/api";
+import type { PlayersResponse } from "@shared/schemas/readout";
+
+/** GET /api/teams/:teamId/readout/players — staff: the team's players; a player: only themself. */
+export const playersQueryOptions = (teamId: string) =>
+  queryOptions({
+    queryKey: ["teams", teamId, "readout", "players"],
+    queryFn: ({ signal }) => apiGet<PlayersResponse>(`/teams/${encodeURIComponent(teamId)}/readout/players`, undefined, signal),
+  });
+
+export const usePlayers = (teamId: string) => useQuery(playersQueryOptions(teamId));

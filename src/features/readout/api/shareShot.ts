@@ -1,0 +1,16 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { apiPost } from "@/lib/api";
+import type { ShareResponse, ShareShotBody } from "@shared/schemas/readout";
+import { readoutKey } from "./keys";
+
+/** POST /api/teams/:teamId/readout/shots/:shotId/shares — coach or team admin. */
+export const shareShot = (teamId: string, shotId: string, body: ShareShotBody) =>
+  apiPost<ShareResponse>(`/teams/${encodeURIComponent(teamId)}/readout/shots/${encodeURIComponent(shotId)}/shares`, body);
+
+export function useShareShot(teamId: string, shotId: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (body: ShareShotBody) => shareShot(teamId, shotId, body),
+    onSettled: () => qc.invalidateQueries({ queryKey: readoutKey(teamId) }),
+  });
+}

@@ -1,0 +1,159 @@
+import { useState } from "react";
+import { useParams } from "react-router-dom";
+import { Alert, Badge, Button, ButtonLink, Card, EmptyState, PageHeader, PageSpinner } from "@/components/ui";
+import { digitiseUrl } from "@/components/shot/frames";
+import { useTeamFromLink } from "@/components/shot/useTeamFromLink";
+import { errorMessage, isApiError } from "@/lib/api";
+import { formatDate } from "@/lib/format";
+import { useActiveTeam } from "@/lib/session";
+import { useUnits } from "@/lib/units";
+import { noteMetric, shotTitle, shotTypeLabels, type ShotReadout } from "@shared/schemas/readout";
+import { useReadout } from "../api/readout";
+import { ExportButtons } from "../components/ExportButtons";
+import { PhaseTimeline } from "../components/PhaseTimeline";
+import { ResultCards } from "../components/ResultCards";
+import { ShareDialog } from "../components/ShareDialog";
+import { ShotCharts } from "../components/ShotCharts";
+
+/** /readout/:shotId — the numbers, charts and event frames of one shot. */
+export function Component() {
+  const { shotId = "" } = useParams();
+  const team = useActiveTeam();
+  const switching = useTeamFromLink();
+  const q = useReadout(team?.id ?? "", shotId, !!team && !switching);
+  if (!team) return <EmptyState title="No team yet">When a team admin invites you, your team's shots show here.</EmptyState>;
+  if (switching || q.isPending) return <PageSpinner label="Loading the shot…" />;
+  if (q.isError) return <ReadoutError error={q.error} retry={() => q.refetch()} />;
+  return <Readout teamId={team.id} teamName={team.name} r={q.data} />;
+}
+
+function ReadoutError({ error, retry }: { error: unknown; retry: () => void }) {
+  const back = <ButtonLink to="/readout">See all shots</ButtonLink>;
+  if (isApiError(error) && error.status === 410)
+    return (
+      <EmptyState title="This shot was deleted" action={back}>
+        {error.detail}
+      </EmptyState>
+    );
+  if (isApiError(error) && error.status === 404)
+    return (
+      <EmptyState title="Shot not found" action={back}>
+        {error.detail}
+      </EmptyState>
+    );
+  return (
+    <Alert tone="danger" title="Couldn't load the shot">
+      <p>{errorMessage(error)}</p>
+      <Button variant="secondary" size="sm" className="mt-3" onClick={retry}>
+        Try again
+      </Button>
+    </Alert>
+  );
+}
+
+function Readout({ teamId, teamName, r }: { teamId: string; teamName: string; r: ShotReadout }) {
+  const { system } = useUnits();
+  const [sharing, setSharing] = useState(false);
+  const title = shotTitle(r.shot);
+  const meta = [r.shot.playerName ?? "No player set", shotTypeLabels[r.shot.shotType], formatDate(r.shot.date), r.shot.venue, r.shot.stickLabel && `Stick ${r.shot.stickLabel}`]
+    .filter(Boolean)
+    .join(" · ");
+  const general = r.results?.notes.filter((n) => noteMetric(n.code) === null) ?? [];
+  return (
+    <>
+      <PageHeader
+        eyebrow={`Shot readout · ${teamName}`}
+        title={title}
+        description={
+          <>
+            {meta}
+            <span className="mt-1 block text-sm text-ink-faint">
+              {r.clip.captureFps.toLocaleString()} fps capture · {r.clip.calibration === "plane" ? "plane calibration" : r.clip.calibration === "scaleBar" ? "scale-bar calibration" : "not calibrated"} · frames {r.shot.frameStart}–{r.shot.frameEnd}
+            </span>
+          </>
+        }
+        actions={
+          <>
+            <ButtonLink size="sm" to={`/compare?a=${r.shot.id}`}>
+              Compare side by side
+            </ButtonLink>
+            <ButtonLink size="sm" to={digitiseUrl(r.clip.id, r.shot.id)}>
+              {r.can.edit ? "Open in Digitise" : "See the marks"}
+            </ButtonLink>
+            {r.can.share && (
+              <Button size="sm" variant="secondary" onClick={() => setSharing(true)}>
+                Share…
+              </Button>
+            )}
+          </>
+        }
+      />
+      <div className="mb-6 flex flex-wrap items-center justify-between gap-3">
+        <SharedLine r={r} />
+        <ExportButtons teamId={teamId} shotId={r.shot.id} units={system} hasResults={!!r.results} />
+      </div>
+
+      {r.results ? (
+        <div className="flex flex-col gap-6">
+          {r.stale && <Alert tone="warn">These results come from an earlier version of the marks; they are recomputed when the marks are saved again.</Alert>}
+          <ResultCards results={r.results} units={system} stick={r.stick} />
+          {general.length > 0 && (
+            <Alert tone="warn" title="Check before acting on these numbers">
+              <ul className="list-disc pl-5">
+                {general.map((n) => (
+                  <li key={n.code}>{n.message}</li>
+                ))}
+              </ul>
+            </Alert>
+          )}
+          <PhaseTimeline teamId={teamId} readout={r} />
+          <ShotCharts readout={r} results={r.results} units={system} />
+          <p className="text-sm text-ink-faint">
+            Values are ± one standard uncertainty ({r.results.uncertainty.trials} Monte Carlo trials at {r.results.uncertainty.pixelErrorPx} px per mark); times are good to one frame
+            ({r.results.frameTimeMs.toFixed(2)} ms at {r.clip.captureFps.toLocaleString()} fps). Computed {r.computedAt ? formatDate(r.computedAt) : ""} by {r.results.engineVersion}.
+          </p>
+        </div>
+      ) : (
+        <div className="flex flex-col gap-6">
+          <Card title="No results yet">
+            <p className="text-ink" data-testid="missing">
+              {r.missing}
+            </p>
+            <p className="mt-2 text-sm text-ink-muted">
+              {r.can.edit
+                ? "Open the shot on the Digitise page to add what is missing; the results appear here as soon as the marks are saved."
+                : "Your analyst is still digitising this shot; the results appear here once it is done."}
+            </p>
+            {r.can.edit && (
+              <ButtonLink className="mt-4" variant="primary" to={digitiseUrl(r.clip.id, r.shot.id)}>
+                Continue digitising
+              </ButtonLink>
+            )}
+          </Card>
+          <PhaseTimeline teamId={teamId} readout={r} />
+        </div>
+      )}
+      {r.can.share && <ShareDialog key={String(sharing)} teamId={teamId} readout={r} open={sharing} onClose={() => setSharing(false)} />}
+    </>
+  );
+}
+
+function SharedLine({ r }: { r: ShotReadout }) {
+  if (!r.shares.length) return <span className="text-sm text-ink-faint">{r.can.share ? "Not shared yet." : ""}</span>;
+  if (!r.can.share) {
+    const mine = r.shares[0];
+    return (
+      <span className="flex items-center gap-2 text-sm text-ink-muted">
+        <Badge tone="accent">Shared with you</Badge>
+        {mine.sharedByName ? `by ${mine.sharedByName}, ` : ""}
+        {formatDate(mine.sharedAt)}
+      </span>
+    );
+  }
+  return (
+    <span className="flex flex-wrap items-center gap-2 text-sm text-ink-muted">
+      <Badge tone="accent">Shared</Badge>
+      with {r.shares.map((s) => s.name).join(", ")}
+    </span>
+  );
+}

@@ -1,0 +1,108 @@
+import { useMemo, useState } from "react";
+import { useNavigate } from "react-router-dom";
+import { Alert, Button, ButtonLink, Card, EmptyState, PageHeader, PageSpinner, Select } from "@/components/ui";
+import { errorMessage } from "@/lib/api";
+import { isStaff } from "@/lib/roles";
+import { useActiveTeam } from "@/lib/session";
+import { useUnits } from "@/lib/units";
+import { SHOT_TYPES, shotTypeLabels, type ShotType } from "@shared/schemas/readout";
+import { useShots } from "../api/shots";
+import { ShotsTable } from "../components/ShotsTable";
+
+/** /readout — the shots one may see (staff: the team's; a player: own and shared), to open or compare. */
+export function Component() {
+  const team = useActiveTeam();
+  if (!team) return <EmptyState title="No team yet">When a team admin invites you, your team's shots show here.</EmptyState>;
+  return <Shots teamId={team.id} teamName={team.name} staff={isStaff(team.role)} />;
+}
+
+function Shots({ teamId, teamName, staff }: { teamId: string; teamName: string; staff: boolean }) {
+  const q = useShots(teamId, {});
+  const { system } = useUnits();
+  const navigate = useNavigate();
+  const [player, setPlayer] = useState("");
+  const [stick, setStick] = useState("");
+  const [type, setType] = useState<"" | ShotType>("");
+  const [selected, setSelected] = useState<string[]>([]);
+  const shots = useMemo(
+    () => (q.data?.shots ?? []).filter((s) => (!player || s.playerId === player) && (!stick || s.stickId === stick) && (!type || s.shotType === type)),
+    [q.data, player, stick, type],
+  );
+  const toggle = (id: string) => setSelected((s) => (s.includes(id) ? s.filter((x) => x !== id) : [...s, id].slice(-2)));
+
+  const header = (
+    <PageHeader
+      eyebrow={teamName}
+      title="Shots"
+      description={staff ? "Every digitised shot of the team. Open one for its readout, or tick two to put them side by side." : "Your shots and the ones your coaches shared with you. Open one for its readout, or tick two to compare them."}
+      actions={
+        <Button disabled={selected.length !== 2} onClick={() => navigate(`/compare?a=${selected[0]}&b=${selected[1]}`)}>
+          {selected.length === 2 ? "Compare the two ticked" : `Tick two shots to compare (${selected.length}/2)`}
+        </Button>
+      }
+    />
+  );
+  if (q.isPending) return <>{header}<PageSpinner label="Loading shots…" /></>;
+  if (q.isError)
+    return (
+      <>
+        {header}
+        <Alert tone="danger" title="Couldn't load the shots">
+          <p>{errorMessage(q.error)}</p>
+          <Button variant="secondary" size="sm" className="mt-3" onClick={() => q.refetch()}>
+            Try again
+          </Button>
+        </Alert>
+      </>
+    );
+  if (!q.data.shots.length)
+    return (
+      <>
+        {header}
+        <EmptyState title="No shots yet" action={staff ? <ButtonLink variant="primary" to="/clips">Go to Clips</ButtonLink> : undefined}>
+          {staff
+            ? "To get the first shot: upload a high-frame-rate clip in Clips, wait until its frames are ready, then add a shot to it and digitise the puck, blade and hands with the events. Its readout appears here."
+            : "When your analyst digitises one of your shots, or a coach shares a shot with you, it shows here with its readout."}
+        </EmptyState>
+      </>
+    );
+
+  return (
+    <>
+      {header}
+      <Card flush>
+        <div className="flex flex-wrap items-end gap-3 border-b border-line px-5 py-4">
+          {staff && (
+            <Filter label="Player" value={player} onChange={setPlayer} options={q.data.players.map((p) => [p.id, p.name])} all="All players" />
+          )}
+          <Filter label="Stick" value={stick} onChange={setStick} options={q.data.sticks.map((s) => [s.id, s.label])} all="All sticks" />
+          <Filter label="Shot type" value={type} onChange={(v) => setType(v as "" | ShotType)} options={SHOT_TYPES.map((t) => [t, shotTypeLabels[t]])} all="All types" />
+          <p className="ml-auto text-sm text-ink-muted">
+            {shots.length} of {q.data.shots.length} shots
+          </p>
+        </div>
+        {shots.length ? (
+          <ShotsTable shots={shots} units={system} showPlayer={staff} selected={selected} onToggle={toggle} />
+        ) : (
+          <p className="px-5 py-8 text-center text-sm text-ink-muted">No shot matches these filters.</p>
+        )}
+      </Card>
+    </>
+  );
+}
+
+function Filter({ label, value, onChange, options, all }: { label: string; value: string; onChange: (v: string) => void; options: [string, string][]; all: string }) {
+  return (
+    <label className="flex flex-col gap-1 text-sm font-medium text-ink">
+      {label}
+      <Select compact value={value} onChange={(e) => onChange(e.target.value)} className="min-w-44">
+        <option value="">{all}</option>
+        {options.map(([v, l]) => (
+          <option key={v} value={v}>
+            {l}
+          </option>
+        ))}
+      </Select>
+    </label>
+  );
+}

@@ -1,0 +1,54 @@
+// Export formats: CSV quoting by RFC 4180 §2 [P] (a field with a comma, a double quote or a line
+// break is enclosed in double quotes; a double quote inside is doubled), read back with csv-parse
+// as the reference reader; the PDF's chart ticks; the ASCII file names.
+import { describe, expect, it } from "vitest";
+import { parse } from "csv-parse/sync";
+import { csvField, csvLines, marksCsv } from "../../../server/readout/csv";
+import { fileStem } from "../../../server/readout/exports";
+import { linePath, niceTicks, thin } from "../../../server/readout/pdf/chart-geometry";
+
+describe("CSV", () => {
+  it("quotes only what needs quoting, and csv-parse reads it back unchanged", () => {
+    expect(csvField("plain")).toBe("plain");
+    expect(csvField('Theo "the cannon"')).toBe('"Theo ""the cannon"""');
+    expect(csvField("a,b")).toBe('"a,b"');
+    expect(csvField(null)).toBe("");
+    expect(csvField(Number.NaN)).toBe("");
+    const cells = [["label", "note"], ["Slap, point", 'said "fast"\nthen left'], ["x", 1.5]];
+    const text = csvLines(cells);
+    expect(text.endsWith("\r\n")).toBe(true);
+    expect(parse(text)).toEqual(cells.map((r) => r.map(String)));
+  });
+
+  it("marks: time from the capture rate, world position from the scale bar, blank when uncalibrated", () => {
+    const marks = { puck: [[11, 120, 50]] as [number, number, number][], bladeHeel: [[10, 100, 50]] as [number, number, number][] };
+    const cal = { type: "scaleBar" as const, a: [100, 50] as [number, number], b: [110, 50] as [number, number], lengthMm: 20, lengthUnit: "mm" as const };
+    const rows = parse(marksCsv({ marks, captureFps: 2000, frameStart: 1, puckStrike: 11, calibration: cal, units: "metric" }), { columns: true }) as Record<string, string>[];
+    // Sorted by frame: the heel (frame 10) first. 9 frames at 2000 fps = 4.5 ms; 2 mm per px.
+    expect(rows.map((r) => r.landmark)).toEqual(["Blade heel", "Puck"]);
+    expect(rows[0]).toMatchObject({ frame: "10", time_ms: "4.5", time_from_puck_strike_ms: "-0.5", x_mm: "0", y_mm: "0" });
+    expect(rows[1]).toMatchObject({ x_px: "120", x_mm: "40", y_mm: "0" });
+    const bare = parse(marksCsv({ marks, captureFps: 2000, frameStart: 1, puckStrike: null, calibration: null, units: "imperial" }), { columns: true }) as Record<string, string>[];
+    expect(bare[1]).toMatchObject({ time_from_puck_strike_ms: "", x_in: "", y_in: "" });
+  });
+
+  it("file names are plain ASCII", () => {
+    expect(fileStem("Theo's gamer — 85 flex · 2026-03-02", "abcdef12-…")).toBe("theo-s-gamer-85-flex-2026-03-02");
+    expect(fileStem("—", "abcdef1234")).toBe("shot-abcdef12");
+  });
+});
+
+describe("report chart geometry", () => {
+  it("round ticks of 1, 2 or 5 × 10ⁿ that cover the range", () => {
+    expect(niceTicks(0, 100, 5)).toEqual([0, 20, 40, 60, 80, 100]);
+    expect(niceTicks(-57.5, 67.2, 6)).toEqual([-60, -40, -20, 0, 20, 40, 60, 80]);
+    expect(niceTicks(0.1, 0.9, 4)).toEqual([0, 0.2, 0.4, 0.6, 0.8, 1]);
+  });
+
+  it("paths break at gaps; thinning keeps both ends", () => {
+    expect(linePath([{ x: 0, y: 0 }, { x: 1, y: Number.NaN }, { x: 2, y: 2 }, { x: 3, y: 3 }])).toBe("M0.00 0.00 M2.00 2.00 L3.00 3.00");
+    const t = thin(Array.from({ length: 1000 }, (_, i) => i), 10);
+    expect(t).toHaveLength(10);
+    expect([t[0], t[9]]).toEqual([0, 999]);
+  });
+});
