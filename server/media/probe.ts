@@ -137,6 +137,35 @@ async function looksLikeIsoBmff(file: string): Promise<boolean> {
   }
 }
 
+/**
+ * Whether a top-level ISO-BMFF box claims more bytes than the file has: an MP4/MOV cut off after
+ * its index (moov first) still probes fine, but its last frames are missing. Box header per
+ * ISO/IEC 14496-12 §4.2: 32-bit size (1 = 64-bit size follows, 0 = to the end), 4-char type.
+ */
+export async function isoBoxesOverrun(file: string, fileSize: number): Promise<boolean> {
+  const fh = await open(file, "r");
+  try {
+    const head = Buffer.alloc(16);
+    let pos = 0;
+    for (let i = 0; i < 10_000 && pos + 8 <= fileSize; i++) {
+      const { bytesRead } = await fh.read(head, 0, 16, pos);
+      if (bytesRead < 8) return true;
+      let size = head.readUInt32BE(0);
+      if (size === 1) {
+        if (bytesRead < 16) return true;
+        size = Number(head.readBigUInt64BE(8));
+      } else if (size === 0) {
+        return false;
+      }
+      if (size < 8) return false; // not a box structure we can follow; leave it to ffmpeg
+      pos += size;
+    }
+    return pos > fileSize;
+  } finally {
+    await fh.close();
+  }
+}
+
 const mp = (px: number) => `${(px / 1e6).toFixed(1)} MP`;
 const isInputFailure = (err: unknown) =>
   err instanceof FfmpegError && (err.kind === "invalid_data" || err.kind === "failed");
@@ -178,6 +207,12 @@ export async function probe(config: MediaConfig, file: string, o: ProbeOptions =
     );
   }
 
+  if (/\bmov\b|\bmp4\b/.test(raw.format?.format_name ?? "") && (await isoBoxesOverrun(file, size))) {
+    throw new MediaInputError(
+      "truncated_file",
+      "This MP4/MOV file is incomplete: it ends before the end of its video data, which usually means the copy or upload was cut off. Copy the clip from the camera again and upload the whole file.",
+    );
+  }
   // The server's temp path of the upload is no business of the clip's record.
   if (raw.format) delete raw.format.filename;
   const streams = raw.streams ?? [];

@@ -54,6 +54,15 @@ describe("probe rejects", () => {
     await expectCode(f, "truncated_file", /incomplete.*moov/);
   });
 
+  it("a truncated MP4 with its index first (faststart): the index promises more than the file holds", async () => {
+    const fast = await makeClip(dir, "fast.mp4", { frames: 90, extra: ["-movflags", "+faststart"] });
+    const bytes = await readFile(fast);
+    const f = path.join(dir, "fast-cut.mp4");
+    await writeFile(f, bytes.subarray(0, Math.floor(bytes.length * 0.6)));
+    await expectCode(f, "truncated_file", /incomplete: it ends before the end of its video data/);
+    await expect(probe(media, fast)).resolves.toMatchObject({ frameCount: 90 });
+  });
+
   it("audio only", async () => {
     const f = path.join(dir, "tone.m4a");
     await ffmpeg(["-f", "lavfi", "-i", "sine=frequency=440:duration=1", "-c:a", "aac", f]);
