@@ -1,24 +1,19 @@
 // clip.extract: every frame of a stored original into storage, with live progress on the row.
 // Deterministic failures end the clip as failed (no retry); anything else is thrown so pg-boss
 // retries with backoff. Frames are keyed by index, so a retry overwrites, never duplicates.
-import { createWriteStream } from "node:fs";
-import { link, mkdir, rename, rm } from "node:fs/promises";
-import path from "node:path";
-import { pipeline } from "node:stream/promises";
 import sharp from "sharp";
 import type pino from "pino";
 import { env } from "../env";
-import { extractFrames, type ExtractProbe } from "../media/extract";
-import { withJobDir } from "../media/ffmpeg";
+import type { ExtractProbe } from "../media/extract";
+import { extractClipFrames } from "../media/ingest";
 import { isRetryable } from "../media/errors";
-import { clipKeys, frameIndexOf } from "../storage";
+import { clipKeys } from "../storage";
 import { mediaConfig, storage } from "../clips/deps";
 import { clipById, setProgress, updateClip, type ClipRow } from "../clips/repository";
 import { notifyClipDone } from "../clips/notify";
 
 /** Written beside the frames; the clips table shows it. */
 export const thumbnailKey = (clipId: string) => `${clipKeys.prefix(clipId)}thumb.jpg`;
-const PROGRESS_EVERY_MS = 250;
 
 class ClipGone extends Error {}
 
@@ -73,68 +68,57 @@ async function extractInto(row: ClipRow, run: ExtractRun) {
   const abort = new AbortController();
   const stop = () => abort.abort();
   run.signal?.addEventListener("abort", stop, { once: true });
-  // A heartbeat on the row while nothing else moves it (downloading the original), so the
-  // sweep can tell a slow job from a dead worker.
+  // Progress goes to the row in order; a row gone (clip deleted) stops the extraction. The
+  // heartbeat moves the row while nothing else does (downloading the original), so the sweep
+  // can tell a slow job from a dead worker.
   let framesDone = 0;
-  const beat = setInterval(() => void setProgress(row.id, framesDone).then((alive) => alive || abort.abort()), 20_000);
-  await withJobDir(mediaConfig(), `clip-${row.id}`, async (dir) => {
-    const originalKey = clipKeys.original(row.id);
-    let input = st.localPath(originalKey);
-    if (!input) {
-      input = path.join(dir, "original");
-      await pipeline((await st.get(originalKey)).body, createWriteStream(input));
-    }
-    let lastWrite = 0;
-    const result = await extractFrames(mediaConfig(), {
-      input,
-      probe,
-      outDir: dir,
-      format,
-      quality: e.FRAME_QUALITY,
-      signal: abort.signal,
-      onFrameReady: async (index, file) => {
-        if (index === 1) await st.putStream(thumbnailKey(row.id), sharp(file).resize({ width: 240 }).jpeg({ quality: 80 }), { contentType: "image/jpeg" });
-        await putFrame(clipKeys.frame(row.id, index, format), file, format);
-        if (index === 1) run.onFirstFrame?.();
-        framesDone = index;
-        const now = Date.now();
-        if (index === 1 || now - lastWrite >= PROGRESS_EVERY_MS) {
-          lastWrite = now;
-          if (!(await setProgress(row.id, index))) throw new ClipGone();
-        }
-      },
+  let writes = Promise.resolve();
+  const record = () => {
+    const n = framesDone;
+    writes = writes.then(async () => {
+      if (!(await setProgress(row.id, n))) abort.abort();
     });
-    if (result.stripPath) await st.putFile(clipKeys.strip(row.id), result.stripPath, { move: true, contentType: "image/jpeg" });
-    // An earlier attempt on other settings may have left more frames: keep exactly 1..frameCount.
-    for (const o of await st.list(clipKeys.framesPrefix(row.id))) {
-      const n = frameIndexOf(o.key);
-      if (n === null || n > result.frameCount || !o.key.endsWith(`.${format}`)) await st.delete(o.key);
-    }
-    const done = await updateClip(row.id, { frameCount: result.frameCount, framesDone: result.frameCount, frameTimes: result.frameTimes });
-    if (!done) throw new ClipGone();
-  }).finally(() => {
+  };
+  const beat = setInterval(record, 20_000);
+  let thumbnail: Promise<void> | undefined;
+  try {
+    const result = await extractClipFrames(
+      { media: mediaConfig(), storage: st },
+      {
+        clipId: row.id,
+        probe,
+        format,
+        quality: e.FRAME_QUALITY,
+        signal: abort.signal,
+        onProgress: (p) => {
+          framesDone = p.framesDone;
+          if (framesDone >= 1 && !thumbnail) {
+            run.onFirstFrame?.();
+            thumbnail = makeThumbnail(row.id, format).catch((err) => run.log.warn({ err, clipId: row.id }, "no thumbnail"));
+          }
+          record();
+        },
+      },
+    );
+    await thumbnail;
+    await writes;
+    if (!(await updateClip(row.id, { frameCount: result.frameCount, framesDone: result.frameCount, frameTimes: result.frameTimes }))) throw new ClipGone();
+  } catch (err) {
+    await writes.catch(() => undefined);
+    if (abort.signal.aborted && !run.signal?.aborted) throw new ClipGone();
+    throw err;
+  } finally {
     clearInterval(beat);
     run.signal?.removeEventListener("abort", stop);
-  });
+  }
 }
 
-/**
- * The media wrapper counts the frames left in its folder at the end, so frames are linked (local
- * disk: no bytes copied) or copied into storage, never moved. A link to a temp name renamed over
- * the key keeps a frame either absent or complete, also when a retry rewrites it.
- */
-async function putFrame(key: string, file: string, format: "jpg" | "webp") {
+/** A small picture of frame 1 for the clips table. */
+async function makeThumbnail(clipId: string, format: "jpg" | "webp") {
   const st = storage();
-  const dest = st.localPath(key);
-  if (!dest) {
-    await st.putFile(key, file, { contentType: format === "jpg" ? "image/jpeg" : "image/webp" });
-    return;
-  }
-  await mkdir(path.dirname(dest), { recursive: true });
-  const tmp = `${dest}.${process.pid}.link`;
-  await rm(tmp, { force: true });
-  await link(file, tmp);
-  await rename(tmp, dest);
+  const frame = await st.get(clipKeys.frame(clipId, 1, format));
+  const small = frame.body.pipe(sharp().resize({ width: 240 }).jpeg({ quality: 80 }));
+  await st.putStream(thumbnailKey(clipId), small, { contentType: "image/jpeg" });
 }
 
 async function finishReady(row: ClipRow, notify: boolean): Promise<boolean> {
