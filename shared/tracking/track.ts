@@ -53,7 +53,7 @@ export async function track(request: TrackRequest, onProgress?: (p: TrackProgres
     let last = { x: start.x, y: start.y };
     let firstScore: number | null = null;
     const frameAt = (k: number) => start.frame + direction * k;
-    const ahead = createPrefetcher(frames, frameAt, total, PREFETCH_DEPTH, signal);
+    const ahead = createPrefetcher(frames, frameAt, total, Math.max(0, Math.min(16, Math.floor(frames.prefetch ?? PREFETCH_DEPTH))), signal);
 
     let lastPause = Date.now();
     for (let k = 1; k <= total; k++) {

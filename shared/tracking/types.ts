@@ -13,6 +13,8 @@ export interface GrayFrame {
 export interface FrameSource {
   readonly length: number;
   frame(index: number, signal?: AbortSignal): Promise<GrayFrame>;
+  /** Frames to ask for ahead of the one being matched (default 2); more when decodes run in parallel. */
+  readonly prefetch?: number;
 }
 
 /** A landmark position on one frame. */

@@ -1,7 +1,7 @@
 // A disc (the puck) tracked over 500 noisy frames against its known trajectory.
 // Source of truth: the generator's own formula (support/synthetic-clips.ts, checked in clips.test.ts).
 import { describe, expect, it, vi } from "vitest";
-import { arcClip, lineClip } from "./support/scenarios";
+import { arcClip, growingClip, lineClip } from "./support/scenarios";
 import { expectAccurateThroughout } from "./support/metrics";
 import { trackClip } from "./support/track-clip";
 
@@ -36,5 +36,14 @@ describe("a disc on an arc at 240 fps", () => {
     const { result } = await trackClip(arcClip(240), { maxFrames: 25 });
     expect(result.proposals.map((p) => p.frame)).toEqual(Array.from({ length: 25 }, (_, i) => i + 1));
     expect(result.stop).toMatchObject({ reason: "end-of-range", frame: null });
+  });
+});
+
+describe("a disc that grows from 6 to 13 px radius (coming towards the camera)", () => {
+  it("is followed by renewing the template as its look changes", async () => {
+    const { result, stats } = await trackClip(growingClip());
+    expectAccurateThroughout(result.stop, stats, 500, expect);
+    // Renewed templates keep the score up even though the disc has doubled in size.
+    expect(result.proposals.at(-1)!.confidence).toBeGreaterThan(0.9);
   });
 });

@@ -12,12 +12,17 @@ export function rgbaToGray(rgba: Uint8ClampedArray | Uint8Array, width: number, 
   return { width, height, data };
 }
 
-/** Decodes an image blob to gray pixels (browser or worker: createImageBitmap + OffscreenCanvas). */
+let canvas: OffscreenCanvas | undefined;
+let ctx: OffscreenCanvasRenderingContext2D | null = null;
+
+/** Decodes an image blob to gray pixels (browser or worker: createImageBitmap + one reused OffscreenCanvas). */
 export async function decodeGray(blob: Blob): Promise<GrayFrame> {
   const bitmap = await createImageBitmap(blob, { colorSpaceConversion: "none", premultiplyAlpha: "none" });
   try {
-    const canvas = new OffscreenCanvas(bitmap.width, bitmap.height);
-    const ctx = canvas.getContext("2d", { willReadFrequently: true });
+    if (!canvas || canvas.width !== bitmap.width || canvas.height !== bitmap.height) {
+      canvas = new OffscreenCanvas(bitmap.width, bitmap.height);
+      ctx = canvas.getContext("2d", { willReadFrequently: true });
+    }
     if (!ctx) throw new Error("no 2D canvas context in this worker");
     ctx.drawImage(bitmap, 0, 0);
     return rgbaToGray(ctx.getImageData(0, 0, bitmap.width, bitmap.height).data, bitmap.width, bitmap.height);
@@ -29,6 +34,8 @@ export async function decodeGray(blob: Blob): Promise<GrayFrame> {
 export interface UrlFrameOptions {
   fetch?: typeof fetch;
   decode?: (blob: Blob) => Promise<GrayFrame>;
+  /** Frames fetched and decoded ahead, in parallel (default 2; more can pay on a machine with many cores). */
+  prefetch?: number;
 }
 
 /** Frame i is the image at url(i); a failed answer names the frame and the status. */
@@ -37,6 +44,7 @@ export function urlFrameSource(length: number, url: (index: number) => string, o
   const decode = o.decode ?? decodeGray;
   return {
     length,
+    prefetch: o.prefetch ?? 2,
     async frame(index, signal) {
       const res = await get(url(index), { signal, credentials: "same-origin" });
       if (!res.ok) throw new Error(`frame image ${url(index)} answered ${res.status}`);

@@ -17,6 +17,10 @@ export const arcClip = (fps: number, frames = 500, noise = NOISE) =>
 export const shaftClip = (fps: number, frames = 500, noise = NOISE) =>
   barClip(`shaft-${fps}`, { fps, frames, noise, pivot: { x: 160, y: 120 }, length: 80, thickness: 8, angle0: 0.3, omega: 3, trackAt: 68 });
 
+/** The line's disc growing from 6 to 13 px radius over 500 frames at 240 fps, as if coming closer. */
+export const growingClip = (fps = 240, frames = 500, noise = NOISE) =>
+  discClip(`growing-${fps}`, ballistic(60, 60, 100, 60), { fps, frames, noise, radius: 6, growth: 3.36 });
+
 export const HIDDEN_FROM = 150;
 export const HIDDEN_TO = 159;
 

@@ -46,6 +46,8 @@ export interface ClipOptions {
   /** ffmpeg noise filter strength (alls), temporal; 0 for none. */
   noise?: number;
   radius?: number;
+  /** Radius growth in px per second (a puck coming towards the camera). */
+  growth?: number;
 }
 
 // Everything is drawn in yuv444p, where color, geq, drawbox, rotate and overlay agree on levels
@@ -59,8 +61,10 @@ function spec(name: string, o: ClipOptions, graph: string, truth: (n: number) =>
 
 /** A disc of the given radius (default 10 px) moving along `path`; `extra` filters run before the noise. */
 export function discClip(name: string, path: Path, o: ClipOptions, extra = ""): ClipSpec {
-  const r = o.radius ?? 10;
-  const size = Math.max(SPRITE, 2 * Math.ceil(r + 3));
+  const r0 = o.radius ?? 10;
+  const growth = o.growth ?? 0;
+  const r = growth ? `(${r0}+${growth}*T)` : String(r0);
+  const size = Math.max(SPRITE, 2 * Math.ceil(r0 + growth * (o.frames / o.fps) + 3));
   const half = size / 2;
   const g = path.expr("T");
   const p = path.expr("t");
