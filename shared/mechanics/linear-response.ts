@@ -187,7 +187,8 @@ export function linearState(src: Source, seg: SmoothSegment, i: number, nominalC
   }
   const evd = new EigenvalueDecomposition(C, { assumeSymmetric: true });
   const V = evd.eigenvectorMatrix;
-  const L = V.mulRowVector(evd.realEigenvalues.map((l) => Math.sqrt(Math.max(0, l))));
+  // Noise = L·z with z ~ N(0, I₄), L = V·√Λ (row-major).
+  const L = Float64Array.from(V.mulRowVector(evd.realEigenvalues.map((l) => Math.sqrt(Math.max(0, l)))).to1DArray());
 
   const nominal: State = { x: seg.sx[i], y: seg.sy[i], vx: seg.vx[i], vy: seg.vy[i] };
   const sums = { pxp: 0, pyp: 0, wp: 0, pxv: 0, pyv: 0, wv: 0 };
@@ -236,9 +237,12 @@ export function linearState(src: Source, seg: SmoothSegment, i: number, nominalC
           dvy += wv[t] * (Y - ny[t]);
         }
       }
-      const z = [normal(), normal(), normal(), normal()];
+      const z0 = normal();
+      const z1 = normal();
+      const z2 = normal();
+      const z3 = normal();
       const n = [0, 0, 0, 0];
-      for (let r = 0; r < 4; r++) for (let c = 0; c < 4; c++) n[r] += L.get(r, c) * z[c];
+      for (let r = 0; r < 4; r++) n[r] = L[4 * r] * z0 + L[4 * r + 1] * z1 + L[4 * r + 2] * z2 + L[4 * r + 3] * z3;
       return { x: nominal.x + dx + n[0], y: nominal.y + dy + n[1], vx: nominal.vx + dvx + n[2], vy: nominal.vy + dvy + n[3] };
     },
   };
