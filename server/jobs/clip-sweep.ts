@@ -10,6 +10,7 @@ import { clipKeys, LocalDiskStorage } from "../storage";
 import { mediaConfig, storage } from "../clips/deps";
 import { clipById, existingClipIds, readyClips, staleExtracting, updateClip } from "../clips/repository";
 import { failJob, liveExtractJobs, sendExtract } from "./clip-queue";
+import { jobPolicies } from "./types";
 
 // A running extraction writes progress every quarter second; this long without a change means
 // its worker is gone. CLIP_STALE_SECONDS lets the fault tests use a short wait.
@@ -27,6 +28,10 @@ export async function sweepClips(log: pino.Logger, opts: { orphanMinAgeMs?: numb
     const active = live.find((j) => j.state === "active");
     if (active) {
       await failJob(active.id, "The worker stopped reporting progress (it may have been killed); trying again.");
+      if (active.retryCount >= jobPolicies["clip.extract"].retryLimit) {
+        // The last attempt died too: stop rather than loop on a clip that kills its worker.
+        await updateClip(id, { status: "failed", failureReason: "The worker stopped while extracting this clip on every attempt (out of memory?). Retry once the cause is fixed." });
+      }
       report.handedBack.push(id);
     } else if (!live.length) {
       await sendExtract(id);
