@@ -26,6 +26,7 @@ export function LandmarkPanel({ store, tracking }: { store: DigitiseStore; track
                 )}
                 onClick={() => store.setActiveLandmark(l)}
                 data-testid={`landmark-${l}`}
+                data-count={s.marks[l]?.length ?? 0}
               >
                 <Kbd>{i + 1}</Kbd>
                 <span className="size-3 shrink-0 rounded-full ring-1 ring-black/20" style={{ background: landmarkColour[l] }} />
