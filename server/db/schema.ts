@@ -122,6 +122,9 @@ export const clip = pgTable(
   },
   (t) => [
     index("clip_team_created_idx").on(t.teamId, t.createdAt),
+    // The clips table opens newest first (created_at desc, then id): this order, read straight
+    // from the index, spares sorting every clip of the team (scripts/bench/load.ts).
+    index("clip_team_newest_idx").on(t.teamId, t.createdAt.desc().nullsFirst(), t.id),
     index("clip_team_player_idx").on(t.teamId, t.playerId),
     uniqueIndex("clip_team_sha_idx").on(t.teamId, t.sha256).where(sql`${t.sha256} is not null`),
   ],

@@ -1,0 +1,1 @@
+CREATE INDEX "clip_team_newest_idx" ON "clip" USING btree ("team_id","created_at" DESC NULLS FIRST,"id");
