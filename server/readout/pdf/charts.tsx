@@ -81,8 +81,8 @@ export function ReportChart({ width, height, yLabel, lines, events }: Props) {
       {lines.length > 1 &&
         lines.map((l, i) => (
           <G key={`k${l.label}`}>
-            <Line x1={width - box.right - 70} x2={width - box.right - 60} y1={box.top + 8 + i * 8} y2={box.top + 8 + i * 8} stroke={l.color} strokeWidth={1.5} />
-            <Text x={width - box.right - 57} y={box.top + 10 + i * 8} style={font} fill={INK}>
+            <Line x1={width - box.right - 96 + i * 48} x2={width - box.right - 86 + i * 48} y1={5.5} y2={5.5} stroke={l.color} strokeWidth={1.5} />
+            <Text x={width - box.right - 83 + i * 48} y={8} style={font} fill={INK}>
               {l.label}
             </Text>
           </G>

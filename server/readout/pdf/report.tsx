@@ -34,11 +34,11 @@ const s = StyleSheet.create({
   note: { fontSize: 6.8, color: C.warn, backgroundColor: C.warnSoft, padding: 3, borderRadius: 2, marginTop: 4 },
   thumbs: { flexDirection: "row", gap: 6 },
   thumb: { width: "24.3%" },
-  thumbImg: { width: "100%", height: 68, objectFit: "cover", borderRadius: 3, backgroundColor: "#eceee9" },
-  thumbEmpty: { width: "100%", height: 68, borderRadius: 3, backgroundColor: "#eceee9", alignItems: "center", justifyContent: "center" },
+  thumbImg: { width: "100%", height: 105, objectFit: "contain", borderRadius: 3, backgroundColor: "#eceee9" },
+  thumbEmpty: { width: "100%", height: 105, borderRadius: 3, backgroundColor: "#eceee9", alignItems: "center", justifyContent: "center" },
   small: { fontSize: 7, color: C.muted },
   charts: { flexDirection: "row", gap: 10 },
-  footer: { position: "absolute", bottom: 16, left: 34, right: 34, flexDirection: "row", justifyContent: "space-between", fontSize: 6.5, color: C.faint },
+  footer: { position: "absolute", bottom: 16, left: 34, right: 34, fontSize: 6.5, color: C.faint },
 });
 
 const UNIT_NAMES: Record<UnitSystem, string> = { metric: "metric (km/h, mm, J)", imperial: "imperial (mph, in, ft·lbf)" };
@@ -110,7 +110,7 @@ export function ShotReport({ readout: r, units, teamName, url, generatedAt, thum
         <View style={s.charts}>
           <ReportChart
             width={258}
-            height={150}
+            height={215}
             yLabel={`speed (${unitOf("speed", units)})`}
             events={strikeEvents}
             lines={[
@@ -118,7 +118,7 @@ export function ShotReport({ readout: r, units, teamName, url, generatedAt, thum
               { label: "blade", color: C.blade, points: res.series.bladeSpeed.points, convert: speed },
             ]}
           />
-          <ReportChart width={258} height={150} yLabel="bend angle (°)" events={strikeEvents} lines={[{ label: "bend", color: C.bend, points: res.series.bendAngle.points, convert: (v) => v }]} />
+          <ReportChart width={258} height={215} yLabel="bend angle (°)" events={strikeEvents} lines={[{ label: "bend", color: C.bend, points: res.series.bendAngle.points, convert: (v) => v }]} />
         </View>
 
         {(generalNotes.length > 0 || r.stale) && (

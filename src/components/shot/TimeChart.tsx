@@ -1,6 +1,6 @@
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { axisTick, shotColors } from "./colors";
-import type { ChartPoint } from "./series";
+import { roundTicksWithin, type ChartPoint } from "./series";
 
 export interface TimeLine {
   key: string;
@@ -56,6 +56,7 @@ export function TimeChart({ lines, events, unit, ariaLabel, digits = 1, height =
             type="number"
             dataKey="t"
             domain={[lo, hi]}
+            ticks={roundTicksWithin(lo, hi)}
             tick={axisTick}
             tickFormatter={(t: number) => fmt(t, 0)}
             allowDuplicatedCategory={false}

@@ -23,3 +23,14 @@ export function chartPoints(s: Series | undefined, convert: (si: number) => numb
   if (last && out[out.length - 1]?.frame !== last.frame) out.push({ t: last.tFromStrikeMs, v: convert(last.value), frame: last.frame });
   return out;
 }
+
+/** Round ticks inside [lo, hi] (multiples of 1, 2 or 5 × 10ⁿ, about `count`), so a time axis reads −40, −20, 0, 20 … */
+export function roundTicksWithin(lo: number, hi: number, count = 6): number[] {
+  if (!(hi > lo)) return [lo];
+  const raw = (hi - lo) / count;
+  const mag = 10 ** Math.floor(Math.log10(raw));
+  const step = [1, 2, 5, 10].map((m) => m * mag).reduce((b, s) => (Math.abs(Math.log(s / raw)) < Math.abs(Math.log(b / raw)) ? s : b));
+  const out: number[] = [];
+  for (let v = Math.ceil(lo / step) * step; v <= hi + 1e-9; v += step) out.push(Number(v.toPrecision(12)));
+  return out;
+}

@@ -1,6 +1,7 @@
 import { useNavigate } from "react-router-dom";
 import { CartesianGrid, ComposedChart, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
 import { axisTick, shotColors } from "@/components/shot/colors";
+import { roundTicksWithin } from "@/components/shot/series";
 import { formatDate } from "@/lib/format";
 import { convert, digitsOf, formatValue, unitOf, type MetricDef, type MetricSummary, type ProgressPoint } from "@shared/schemas/readout";
 import type { UnitSystem } from "@shared/units";
@@ -39,6 +40,10 @@ export function TrendCard({ def, points, summary, units }: Props) {
   const d = digitsOf(def.kind, units);
   const change = summary.firstSession !== null && summary.lastSession !== null ? show(summary.lastSession) - show(summary.firstSession) : null;
   const ts = dots.map((x) => x.t);
+  const vs = dots.map((x) => x.v);
+  // A little room above and below the dots, and round ticks inside it.
+  const span = Math.max(...vs) - Math.min(...vs) || Math.abs(vs[0] ?? 1) * 0.1 || 1;
+  const yDomain: [number, number] = [Math.min(...vs) - span * 0.15, Math.max(...vs) + span * 0.15];
   const pad = 3 * 86_400_000;
 
   return (
@@ -82,7 +87,7 @@ export function TrendCard({ def, points, summary, units }: Props) {
             <ComposedChart margin={{ top: 8, right: 12, bottom: 0, left: 0 }}>
               <CartesianGrid stroke={shotColors.grid} />
               <XAxis type="number" dataKey="t" scale="time" domain={[Math.min(...ts) - pad, Math.max(...ts) + pad]} tick={axisTick} tickFormatter={(t: number) => short.format(new Date(t))} />
-              <YAxis type="number" dataKey="v" tick={axisTick} width={48} domain={["auto", "auto"]} tickFormatter={(v: number) => v.toFixed(d > 0 && Math.abs(v) < 10 ? 1 : 0)} />
+              <YAxis type="number" dataKey="v" tick={axisTick} width={48} domain={yDomain} ticks={roundTicksWithin(yDomain[0], yDomain[1], 4)} tickFormatter={(v: number) => v.toFixed(d > 0 && Math.abs(v) < 10 ? 1 : 0)} />
               <Tooltip
                 isAnimationActive={false}
                 labelFormatter={(t) => formatDate(new Date(Number(t)).toISOString())}

@@ -61,13 +61,17 @@ function PhaseBar({ load, contact, peak }: { load: number | null; contact: numbe
         <div className="flex items-center bg-accent-soft px-3 whitespace-nowrap text-accent-strong" style={{ width: `${(contact / total) * 100}%` }}>
           Contact {contact.toFixed(1)} ms
         </div>
-        {peak !== null && (
-          <div className="absolute inset-y-0 w-0.5 bg-ink" style={{ left: `${((l + peak) / total) * 100}%` }} title={`Peak bend at ${signed(peak)} from puck strike`} />
-        )}
       </div>
-      <div className="mt-1 flex justify-between text-xs text-ink-muted">
+      {peak !== null && (
+        <div className="relative h-3">
+          <span aria-hidden className="absolute -top-0.5 -translate-x-1/2 text-xs leading-none text-ink" style={{ left: `${((l + peak) / total) * 100}%` }} title={`Peak bend at ${signed(peak)} from puck strike`}>
+            ▲
+          </span>
+        </div>
+      )}
+      <div className={`${peak !== null ? "" : "mt-1 "}flex justify-between text-xs text-ink-muted`}>
         <span>{l > 0 ? "Ice strike" : "Puck strike"}</span>
-        {peak !== null && <span>▮ peak bend {signed(peak)} from puck strike</span>}
+        {peak !== null && <span>▲ peak bend, {signed(peak)} from puck strike</span>}
         <span>Release</span>
       </div>
     </div>
