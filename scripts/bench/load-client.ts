@@ -1,0 +1,53 @@
+// An open-loop load generator: request i is sent at start + i/rate whatever happened to the
+// earlier ones, and its latency is counted from that planned moment, so a slow server cannot hide
+// its queue by slowing the client down (no coordinated omission). Bounded by count and time.
+import { quantileSorted } from "simple-statistics";
+
+export interface Figures { n: number; errors: number; p50: number; p95: number; p99: number; max: number; achievedRps: number }
+
+export function figures(ms: number[], errors = 0, seconds = 0): Figures {
+  const s = [...ms].sort((a, b) => a - b);
+  const q = (p: number) => (s.length ? quantileSorted(s, p) : NaN);
+  return { n: ms.length, errors, p50: q(0.5), p95: q(0.95), p99: q(0.99), max: s.at(-1) ?? NaN, achievedRps: seconds ? ms.length / seconds : NaN };
+}
+
+export async function openLoop(o: { rate: number; seconds: number; timeoutMs: number; request: (i: number, signal: AbortSignal) => Promise<boolean> }): Promise<Figures> {
+  const total = Math.round(o.rate * o.seconds);
+  const ms: number[] = [];
+  let errors = 0;
+  const t0 = performance.now() + 50;
+  const inflight: Promise<void>[] = [];
+  for (let i = 0; i < total; i++) {
+    const planned = t0 + (i * 1000) / o.rate;
+    const wait = planned - performance.now();
+    if (wait > 1) await new Promise((r) => setTimeout(r, wait));
+    inflight.push(
+      o.request(i, AbortSignal.timeout(o.timeoutMs)).then(
+        (ok) => {
+          ms.push(performance.now() - planned);
+          if (!ok) errors++;
+        },
+        () => {
+          ms.push(performance.now() - planned);
+          errors++;
+        },
+      ),
+    );
+  }
+  await Promise.all(inflight);
+  return figures(ms, errors, (performance.now() - t0) / 1000);
+}
+
+/** The same work one at a time, for the raw baseline. */
+export async function sequential(n: number, fn: (i: number) => Promise<unknown>): Promise<Figures> {
+  const ms: number[] = [];
+  for (let i = 0; i < n; i++) {
+    const t = performance.now();
+    await fn(i);
+    ms.push(performance.now() - t);
+  }
+  return figures(ms);
+}
+
+export const fmt = (f: Figures) =>
+  `n=${f.n}${f.errors ? ` errors=${f.errors}` : ""} p50 ${f.p50.toFixed(1)} ms  p95 ${f.p95.toFixed(1)} ms  p99 ${f.p99.toFixed(1)} ms  max ${f.max.toFixed(1)} ms${Number.isNaN(f.achievedRps) ? "" : `  (${f.achievedRps.toFixed(0)} req/s)`}`;
