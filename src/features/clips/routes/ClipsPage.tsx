@@ -53,7 +53,7 @@ function ClipsLibrary({ teamId, teamName, staff }: { teamId: string; teamName: s
       />
       <div className="flex flex-col gap-6">
         {staff && <UploadPanel teamId={teamId} />}
-        <Card title="Library" description="Filter, sort and page through the team's clips; open one to step through its frames." flush>
+        <Card title="Library" description={staff ? "Filter, sort and page through the team's clips; open one to step through its frames." : "Open a clip to step through its frames."} flush>
           <div className="border-b border-line px-5 py-3">
             <ClipFilters values={{ playerId: query.playerId, sessionId: query.sessionId, shotType: query.shotType, status: query.status }} options={staff ? options.data : undefined} onChange={onFilter} />
           </div>

@@ -101,7 +101,13 @@ export function createClipUpload(file: File, teamId: string, meta: ClipMeta, cb:
       if (body?.clip) cb.onSuccess(body.clip);
       else cb.onError({ kind: "server", code: "no_clip", message: "The upload finished but the server did not describe the clip. Reload the page to see it.", fields: [] });
     },
-    onError: (err) => cb.onError(classifyUploadError(err)),
+    onError: (err) => {
+      const problem = classifyUploadError(err);
+      // Only a lost connection or an ended session can be resumed; forget the rest, or the
+      // "unfinished uploads" list would offer a file the server has already thrown away.
+      if (problem.kind !== "network" && problem.kind !== "signed_out") void forget(upload);
+      cb.onError(problem);
+    },
   });
   return {
     start: async () => {
@@ -113,6 +119,12 @@ export function createClipUpload(file: File, teamId: string, meta: ClipMeta, cb:
     pause: () => upload.abort(false),
     cancel: () => upload.abort(true),
   };
+}
+
+async function forget(upload: tus.Upload) {
+  const storage = tus.defaultOptions.urlStorage;
+  const fingerprint = await (upload.options.fingerprint ?? tus.defaultOptions.fingerprint)(upload.file as File, upload.options);
+  for (const u of await storage.findUploadsByFingerprint(fingerprint)) await storage.removeUpload(u.urlStorageKey);
 }
 
 export interface UnfinishedUpload {
