@@ -12,7 +12,7 @@ import { DEMO_PASSWORD } from "../../server/seed/demo-people";
 
 const PORT = Number(process.env.E2E_PORT ?? 3100);
 const inbox = process.env.TEST_INBOX_URL ?? "http://127.0.0.1:1180";
-type Ids = { teamId: string; morning: string; evening: string; early: string; jonah: string };
+type Ids = { teamId: string; morning: string; evening: string; early: string; pending: string; jonah: string };
 let ids: Ids;
 
 test.beforeAll(() => {
@@ -164,6 +164,16 @@ test("a player cannot open another player's shot by URL, nor put it beside their
   await expect(page.locator("main")).not.toContainText("Jonah's wrist shot");
   const pdf = await page.request.get(`/api/teams/${ids.teamId}/readout/shots/${ids.jonah}/report.pdf`);
   expect(pdf.status()).toBe(404);
+});
+
+test("a shot with no results yet says what is missing and offers only the marks", async ({ page }) => {
+  await signIn(page, "player@ravens.example");
+  await page.goto(`/readout/${ids.pending}`);
+  await expect(page.getByRole("heading", { name: "No results yet" })).toBeVisible();
+  await expect(page.getByTestId("missing")).toContainText("calibration for the clip");
+  await expect(page.getByRole("button", { name: "PDF report" })).toBeDisabled();
+  await expect(page.getByRole("button", { name: "Marks CSV" })).toBeEnabled();
+  await expect(page.getByText("Your analyst is still digitising this shot")).toBeVisible();
 });
 
 test("a coach shares a shot; the player's e-mail link opens its readout", async ({ browser }) => {
