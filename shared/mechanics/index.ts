@@ -16,3 +16,4 @@ export * from "./compute-shot";
 export * from "../schemas/shot-document";
 export * from "../schemas/shot-results";
 export * from "./synthetic-shot";
+export * from "./sticklab";
