@@ -4,7 +4,7 @@
 import { clipMeta, makeClip, tusUpload, uploadDir } from "./clips-support";
 import { execFile } from "node:child_process";
 import { createHash } from "node:crypto";
-import { appendFileSync, mkdtempSync, readdirSync, readFileSync, statSync } from "node:fs";
+import { appendFileSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { promisify } from "node:util";
@@ -53,6 +53,7 @@ afterAll(async () => {
   await stopJobs();
   await srv.close();
   cluster?.destroy();
+  for (const d of [backupRoot, restoredUploads]) rmSync(d, { recursive: true, force: true });
 });
 
 const env = (over: Record<string, string>) => ({ ...process.env, UPLOAD_DIR: uploadDir, ...over });
@@ -113,12 +114,12 @@ describe("backup and restore", () => {
   }, 60_000);
 
   it("refuses to restore over a database that holds data, or a damaged backup", async () => {
-    const again = run("scripts/restore", [backup, "--database", "loadframe_restored", "--upload-dir", mkdtempSync(path.join(os.tmpdir(), "lf-r2-"))], {
+    const again = run("scripts/restore", [backup, "--database", "loadframe_restored", "--upload-dir", `${restoredUploads}-r2`], {
       env: env({ DATABASE_URL: cluster.url("postgres") }),
     });
     await expect(again).rejects.toMatchObject({ stderr: expect.stringMatching(/already holds data.*--force/) });
     appendFileSync(path.join(backup, "media.tar"), "x");
-    const damaged = run("scripts/restore", [backup, "--database", "loadframe_other", "--upload-dir", mkdtempSync(path.join(os.tmpdir(), "lf-r3-"))], {
+    const damaged = run("scripts/restore", [backup, "--database", "loadframe_other", "--upload-dir", `${restoredUploads}-r3`], {
       env: env({ DATABASE_URL: cluster.url("postgres") }),
     });
     await expect(damaged).rejects.toMatchObject({ stderr: expect.stringMatching(/damaged/) });

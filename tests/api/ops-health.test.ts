@@ -1,6 +1,6 @@
 // Liveness and readiness: /api/ready names each dependency and answers 503 with the reason when
 // one is missing (queue not installed, ffmpeg not found, process shutting down).
-import { mkdtemp } from "node:fs/promises";
+import { mkdtemp, rm } from "node:fs/promises";
 import os from "node:os";
 import path from "node:path";
 process.env.UPLOAD_DIR = await mkdtemp(path.join(os.tmpdir(), "lf-health-"));
@@ -17,6 +17,7 @@ beforeAll(async () => {
 afterAll(async () => {
   await stopJobs();
   await srv.close();
+  await rm(process.env.UPLOAD_DIR!, { recursive: true, force: true });
 });
 
 const ready = async () => {

@@ -58,6 +58,7 @@ export async function startCluster(label = "test"): Promise<Cluster> {
     start: () => void asPg(path.join(bin, "pg_ctl"), ["-D", dir, "-l", path.join(dir, "server.log"), "-w", "-t", "30", "-o", opts, "start"]),
     stop: () => void asPg(path.join(bin, "pg_ctl"), ["-D", dir, "-m", "fast", "-w", "-t", "30", "stop"]),
     destroy: () => {
+      if (!existsSync(dir)) return;
       try {
         asPg(path.join(bin, "pg_ctl"), ["-D", dir, "-m", "immediate", "-w", "stop"]);
       } catch {
@@ -67,5 +68,8 @@ export async function startCluster(label = "test"): Promise<Cluster> {
     },
   };
   c.start();
+  // A test process that dies without its afterAll (killed, or its output pipe closed) must not
+  // leave a server running on the machine.
+  process.once("exit", () => c.destroy());
   return c;
 }
