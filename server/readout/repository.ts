@@ -2,7 +2,7 @@ import { and, asc, desc, eq, inArray, or, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
 import { auditLog, clip, member, organization, shot, shotResult, shotShare, stick, trainingSession, user } from "../db/schema";
-import type { ShotResults } from "../../shared/schemas/shot-results";
+import { ShotResults } from "../../shared/schemas/shot-results";
 import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../shared/schemas/shots";
 import type { ShotListQuery } from "../../shared/schemas/readout";
 
@@ -41,6 +41,14 @@ function joined(columns: typeof withEverything) {
     .leftJoin(shotResult, eq(shotResult.shotId, shot.id));
 }
 
+// Stored results are only used when they have the engine's shape: a row written some other way
+// (by hand, by an older engine) reads as "no results yet" rather than failing the page.
+const fullResults = (v: unknown): ShotResults | null => (ShotResults.safeParse(v).success ? (v as ShotResults) : null);
+function summaryResults(v: unknown): Omit<ShotResults, "series"> | null {
+  const r = v as { puckExitSpeed?: { valueMps?: unknown }; contactTimeMs?: unknown; notes?: unknown } | null;
+  return r && typeof r.puckExitSpeed?.valueMps === "number" && typeof r.contactTimeMs === "number" && Array.isArray(r.notes) ? (v as Omit<ShotResults, "series">) : null;
+}
+
 function typed<R extends { events: unknown; calibration: unknown }>(r: R) {
   return { ...r, events: r.events as ShotEventsDraft, calibration: r.calibration as ClipCalibration | null };
 }
@@ -49,7 +57,7 @@ function typed<R extends { events: unknown; calibration: unknown }>(r: R) {
 export async function shotById(teamId: string, shotId: string) {
   const [row] = await joined(withEverything)
     .where(and(eq(shot.id, shotId), eq(shot.teamId, teamId)));
-  return row ? { ...typed(row), results: row.results as ShotResults | null, marks: row.marks as ShotMarks } : null;
+  return row ? { ...typed(row), results: fullResults(row.results), marks: row.marks as ShotMarks } : null;
 }
 export type ReadoutRow = NonNullable<Awaited<ReturnType<typeof shotById>>>;
 
@@ -72,7 +80,7 @@ export async function listShots(teamId: string, f: ShotListQuery, scope: ListSco
   const rows = await joined({ ...withEverything, results: sql<null>`null`, marks: sql<null>`null` })
     .where(and(...where))
     .orderBy(desc(sql`coalesce(${trainingSession.date}::timestamptz, ${clip.createdAt})`), desc(shot.createdAt));
-  return rows.map(({ results: _r, marks: _m, ...r }) => typed(r));
+  return rows.map(({ results: _r, marks: _m, ...r }) => ({ ...typed(r), summary: summaryResults(r.summary) }));
 }
 export type ListRow = Awaited<ReturnType<typeof listShots>>[number];
 

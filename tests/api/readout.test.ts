@@ -112,6 +112,24 @@ describe("list of shots", () => {
   });
 });
 
+describe("stored results not in the engine's shape", () => {
+  it("read as no results yet, in the list, the readout and progress, instead of failing", async () => {
+    const { db } = await import("../../server/db/client");
+    const { shotResult } = await import("../../server/db/schema");
+    const { eq } = await import("drizzle-orm");
+    const s = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Odd stored result" });
+    await db().update(shotResult).set({ results: { shaftDeflection: { valueMm: 12 } } }).where(eq(shotResult.shotId, s.shotId));
+    const list = await coach.get(`${R()}/shots`);
+    expect(list.status, list.text).toBe(200);
+    expect(list.json.shots.find((x: { id: string }) => x.id === s.shotId)).toMatchObject({ hasResults: false, puckExitSpeedMps: null });
+    const one = await coach.get(`${R()}/shots/${s.shotId}`);
+    expect(one.status).toBe(200);
+    expect(one.json.results).toBeNull();
+    expect(one.json.missing).toMatch(/not been computed/);
+    expect((await coach.get(`${R()}/progress?playerId=${uid(EMAILS.player)}`)).status).toBe(200);
+  });
+});
+
 describe("side by side", () => {
   it("two of one's own shots, each with its own capture rate", async () => {
     const a = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Cmp 3200" });
