@@ -8,10 +8,25 @@ import { createPrefetcher } from "./prefetch";
 import { captureReference, type Reference } from "./reference";
 import { searchFrame } from "./search";
 import type { GrayFrame, Proposal, StopReason, TrackProgress, TrackRequest, TrackResult } from "./types";
+
+/** A reference with the landmark's angle when it was captured and the first score it got. */
+interface Look {
+  ref: Reference;
+  angle0: number;
+  firstScore: number | null;
+}
 import { resolveRequest } from "./validate";
 
-/** A reference is renewed once its score falls below this share of its first score. */
-const REFRESH_RATIO = 0.97;
+/**
+ * A reference is renewed once its score falls below 97 % of the first score it got — but only from
+ * a confident match (at least 92 % of the best first score any kept reference got): a sudden drop
+ * (the puck half behind the blade) keeps the old reference rather than learning the blade. Below
+ * that level the other kept references (the analyst's own and the last renewed one) are tried as
+ * well, so a look learnt by mistake is left again once the true one reappears.
+ */
+const RENEW_BELOW = 0.97;
+const RENEW_FROM = 0.92;
+const KEPT_LOOKS = 3;
 /** Search radius grows with speed: constant velocity misses by a share of the step when it bends. */
 const RADIUS_PER_STEP = 0.25;
 const PREFETCH_DEPTH = 2;
@@ -38,20 +53,28 @@ export async function track(request: TrackRequest, onProgress?: (p: TrackProgres
   const matcher = deps.matcher ?? createCvMatcher((await loadOpenCv()).cv);
   const ctx = { matcher, minSize, exclusion: Math.max(2, size / 4) };
   try {
-    const first = await frames.frame(start.frame, signal);
+    let first: GrayFrame;
+    try {
+      first = await frames.frame(start.frame, signal);
+    } catch (e) {
+      if (signal?.aborted) return cancelled();
+      throw e;
+    }
     checkFrame(first, start.frame, first);
     for (const [field, m] of [["start", start], ["prior", prior]] as const)
       if (m && !(m.x >= 0 && m.y >= 0 && m.x < first.width && m.y < first.height))
         throw new TrackInputError(field, `(${m.x}, ${m.y}) lies outside the ${first.width}×${first.height} frame`);
-    let ref: Reference | null = captureReference(first, start.x, start.y, size, minSize, turning);
+    const ref = captureReference(first, start.x, start.y, size, minSize, turning);
     if (!ref)
       throw new TrackInputError("templateSize", `a ${size} px template around (${start.x}, ${start.y}) keeps less than ${minSize} px inside the ${first.width}×${first.height} frame`);
     // Velocities per frame index (+1), so they hold for either direction.
     let velocity = prior ? { x: (start.x - prior.x) / (start.frame - prior.frame), y: (start.y - prior.y) / (start.frame - prior.frame) } : null;
+    // The landmark's angle relative to the start frame, and its change per frame index (+1).
     let angle = 0;
     let spin = 0;
     let last = { x: start.x, y: start.y };
-    let firstScore: number | null = null;
+    let look: Look = { ref, angle0: 0, firstScore: null };
+    let looks: Look[] = [look];
     const frameAt = (k: number) => start.frame + direction * k;
     const ahead = createPrefetcher(frames, frameAt, total, Math.max(0, Math.min(16, Math.floor(frames.prefetch ?? PREFETCH_DEPTH))), signal);
 
@@ -74,8 +97,17 @@ export async function track(request: TrackRequest, onProgress?: (p: TrackProgres
 
       const predicted = velocity ? { x: last.x + velocity.x * direction, y: last.y + velocity.y * direction } : last;
       const radius = velocity ? req.searchRadius + RADIUS_PER_STEP * Math.hypot(velocity.x, velocity.y) : Math.max(req.searchRadius, size);
-      const m = searchFrame(frame, ref, predicted, angle + spin * direction, radius, ctx);
+      const turned = angle + spin * direction;
+      const attempt = (l: Look) => searchFrame(frame, l.ref, predicted, turned - l.angle0, radius, ctx);
+      let m = attempt(look);
       if (!m) return stop("left-frame", index, null, `the landmark reaches the frame edge at frame ${index}`);
+      const confident = RENEW_FROM * Math.max(...looks.map((l) => l.firstScore ?? 0));
+      if (m.score < confident)
+        for (const other of looks) {
+          if (other === look) continue;
+          const alt = attempt(other);
+          if (alt && alt.score > m.score) [m, look] = [alt, other];
+        }
       const atEdge = m.cropped || nearEdge(predicted, frame, size / 2);
       const { score, sideLobe, onBorder } = m;
       if (!(score >= threshold)) {
@@ -95,17 +127,17 @@ export async function track(request: TrackRequest, onProgress?: (p: TrackProgres
       onProgress?.({ done: k, total, proposal });
 
       velocity = { x: (m.x - last.x) * direction, y: (m.y - last.y) * direction };
-      spin = ref.source ? (m.angle - angle) * direction : 0;
-      angle = ref.source ? m.angle : 0;
+      const nowAngle = m.angle + look.angle0;
+      spin = (nowAngle - angle) * direction;
+      angle = nowAngle;
       last = { x: m.x, y: m.y };
-      if (firstScore === null) firstScore = score;
-      else if (score < REFRESH_RATIO * firstScore && !atEdge) {
-        // Only an uncut match becomes the new reference; otherwise the old one is kept.
+      if (look.firstScore === null) look.firstScore = score;
+      else if (score < RENEW_BELOW * look.firstScore && score >= confident && !atEdge) {
+        // Only an uncut match becomes the new reference (a full template, not a cropped one).
         const fresh = captureReference(frame, m.x, m.y, size, size, turning);
         if (fresh) {
-          ref = fresh;
-          angle = 0;
-          firstScore = null;
+          look = { ref: fresh, angle0: angle, firstScore: null };
+          looks = [looks[0], ...looks.slice(1).slice(2 - KEPT_LOOKS), look];
         }
       }
     }

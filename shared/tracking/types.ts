@@ -73,7 +73,7 @@ export interface TrackOptions {
   maxFrames?: number;
   /** Side of the square template in pixels (default 48). */
   templateSize?: number;
-  /** Stop at the first frame whose NCC peak is below this (default 0.6). */
+  /** Stop at the first frame whose NCC peak is below this (default 0.7). */
   threshold?: number;
   /** Stop when a rival peak comes within this of the best one (default 0.05; 0 turns the check off). */
   minPeakMargin?: number;

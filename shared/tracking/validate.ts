@@ -2,7 +2,7 @@
 import { TrackInputError } from "./errors";
 import type { FrameMark, TrackRequest } from "./types";
 
-export const DEFAULTS = { templateSize: 48, threshold: 0.6, minPeakMargin: 0.05, searchRadius: 8, turning: true } as const;
+export const DEFAULTS = { templateSize: 48, threshold: 0.7, minPeakMargin: 0.05, searchRadius: 8, turning: true } as const;
 
 export interface ResolvedRequest extends Required<Omit<TrackRequest, "prior" | "signal" | "maxFrames">> {
   prior?: FrameMark;

@@ -3,7 +3,7 @@
 import { describe, expect, it, vi } from "vitest";
 import { track } from "../../../shared/tracking/track";
 import { errorStats } from "./support/metrics";
-import { HIDDEN_FROM, HIDDEN_TO, leavingClip, occludedClip } from "./support/scenarios";
+import { grazedClip, HIDDEN_FROM, HIDDEN_TO, leavingClip, occludedClip } from "./support/scenarios";
 import { memorySource } from "./support/synthetic-clips";
 import { framesOf } from "./support/track-clip";
 
@@ -28,6 +28,19 @@ describe("a disc hidden behind a box for ten frames", () => {
     expect(errorStats(proposals, spec.truth).max).toBeLessThan(1);
     // Visible frames score far above the threshold, the hidden one far below: the stop is clear-cut.
     expect(Math.min(...proposals.map((p) => p.confidence))).toBeGreaterThan(0.85);
+  });
+});
+
+describe("a box over the disc's edge for ten frames", () => {
+  it.each([true, false])("turning %s: the disc is found again, exactly, once the box has gone", async (turning) => {
+    const spec = grazedClip();
+    const frames = await framesOf(spec);
+    const { proposals, stop } = await track({ frames: memorySource(frames), start: { frame: 0, ...spec.truth(0) }, direction: 1, turning });
+    expect(stop.reason).toBe("end-of-range");
+    const after = proposals.filter((p) => p.frame > HIDDEN_TO);
+    // The look learnt while the box grazed the disc is dropped for the analyst's own template.
+    expect(errorStats(after, spec.truth).max).toBeLessThan(0.5);
+    expect(Math.min(...after.map((p) => p.confidence))).toBeGreaterThan(0.9);
   });
 });
 

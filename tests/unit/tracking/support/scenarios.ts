@@ -31,6 +31,14 @@ export function occludedClip(fps = 240, frames = 260, noise = NOISE): ClipSpec {
   return discClip(`hidden-${fps}`, path, o, occluder(o, path.at((HIDDEN_FROM + HIDDEN_TO) / 2 / fps), 40, HIDDEN_FROM, HIDDEN_TO));
 }
 
+/** The line clip with a dark box over the disc's right edge (about a quarter of it) on frames 150 … 159. */
+export function grazedClip(fps = 240, frames = 260, noise = NOISE): ClipSpec {
+  const path = ballistic(40, 50, 115, 70);
+  const o = { fps, frames, noise };
+  const at = path.at((HIDDEN_FROM + HIDDEN_TO) / 2 / fps);
+  return discClip(`grazed-${fps}`, path, o, occluder(o, { x: at.x + 26, y: at.y }, 40, HIDDEN_FROM, HIDDEN_TO));
+}
+
 /** A fast disc (6 px per frame at 240 fps, curving down) that leaves through the right edge near frame 43. */
 export const leavingClip = (fps = 240, frames = 80, noise = NOISE) =>
   discClip(`leaving-${fps}`, ballistic(60, 100, 6 * 240, 240, 0, 0.04 * 240 * 240), { fps, frames, noise });
