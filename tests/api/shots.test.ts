@@ -196,6 +196,17 @@ describe("players", () => {
     expect((await player2.get(`${T()}/shots/${shot.id}`)).status).toBe(404);
     expect((await analyst.get(`${T()}/shots/${shot.id}`)).json.canEdit).toBe(true);
   });
+
+  it("list only the shots of a clip that are theirs", async () => {
+    const { clipId, shot } = await newShot();
+    const other = await analyst.post(`${T()}/clips/${clipId}/shots`, { frameStart: 1, frameEnd: 10, playerId: world.users[EMAILS.player2] });
+    expect(other.status).toBe(201);
+    const mine = (await player.get(`${T()}/clips/${clipId}/shots`)).json;
+    expect(mine.shots.map((x: { id: string }) => x.id)).toEqual([shot.id]);
+    expect(mine.canEdit).toBe(false);
+    expect((await player2.get(`${T()}/clips/${clipId}/shots`)).json.shots.map((x: { id: string }) => x.id)).toEqual([other.json.id]);
+    expect((await analyst.get(`${T()}/clips/${clipId}/shots`)).json.shots).toHaveLength(2);
+  });
 });
 
 describe("deleting", () => {

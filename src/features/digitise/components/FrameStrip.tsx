@@ -1,4 +1,4 @@
-import { useEffect, useRef, useState } from "react";
+import { memo, useEffect, useRef, useState } from "react";
 import { EVENTS, eventLabels, LANDMARKS, landmarkLabels } from "@shared/schemas/shots";
 import type { DigitiseStore } from "../model/store";
 import { eventColour, eventLetter, landmarkColour } from "../model/style";
@@ -50,8 +50,6 @@ export function FrameStrip({ store, thumbUrl }: { store: DigitiseStore; thumbUrl
     store.goto(s.start + Math.floor(((clientX - r.left) / r.width) * span));
   };
 
-  const thumbs = Math.max(1, Math.floor(width / THUMB_W));
-  const thumbFrames = Array.from({ length: thumbs }, (_, i) => Math.min(s.end, s.start + Math.round(((i + 0.5) / thumbs) * span - 0.5)));
 
   return (
     <div className="border-t border-[#263034] bg-[#12181a] px-3 pt-5 pb-2">
@@ -70,11 +68,7 @@ export function FrameStrip({ store, thumbUrl }: { store: DigitiseStore; thumbUrl
         aria-valuemax={s.end}
         aria-valuenow={s.frame}
       >
-        <div className="flex h-11 overflow-hidden rounded-sm bg-[#1b2326]">
-          {thumbFrames.map((f, i) => (
-            <img key={`${i}-${f}`} src={thumbUrl(f)} alt="" loading="lazy" draggable={false} className="h-full min-w-0 flex-1 object-cover opacity-80" />
-          ))}
-        </div>
+        <Thumbnails width={width} start={s.start} end={s.end} thumbUrl={thumbUrl} />
         <canvas ref={canvas} className="mt-1 block w-full" style={{ height: LANDMARKS.length * COVERAGE_ROW + 2 }} aria-hidden title={LANDMARKS.map((l) => landmarkLabels[l]).join(" · ")} />
         {EVENTS.map((k) => {
           const f = s.events[k];
@@ -99,3 +93,17 @@ export function FrameStrip({ store, thumbUrl }: { store: DigitiseStore; thumbUrl
     </div>
   );
 }
+
+/** Evenly spaced frames of the shot; unchanged while stepping, so it is not redrawn then. */
+const Thumbnails = memo(function Thumbnails({ width, start, end, thumbUrl }: { width: number; start: number; end: number; thumbUrl: (frame: number) => string }) {
+  const span = Math.max(1, end - start + 1);
+  const n = Math.max(1, Math.floor(width / THUMB_W));
+  const frames = Array.from({ length: n }, (_, i) => Math.min(end, start + Math.round(((i + 0.5) / n) * span - 0.5)));
+  return (
+    <div className="flex h-11 overflow-hidden rounded-sm bg-[#1b2326]">
+      {frames.map((f, i) => (
+        <img key={`${i}-${f}`} src={thumbUrl(f)} alt="" loading="lazy" draggable={false} className="h-full min-w-0 flex-1 object-cover opacity-80" />
+      ))}
+    </div>
+  );
+});

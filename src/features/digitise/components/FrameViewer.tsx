@@ -92,6 +92,7 @@ export function FrameViewer({ store, cache, extraOverlay }: { store: DigitiseSto
       tabIndex={-1}
       data-testid="frame-viewer"
       data-frame={current?.frame ?? ""}
+      data-cached-frames={cache.size}
       className="relative h-full w-full touch-none overflow-hidden bg-[#101517] outline-none select-none"
       style={{ cursor: s.cursor }}
     >

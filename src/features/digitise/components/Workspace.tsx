@@ -40,9 +40,9 @@ export function Workspace({ teamId, shot }: { teamId: string; shot: ShotDetail }
         frame: Number(search.get("frame")) || undefined,
       }),
   );
-  const url = (f: number) => frameUrl(teamId, shot.clip.id, f);
+  const [url] = useState(() => (f: number) => frameUrl(teamId, shot.clip.id, f));
   const [cache] = useState(
-    () => new FrameCache<ImageBitmap>({ load: (f, signal) => loadFrameBitmap(url(f), signal), first: shot.frameStart, last: shot.frameEnd, capacity: capacityFor(width, height) }),
+    () => new FrameCache<ImageBitmap>({ load: (f, signal) => loadFrameBitmap(url(f), signal), first: shot.frameStart, last: shot.frameEnd, capacity: capacityFor(width, height), ahead: 32, behind: 10 }),
   );
   useEffect(() => () => cache.dispose(), [cache]);
 
