@@ -32,6 +32,7 @@ export const signedInRoutes: RouteObject[] = [
   { path: "progress", handle: { title: "Progress" }, lazy: () => import("@/features/progress/routes/ProgressPage") },
   { path: "settings", handle: { title: "Settings" }, lazy: () => import("@/features/settings/routes/SettingsPage") },
   { path: "roster", handle: { title: "Roster" }, lazy: () => import("@/features/roster/routes/RosterPage") },
+  { path: "audit", handle: { title: "Audit log" }, lazy: () => import("@/features/audit/routes/AuditPage") },
   { path: "*", handle: { title: "Not found" }, element: <NotFound /> },
 ];
 
