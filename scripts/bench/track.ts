@@ -2,7 +2,8 @@
 // template, matching alone and with frame decoding (raw gray file reads, JPEG decode with sharp),
 // plus the mean error against the clip's known trajectory. Raw baselines are measured in the same
 // run: OpenCV's matchTemplate alone on a window of the typical size, and the same score computed in
-// plain JavaScript. Prints figures; asserts nothing. One core: sharp is limited to one thread.
+// plain JavaScript. Prints figures; asserts nothing. Matching runs on one core; sharp is limited to
+// one thread per image, though the two frames fetched ahead may decode at once in the libuv pool.
 //   npm run bench:track [-- --frames 240 --rounds 3]
 import { closeSync, openSync, readSync } from "node:fs";
 import { mkdtemp, readdir, rm, writeFile } from "node:fs/promises";
