@@ -1,8 +1,8 @@
 // Tracking assist benchmark (issue 8): proposals per second on 1280×720 frames with a 48 px
 // template, matching alone and with frame decoding (raw gray file reads, JPEG decode with sharp),
 // plus the mean error against the clip's known trajectory. Raw baselines are measured in the same
-// run: OpenCV's matchTemplate alone on a window of the typical size, and the same score computed in
-// plain JavaScript. Prints figures; asserts nothing. Matching runs on one core; sharp is limited to
+// run: the tracker's own matchTemplate calls replayed alone, and one 68×68 window in OpenCV and in
+// plain JavaScript (the same score). Prints figures; asserts nothing. Matching runs on one core; sharp is limited to
 // one thread per image, though the two frames fetched ahead may decode at once in the libuv pool.
 //   npm run bench:track [-- --frames 240 --rounds 3]
 import { closeSync, openSync, readSync } from "node:fs";
