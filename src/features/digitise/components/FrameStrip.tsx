@@ -83,7 +83,11 @@ export function FrameStrip({ store, thumbUrl }: { store: DigitiseStore; thumbUrl
           );
         })}
         {width > 0 && (
-          <div className="pointer-events-none absolute -top-1 -bottom-1 w-0.5 -translate-x-1/2 bg-white shadow-[0_0_0_1px_rgba(0,0,0,0.6)]" style={{ left: xOf(s.frame) }} data-testid="strip-playhead" />
+          <div
+            className="pointer-events-none absolute -top-1 -bottom-1 left-0 w-0.5 bg-white shadow-[0_0_0_1px_rgba(0,0,0,0.6)] will-change-transform"
+            style={{ transform: `translateX(${xOf(s.frame) - 1}px)` }}
+            data-testid="strip-playhead"
+          />
         )}
       </div>
       <div className="mt-1 flex justify-between font-mono text-[11px] text-[#7d8a88] tabular-nums">

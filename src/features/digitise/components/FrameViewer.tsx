@@ -106,8 +106,7 @@ export function FrameViewer({ store, cache, extraOverlay }: { store: DigitiseSto
             <Rect x={view.panX} y={view.panY} width={frameSize.width * view.zoom} height={frameSize.height * view.zoom} fill="#1b2326" />
             {current && <KImage image={current.img} x={view.panX} y={view.panY} width={frameSize.width * view.zoom} height={frameSize.height * view.zoom} opacity={stale ? 0.55 : 1} />}
             <Rect x={view.panX - 0.5} y={view.panY - 0.5} width={frameSize.width * view.zoom + 1} height={frameSize.height * view.zoom + 1} stroke="#3b474b" strokeWidth={1} />
-          </Layer>
-          <Layer listening={false}>
+            {/* One canvas for picture and overlays: they change together, and each extra canvas costs a composite. */}
             <CalibrationOverlay store={store} />
             <MarksOverlay store={store} />
             {extraOverlay}

@@ -17,7 +17,7 @@ export function ViewerHud({ store, loading }: { store: DigitiseStore; loading: b
   return (
     <>
       <div data-hud className="pointer-events-none absolute top-3 left-3 flex flex-col gap-1 font-mono text-[12px] leading-tight text-[#e9eee9]">
-        <div className="rounded-md bg-black/60 px-2.5 py-1.5 backdrop-blur-sm">
+        <div className="rounded-md bg-black/60 px-2.5 py-1.5">
           <span className="text-[15px] font-semibold tabular-nums" data-testid="hud-frame">
             Frame {s.frame}
           </span>
@@ -34,7 +34,7 @@ export function ViewerHud({ store, loading }: { store: DigitiseStore; loading: b
         {loading && <div className="w-fit rounded-md bg-black/60 px-2 py-1 text-[#ffd36b]">loading frame {s.frame}…</div>}
       </div>
 
-      <div data-hud className="absolute top-3 right-3 flex items-center gap-1 rounded-md bg-black/60 p-1 text-[12px] text-[#e9eee9] backdrop-blur-sm">
+      <div data-hud className="absolute top-3 right-3 flex items-center gap-1 rounded-md bg-black/60 p-1 text-[12px] text-[#e9eee9]">
         <HudButton onClick={() => store.zoomBy(1 / 1.25)} label="Zoom out (−)">
           −
         </HudButton>
@@ -52,7 +52,7 @@ export function ViewerHud({ store, loading }: { store: DigitiseStore; loading: b
         </HudButton>
       </div>
 
-      <div data-hud className="pointer-events-none absolute bottom-3 left-3 flex items-center gap-2 rounded-md bg-black/60 px-2.5 py-1.5 text-[12px] text-[#e9eee9] backdrop-blur-sm">
+      <div data-hud className="pointer-events-none absolute bottom-3 left-3 flex items-center gap-2 rounded-md bg-black/60 px-2.5 py-1.5 text-[12px] text-[#e9eee9]">
         {s.readOnly ? (
           <span>Read-only: you can step, zoom and pan</span>
         ) : s.tool === "mark" ? (
