@@ -55,6 +55,13 @@ const hardStop = setTimeout(async () => {
   await cleanup();
   process.exit(1);
 }, 6 * 60_000);
+const freePort = () =>
+  new Promise<number>((resolve) => {
+    const s = createServer().listen(0, "127.0.0.1", () => {
+      const p = (s.address() as { port: number }).port;
+      s.close(() => resolve(p));
+    });
+  });
 const step = (s: string) => console.log(`\n▸ ${s}`);
 const sha = (b: Buffer) => createHash("sha256").update(b).digest("hex");
 
@@ -78,12 +85,7 @@ try {
   const seeded = await seedBenchTeam(url, ids.teamId);
   console.log(`  ${seeded.clips} clips, ${seeded.shots} shots with results, ${seeded.players.length} players in the team (${((Date.now() - t0) / 1000).toFixed(0)} s)`);
 
-  const port = await new Promise<number>((resolve) => {
-    const s = createServer().listen(0, "127.0.0.1", () => {
-      const p = (s.address() as { port: number }).port;
-      s.close(() => resolve(p));
-    });
-  });
+  const port = await freePort();
   const base = `http://127.0.0.1:${port}`;
   server = spawn(process.execPath, ["--import", "tsx", "server/index.ts"], { env: { ...process.env, PORT: String(port), PUBLIC_URL: base, LOG_LEVEL: "error" }, stdio: ["ignore", "ignore", "inherit"] });
   for (let i = 0; i < 150 && !(await fetch(`${base}/api/health`).then((r) => r.ok, () => false)); i++) await new Promise((r) => setTimeout(r, 200));
@@ -182,6 +184,18 @@ try {
       await new Promise((r) => setTimeout(r, 100));
     }
   };
+  // What this machine can carry at all: an empty answer from a bare Express process, and the
+  // app's /api/health (every middleware, no database), both at the same rate with the same client.
+  step(`HTTP ceiling of this machine: ${RATE} requests/s for 5 s`);
+  const barePort = await freePort();
+  const bare = spawn(process.execPath, ["-e", `require("express")().get("/", (q, r) => r.json({ ok: true })).listen(${barePort}, "127.0.0.1")`], { stdio: "ignore" });
+  for (let i = 0; i < 50 && !(await fetch(`http://127.0.0.1:${barePort}/`).then((r) => r.ok, () => false)); i++) await new Promise((r) => setTimeout(r, 100));
+  const bareFig = await openLoop({ rate: RATE, seconds: 5, timeoutMs: 30_000, request: async (_i, signal) => (await fetch(`http://127.0.0.1:${barePort}/`, { signal }).then((r) => r.arrayBuffer().then(() => r.ok))) });
+  bare.kill();
+  const healthFig = await openLoop({ rate: RATE, seconds: 5, timeoutMs: 30_000, request: (_i, signal) => get(`${base}/api/health`)(signal) });
+  console.log(`  bare Express, empty answer    ${fmt(bareFig)}`);
+  console.log(`  app /api/health (no database) ${fmt(healthFig)}`);
+
   const table: { name: string; api: Figures; raw: Figures; rate: number }[] = [];
   for (const s of scenarios) {
     step(`${s.name}: ${s.rate} requests/s for ${s.seconds} s`);
@@ -197,6 +211,7 @@ try {
 
   step("Summary");
   console.log(`  uploads: ${matching}/${UPLOADS} checksums match`);
+  console.log(`  HTTP ceiling @ ${RATE}/s: bare Express p95 ${bareFig.p95.toFixed(1)} ms, app /api/health p95 ${healthFig.p95.toFixed(1)} ms`);
   for (const t of table) console.log(`  ${t.name} @ ${t.rate}/s: p50 ${t.api.p50.toFixed(1)} / p95 ${t.api.p95.toFixed(1)} / p99 ${t.api.p99.toFixed(1)} ms (raw p95 ${t.raw.p95.toFixed(1)} ms)${t.api.errors ? `, ${t.api.errors} errors` : ""}`);
   console.log(`  total ${((Date.now() - t0) / 1000).toFixed(0)} s; load average ${load()} at the end (${os.cpus().length} cores)`);
   await (await import("../../server/db/client")).db().pool.end();
