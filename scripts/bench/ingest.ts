@@ -204,7 +204,7 @@ async function writeRandomFile(file: string, bytes: number) {
   const block = randomBytes(8 * 1024 * 1024);
   for (let written = 0; written < bytes; ) {
     const n = Math.min(block.length, bytes - written);
-    if (!out.write(n === block.length ? block : block.subarray(0, n))) await new Promise((r) => out.once("drain", r));
+    if (!out.write(n === block.length ? block : block.subarray(0, n))) await new Promise<void>((r) => out.once("drain", () => r()));
     written += n;
   }
   await new Promise<void>((r) => out.end(r));
