@@ -3,7 +3,7 @@ import { Link, useSearchParams } from "react-router-dom";
 import type { ShotDetail } from "@shared/schemas/shots";
 import { Button } from "@/components/ui";
 import { formatDateTime } from "@/lib/format";
-import { frameUrl, loadFrameBitmap } from "../api/frames";
+import { createFrameLoader, frameUrl } from "../api/frames";
 import { checkDraft } from "../model/calibration-draft";
 import { capacityFor, FrameCache } from "../model/frame-cache";
 import { commandFor, isTypingTarget, type Command } from "../model/keymap";
@@ -41,10 +41,19 @@ export function Workspace({ teamId, shot }: { teamId: string; shot: ShotDetail }
       }),
   );
   const [url] = useState(() => (f: number) => frameUrl(teamId, shot.clip.id, f));
-  const [cache] = useState(
-    () => new FrameCache<ImageBitmap>({ load: (f, signal) => loadFrameBitmap(url(f), signal), first: shot.frameStart, last: shot.frameEnd, capacity: capacityFor(width, height), ahead: 32, behind: 10 }),
-  );
-  useEffect(() => () => cache.dispose(), [cache]);
+  // Made in an effect (not at render) so a remount, as React's strict mode does in development, gets a live pair.
+  const [frames, setFrames] = useState<FrameCache<ImageBitmap> | null>(null);
+  useEffect(() => {
+    const loader = createFrameLoader();
+    const cache = new FrameCache<ImageBitmap>({
+      load: (f, signal) => loader.load(url(f), signal), first: shot.frameStart, last: shot.frameEnd, capacity: capacityFor(width, height), ahead: 32, behind: 10,
+    });
+    setFrames(cache);
+    return () => {
+      cache.dispose();
+      loader.dispose();
+    };
+  }, [url, shot.frameStart, shot.frameEnd, width, height]);
 
   const saving = useShotSaving(teamId, shot, store, start);
   const playback = usePlayback(store);
@@ -186,7 +195,7 @@ export function Workspace({ teamId, shot }: { teamId: string; shot: ShotDetail }
       <div className="grid h-[max(34rem,calc(100dvh-13rem))] grid-cols-[minmax(0,1fr)_21rem] overflow-hidden rounded-[var(--radius-card)] border border-line bg-surface shadow-[var(--shadow-card)]">
         <div className="flex min-h-0 min-w-0 flex-col bg-[#101517]">
           <div className="relative min-h-0 flex-1">
-            <FrameViewer store={store} cache={cache} extraOverlay={<TrackingOverlay store={store} tracking={tracking} />} />
+            {frames && <FrameViewer store={store} cache={frames} extraOverlay={<TrackingOverlay store={store} tracking={tracking} />} />}
           </div>
           <TrackingBar store={store} tracking={tracking} />
           <Transport store={store} playback={playback} jumpRequest={jumpRequest} />
