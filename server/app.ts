@@ -13,6 +13,9 @@ import { applyRateLimits } from "./security/rate-limits";
 import { sameOriginWrites } from "./security/same-origin";
 import { trustedOrigins } from "./security/origins";
 
+export const TRACKING_WORKER_CSP =
+  "default-src 'self'; script-src 'self' 'unsafe-eval' 'wasm-unsafe-eval'; connect-src 'self'; img-src 'self' data: blob:; object-src 'none'";
+
 export function createApp() {
   const e = env();
   const app = express();
@@ -54,6 +57,12 @@ export function createApp() {
 
   const dist = path.resolve("dist");
   if (fs.existsSync(path.join(dist, "index.html"))) {
+    // The tracking worker runs opencv.js, whose build evaluates generated code. A worker obeys the
+    // policy sent with its own script, so only that one file gets 'unsafe-eval'; pages keep theirs.
+    app.use("/assets", (req, res, next) => {
+      if (/^\/track\.worker-[\w-]+\.js$/.test(req.path)) res.setHeader("Content-Security-Policy", TRACKING_WORKER_CSP);
+      next();
+    });
     app.use("/assets", express.static(path.join(dist, "assets"), { immutable: true, maxAge: "1y", index: false }));
     app.use(express.static(dist, { index: false, maxAge: "1h" }));
     app.get("/{*splat}", (_req, res) => res.sendFile(path.join(dist, "index.html")));
