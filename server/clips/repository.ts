@@ -2,7 +2,7 @@
 import { and, asc, desc, eq, inArray, isNotNull, lt, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
-import { clip, member, stick, teamSettings, trainingSession, user } from "../db/schema";
+import { clip, member, shot, shotShare, stick, teamSettings, trainingSession, user } from "../db/schema";
 import type { ClipSort, ShotType } from "../../shared/schemas/clips";
 
 export type ClipRow = typeof clip.$inferSelect;
@@ -177,4 +177,17 @@ export async function existingClipIds(ids: string[]): Promise<Set<string>> {
 export async function readyClips() {
   return db().select({ id: clip.id, frameCount: clip.frameCount, frameFormat: clip.frameFormat }).from(clip)
     .where(and(eq(clip.status, "ready"), isNotNull(clip.frameCount)));
+}
+
+/** Whether a player reaches a clip through one of its shots: their own, or one shared with them. */
+export async function clipReachableByShot(clipId: string, userId: string): Promise<boolean> {
+  const own = await db().select({ id: shot.id }).from(shot).where(and(eq(shot.clipId, clipId), eq(shot.playerId, userId))).limit(1);
+  if (own.length) return true;
+  const shared = await db()
+    .select({ id: shot.id })
+    .from(shot)
+    .innerJoin(shotShare, eq(shotShare.shotId, shot.id))
+    .where(and(eq(shot.clipId, clipId), eq(shotShare.userId, userId)))
+    .limit(1);
+  return shared.length > 0;
 }

@@ -17,7 +17,11 @@ const clipNotFound = () => notFound("That clip");
 /** The clip if the actor may see it; another team's clip or a player's other clips are 404. */
 export async function visibleClip(a: Actor, id: string): Promise<repo.JoinedClip> {
   const j = await repo.clipInTeam(a.teamId, id).catch(() => null);
-  if (!j || !policy.viewClip(a, { teamId: j.clip.teamId, playerId: j.clip.playerId })) throw clipNotFound();
+  if (!j) throw clipNotFound();
+  const resource = { teamId: j.clip.teamId, playerId: j.clip.playerId };
+  // A player also reaches a clip through a shot of theirs on it, or one shared with them.
+  const viaShot = !policy.viewClip(a, resource) && (await repo.clipReachableByShot(id, a.userId));
+  if (!policy.viewClip(a, { ...resource, sharedWith: viaShot ? [a.userId] : [] })) throw clipNotFound();
   return j;
 }
 

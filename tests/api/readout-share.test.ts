@@ -101,3 +101,20 @@ describe("sharing a shot", () => {
     expect((await coach.post(`${R()}/shots/${foreign.shotId}/shares`, { player: true })).status).toBe(404);
   });
 });
+
+describe("a player reaches a clip through a shot", () => {
+  it("sees the clip of their own shot even when the clip names another player; others still get 404", async () => {
+    const { db } = await import("../../server/db/client");
+    const { shot } = await import("../../server/db/schema");
+    const { eq } = await import("drizzle-orm");
+    const s = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player2), label: `Two players ${Date.now()}` });
+    const clipPath = `/api/teams/${world.teamId}/clips/${s.clipId}`;
+    expect((await player.get(clipPath)).status).toBe(404);
+    // a second shot on the same clip belongs to Theo: the clip now opens for him
+    await db().insert(shot).values({ teamId: world.teamId, clipId: s.clipId, playerId: uid(EMAILS.player), label: "Theo on the same clip", frameStart: 1 });
+    expect((await player.get(clipPath)).status).toBe(200);
+    expect((await player2.get(clipPath)).status).toBe(200);
+    await db().delete(shot).where(eq(shot.label, "Theo on the same clip"));
+    expect((await player.get(clipPath)).status).toBe(404);
+  });
+});
