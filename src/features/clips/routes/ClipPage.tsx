@@ -61,6 +61,7 @@ function ClipView({ teamId, clipId, staff }: { teamId: string; clipId: string; s
           <>
             <ButtonLink to="/clips" variant="ghost">All clips</ButtonLink>
             <Button variant="secondary" onClick={openFrame1} disabled={available < 1}>Open frame 1</Button>
+            {status === "ready" && <ButtonLink to={`/clips/${c.id}/shots`}>{staff ? "Shots and digitising" : "Shots"}</ButtonLink>}
             {staff && <Button variant="secondary" onClick={() => setEditing(true)}>Edit details</Button>}
             {staff && <Button variant="ghost-danger" onClick={() => setConfirmDelete(true)}>Delete</Button>}
           </>
