@@ -23,7 +23,7 @@ export async function startJobs({ work }: { work: boolean }) {
       const p = jobPolicies[name];
       // pg-boss 10 has no per-call concurrency: one work() subscription per slot.
       for (let slot = 0; slot < p.concurrency; slot++) {
-        await boss.work(name, { batchSize: 1, includeMetadata: true, pollingIntervalSeconds: 1 }, async ([job]) => {
+        await boss.work(name, { batchSize: 1, includeMetadata: true, pollingIntervalSeconds: 0.5 }, async ([job]) => {
           const jl = log.child({ job: name, jobId: job.id, reqId: (job.data as { reqId?: string }).reqId });
           jl.info("job started");
           // eslint-disable-next-line @typescript-eslint/no-explicit-any
