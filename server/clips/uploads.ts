@@ -12,8 +12,8 @@ import { roleIn } from "../auth/context";
 import { policy, type Actor } from "../auth/policy";
 import { env } from "../env";
 import { log } from "../log";
-import { HttpError } from "../http/problem";
-import { zodToHttp } from "../http/problem";
+import { HttpError, zodToHttp } from "../http/problem";
+import { StorageError } from "../storage/types";
 import { ClipMetaSchema, type ClipMeta } from "../../shared/schemas/clips";
 import { checkMetaRefs, ClipProblem, ingestUpload } from "./ingest";
 import { tusDir } from "./deps";
@@ -38,6 +38,12 @@ function toTusError(err: unknown) {
   if (err instanceof ClipProblem) return tusProblem(err.status, err.code, err.message, err.extra);
   if (err instanceof HttpError) return tusProblem(err.status, err.code, err.message, err.errors ? { errors: err.errors } : {});
   if (err && typeof err === "object" && "status_code" in err) return err as { status_code: number; body: string };
+  // Say what is wrong with the server's disk rather than "internal": the person can tell an admin.
+  const code = err instanceof StorageError ? err.code : (err as NodeJS.ErrnoException | null)?.code;
+  if (code === "disk_full" || code === "ENOSPC" || code === "EDQUOT")
+    return tusProblem(507, "disk_full", "The server's storage is full, so the upload was stopped and nothing was kept. Tell your team admin; the upload can resume once space is freed.");
+  if (code === "unwritable" || code === "EROFS" || code === "EACCES" || code === "EPERM")
+    return tusProblem(503, "storage_unwritable", "The server cannot write to its storage right now, so nothing was kept. Tell your team admin.");
   log.error({ err }, "upload failed");
   return tusProblem(500, "internal", "The upload could not be processed on our side. Try again; if it keeps happening, tell your team admin.");
 }

@@ -102,6 +102,8 @@ describe.skipIf(!canMount)("the storage folder full or read-only", () => {
     try {
       const body = await expectProblem(await patch(url, 0), /^5\d\d$/);
       console.info(`disk full mid-upload answered: ${body.status} ${body.code}: ${body.detail}`);
+      // RFC 4918 §11.5: 507 Insufficient Storage names the cause the person can act on.
+      expect([body.status, body.code]).toEqual([507, "disk_full"]);
       expect(await clipRows()).toEqual([]);
       expect(storedObjects()).toEqual([]);
     } finally {
@@ -128,12 +130,11 @@ describe.skipIf(!canMount)("the storage folder full or read-only", () => {
       expect(r.checks.database.ok).toBe(true);
       const body = await expectProblem(await create(), /^5\d\d$/);
       console.info(`read-only storage answered: ${body.status} ${body.code}: ${body.detail}`);
+      expect([body.status, body.code]).toEqual([503, "storage_unwritable"]);
     } finally {
       sh("mount", "-o", "remount,rw", mnt);
     }
     expect(await clipRows()).toEqual(before);
     expect((await ready()).checks.storage.ok).toBe(true);
   });
-
-  it.todo("names the cause in the upload's answer (507 disk_full / 503 storage_unwritable instead of 500 internal: server/clips/uploads.ts toTusError)");
 });
