@@ -1,19 +1,12 @@
-import { expect, test, type Page } from "@playwright/test";
-import { DEMO_PASSWORD, demoPeople } from "../../server/seed/demo-people";
+import { expect, test } from "@playwright/test";
+import { demoPeople } from "../../server/seed/demo-people";
+import { signIn } from "./support/sign-in";
 
 // The team admin reads who did what: an invitation and a role change show as sentences in the
 // audit log, reached from the navigation; other roles have no link and an explanation instead.
 
 const admin = demoPeople.find((p) => p.role === "admin")!;
 const player = demoPeople.find((p) => p.role === "player")!;
-
-async function signIn(page: Page, email: string) {
-  await page.goto("/sign-in");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).not.toHaveURL(/sign-in/);
-}
 
 test("a team admin reads invitations and role changes in the audit log", async ({ browser }) => {
   const ctx = await browser.newContext();

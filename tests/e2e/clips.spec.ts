@@ -2,19 +2,11 @@ import { execFileSync } from "node:child_process";
 import { mkdtempSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import { expect, test, type Page } from "@playwright/test";
-import { DEMO_PASSWORD } from "../../server/seed/demo-people";
+import { expect, test } from "@playwright/test";
+import { signIn } from "./support/sign-in";
 
 // Done-when of clip ingest: a coach uploads a lab clip stored at 30 fps, confirms that the camera
 // captured at 3,200 fps, watches the extraction bar, and opens frame 1.
-
-async function signIn(page: Page, email: string) {
-  await page.goto("/sign-in");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).not.toHaveURL(/sign-in/);
-}
 
 function makeClip() {
   const file = path.join(mkdtempSync(path.join(os.tmpdir(), "lf-e2e-")), "lab-camera-take-7.mp4");

@@ -3,7 +3,7 @@ import { mkdtempSync, readFileSync, statSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { expect, test, type Page } from "@playwright/test";
-import { DEMO_PASSWORD } from "../../server/seed/demo-people";
+import { signIn } from "./support/sign-in";
 
 // The readout end to end, on made-up shots of the demo club (tests/e2e/support/readout-fixtures.ts):
 // the numbers on the page are the API's in the viewer's units, side by side stays in sync, the
@@ -23,14 +23,6 @@ test.beforeAll(() => {
   });
   ids = JSON.parse(out.toString());
 });
-
-async function signIn(page: Page, email: string) {
-  await page.goto("/sign-in");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).not.toHaveURL(/sign-in/);
-}
 
 async function api(page: Page, p: string) {
   const r = await page.request.get(p);

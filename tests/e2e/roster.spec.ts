@@ -1,5 +1,6 @@
-import { expect, test, type Page } from "@playwright/test";
-import { DEMO_PASSWORD, demoPeople } from "../../server/seed/demo-people";
+import { expect, test } from "@playwright/test";
+import { demoPeople } from "../../server/seed/demo-people";
+import { signIn } from "./support/sign-in";
 
 // The foundation's promise end to end: a team admin invites a member by e-mail, the invitee
 // opens the link from the real message in the mail sink, sets a password and lands in the team;
@@ -7,14 +8,6 @@ import { DEMO_PASSWORD, demoPeople } from "../../server/seed/demo-people";
 
 const inbox = process.env.TEST_INBOX_URL ?? "http://127.0.0.1:1180";
 const admin = demoPeople.find((p) => p.role === "admin")!;
-
-async function signIn(page: Page, email: string, password = DEMO_PASSWORD) {
-  await page.goto("/sign-in");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(password);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).not.toHaveURL(/sign-in/);
-}
 
 async function inviteLink(to: string): Promise<string> {
   for (let i = 0; i < 50; i++) {

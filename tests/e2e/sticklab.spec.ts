@@ -1,19 +1,11 @@
-import { expect, test, type Page } from "@playwright/test";
-import { DEMO_PASSWORD } from "../../server/seed/demo-people";
+import { expect, test } from "@playwright/test";
 import { DEMO_STICK_LABELS } from "../../server/seed/sticks";
+import { signIn } from "./support/sign-in";
 
 // The Stick lab's promise end to end on the demo club: an analyst hangs four weights on a used
 // 85-flex stick and sees it measure about 71 flex (84 % of rated) with its fit chart; the stick's
 // history shows the dip over the season; the beam model marks where the moment peaks. A player
 // sees only their own sticks.
-
-async function signIn(page: Page, email: string) {
-  await page.goto("/sign-in");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).not.toHaveURL(/sign-in/);
-}
 
 test("an analyst bench-tests a used 85 flex, sees ~71 flex (84 %), the season's dip and the beam model's moment peak", async ({ page }) => {
   await signIn(page, "analyst@ravens.example");
