@@ -12,3 +12,4 @@ export { PageHeader } from "./PageHeader";
 export { Spinner, PageSpinner } from "./Spinner";
 export { Table, THead, TBody, Tr, Th, Td } from "./Table";
 export { Toaster, toast } from "./Toast";
+export { LoadError } from "./LoadError";

@@ -1,6 +1,5 @@
 import { useState } from "react";
-import { Alert, Button, EmptyState, PageHeader, PageSpinner, Select } from "@/components/ui";
-import { errorMessage } from "@/lib/api";
+import { EmptyState, PageHeader, PageSpinner, Select, LoadError } from "@/components/ui";
 import { useActiveTeam } from "@/lib/session";
 import { useAuditLog } from "../api/auditLog";
 import { useMemberNames } from "../api/memberNames";
@@ -52,12 +51,7 @@ function AdminAudit({ teamId, teamName }: { teamId: string; teamName: string }) 
       {log.isPending ? (
         <PageSpinner label="Loading the audit log…" />
       ) : log.isError ? (
-        <Alert tone="danger" title="Couldn't load the audit log">
-          <p>{errorMessage(log.error)}</p>
-          <Button variant="secondary" size="sm" className="mt-3" onClick={() => log.refetch()}>
-            Try again
-          </Button>
-        </Alert>
+        <LoadError title="Couldn't load the audit log" error={log.error} onRetry={() => log.refetch()} />
       ) : shown.length === 0 ? (
         <EmptyState title={log.data.length ? "Nothing of this kind yet" : "Nothing recorded yet"}>
           Role changes, invitations, deletions and shares are recorded here as they happen.

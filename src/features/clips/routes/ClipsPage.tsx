@@ -1,6 +1,5 @@
 import { useSearchParams } from "react-router-dom";
-import { Alert, Button, Card, EmptyState, PageHeader, PageSpinner } from "@/components/ui";
-import { errorMessage } from "@/lib/api";
+import { Button, Card, EmptyState, PageHeader, PageSpinner, LoadError } from "@/components/ui";
 import { useActiveTeam } from "@/lib/session";
 import { clipSorts, clipStatuses, shotTypes, type ClipListQuery, type ClipSort } from "@shared/schemas/clips";
 import { useClipOptions } from "../api/clipOptions";
@@ -61,10 +60,7 @@ function ClipsLibrary({ teamId, teamName, staff }: { teamId: string; teamName: s
             <PageSpinner label="Loading clips…" />
           ) : clips.isError ? (
             <div className="p-5">
-              <Alert tone="danger" title="Couldn't load the clips">
-                <p>{errorMessage(clips.error)}</p>
-                <Button variant="secondary" size="sm" className="mt-3" onClick={() => clips.refetch()}>Try again</Button>
-              </Alert>
+              <LoadError title="Couldn't load the clips" error={clips.error} onRetry={() => clips.refetch()} />
             </div>
           ) : clips.data.total === 0 ? (
             <div className="p-5">

@@ -1,7 +1,6 @@
 import { useMemo, useState } from "react";
 import { useNavigate } from "react-router-dom";
-import { Alert, Button, ButtonLink, Card, EmptyState, PageHeader, PageSpinner, Select } from "@/components/ui";
-import { errorMessage } from "@/lib/api";
+import { Button, ButtonLink, Card, EmptyState, PageHeader, PageSpinner, Select, LoadError } from "@/components/ui";
 import { isStaff } from "@/lib/roles";
 import { useActiveTeam } from "@/lib/session";
 import { useUnits } from "@/lib/units";
@@ -47,12 +46,7 @@ function Shots({ teamId, teamName, staff }: { teamId: string; teamName: string; 
     return (
       <>
         {header}
-        <Alert tone="danger" title="Couldn't load the shots">
-          <p>{errorMessage(q.error)}</p>
-          <Button variant="secondary" size="sm" className="mt-3" onClick={() => q.refetch()}>
-            Try again
-          </Button>
-        </Alert>
+        <LoadError title="Couldn't load the shots" error={q.error} onRetry={() => q.refetch()} />
       </>
     );
   if (!q.data.shots.length)

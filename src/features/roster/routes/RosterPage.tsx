@@ -1,5 +1,4 @@
-import { Alert, Button, EmptyState, PageHeader, PageSpinner } from "@/components/ui";
-import { errorMessage } from "@/lib/api";
+import { EmptyState, PageHeader, PageSpinner, LoadError } from "@/components/ui";
 import { useActiveTeam, useSession } from "@/lib/session";
 import { useRoster } from "../api/roster";
 import { InvitationsTable } from "../components/InvitationsTable";
@@ -34,12 +33,7 @@ function AdminRoster({ teamId, teamName }: { teamId: string; teamName: string })
           {roster.isPending ? (
             <PageSpinner label="Loading the roster…" />
           ) : roster.isError ? (
-            <Alert tone="danger" title="Couldn't load the roster">
-              <p>{errorMessage(roster.error)}</p>
-              <Button variant="secondary" size="sm" className="mt-3" onClick={() => roster.refetch()}>
-                Try again
-              </Button>
-            </Alert>
+            <LoadError title="Couldn't load the roster" error={roster.error} onRetry={() => roster.refetch()} />
           ) : (
             <>
               <MembersTable teamId={teamId} teamName={teamName} members={roster.data.members} myUserId={me.user.id} />

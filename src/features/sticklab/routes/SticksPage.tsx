@@ -1,6 +1,5 @@
 import { useState } from "react";
-import { Alert, Button, EmptyState, PageHeader, PageSpinner } from "@/components/ui";
-import { errorMessage } from "@/lib/api";
+import { Alert, Button, EmptyState, PageHeader, PageSpinner, LoadError } from "@/components/ui";
 import { useActiveTeam } from "@/lib/session";
 import { useSticks } from "../api/sticks";
 import { AlertLevelCard } from "../components/AlertLevelCard";
@@ -34,12 +33,7 @@ function Sticks({ teamId, teamName }: { teamId: string; teamName: string }) {
       {sticks.isPending ? (
         <PageSpinner label="Loading sticks…" />
       ) : sticks.isError ? (
-        <Alert tone="danger" title="Couldn't load the sticks">
-          <p>{errorMessage(sticks.error)}</p>
-          <Button variant="secondary" size="sm" className="mt-3" onClick={() => sticks.refetch()}>
-            Try again
-          </Button>
-        </Alert>
+        <LoadError title="Couldn't load the sticks" error={sticks.error} onRetry={() => sticks.refetch()} />
       ) : (
         <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_20rem]">
           <div className="flex min-w-0 flex-col gap-4">
