@@ -87,7 +87,9 @@ try {
 
   const port = await freePort();
   const base = `http://127.0.0.1:${port}`;
-  server = spawn(process.execPath, ["--import", "tsx", "server/index.ts"], { env: { ...process.env, PORT: String(port), PUBLIC_URL: base, LOG_LEVEL: "error" }, stdio: ["ignore", "ignore", "inherit"] });
+  // BENCH_CPU_PROF=<folder> writes a V8 CPU profile of the server (open it in Chromium's DevTools).
+  const prof = process.env.BENCH_CPU_PROF ? ["--cpu-prof", "--cpu-prof-dir", path.resolve(process.env.BENCH_CPU_PROF)] : [];
+  server = spawn(process.execPath, [...prof, "--import", "tsx", "server/index.ts"], { env: { ...process.env, PORT: String(port), PUBLIC_URL: base, LOG_LEVEL: "error" }, stdio: ["ignore", "ignore", "inherit"] });
   for (let i = 0; i < 150 && !(await fetch(`${base}/api/health`).then((r) => r.ok, () => false)); i++) await new Promise((r) => setTimeout(r, 200));
   const { DEMO_PASSWORD } = await import("../../server/seed/demo-people");
   const signIn = await fetch(`${base}/api/auth/sign-in/email`, { method: "POST", headers: { "content-type": "application/json", origin: base }, body: JSON.stringify({ email: "coach@ravens.example", password: DEMO_PASSWORD }) });

@@ -9,6 +9,8 @@ import { sendMail } from "../mail/mailer";
 import { inviteMail, resetPasswordMail } from "../mail/templates";
 
 const INVITATION_TTL_S = 7 * 24 * 3600;
+/** How long a signed-out or revoked session can still be honoured by another browser tab or device. */
+export const SESSION_CACHE_S = 60;
 
 function makeAuth() {
   const e = env();
@@ -26,7 +28,9 @@ function makeAuth() {
         await sendMail(resetPasswordMail({ to: user.email, name: user.name, url }));
       },
     },
-    session: { expiresIn: 14 * 24 * 3600, updateAge: 24 * 3600 },
+    // A signed, short-lived copy of the session in a cookie spares a database read on every
+    // request (docs/decisions/105-session-cookie-cache.md). Team membership is still read each time.
+    session: { expiresIn: 14 * 24 * 3600, updateAge: 24 * 3600, cookieCache: { enabled: true, maxAge: SESSION_CACHE_S } },
     advanced: {
       useSecureCookies: e.PUBLIC_URL.startsWith("https://"),
       defaultCookieAttributes: { httpOnly: true, sameSite: "lax" },

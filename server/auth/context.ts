@@ -1,9 +1,10 @@
 import type { NextFunction, Request, Response } from "express";
 import { fromNodeHeaders } from "better-auth/node";
-import { and, eq } from "drizzle-orm";
+import { and, eq, sql } from "drizzle-orm";
 import { auth } from "./auth";
 import { db } from "../db/client";
 import { member } from "../db/schema";
+import { prepared } from "../db/prepared";
 import { HttpError, notFound, unauthenticated } from "../http/problem";
 import { RoleSchema } from "../../shared/schemas/roster";
 import type { Actor } from "./policy";
@@ -42,8 +43,12 @@ export async function requireUser(req: Request, _res: Response, next: NextFuncti
 }
 
 /** Role of a user in a team, or null when not a member (callers answer 404: nothing leaks). */
+const roleQuery = prepared("role_in", (name) =>
+  db().select({ role: member.role }).from(member).where(and(eq(member.userId, sql.placeholder("userId")), eq(member.organizationId, sql.placeholder("teamId")))).prepare(name),
+);
+
 export async function roleIn(userId: string, teamId: string) {
-  const [row] = await db().select({ role: member.role }).from(member).where(and(eq(member.userId, userId), eq(member.organizationId, teamId)));
+  const [row] = await roleQuery().execute({ userId, teamId });
   if (!row) return null;
   const parsed = RoleSchema.safeParse(row.role.split(",")[0]?.trim());
   return parsed.success ? parsed.data : null;

@@ -1,6 +1,6 @@
 // Clip rows as the API shows them (shared/schemas/clips.ts).
 import { needsCaptureRateConfirmation, type ClipDetail, type ClipProgress, type ClipSummary } from "../../shared/schemas/clips";
-import type { ClipRow, JoinedClip } from "./repository";
+import type { ClipRow, JoinedClip, JoinedClipSummary } from "./repository";
 
 export const clipBase = (teamId: string, clipId: string) => `/api/teams/${teamId}/clips/${clipId}`;
 
@@ -10,7 +10,7 @@ export function progressOf(c: Pick<ClipRow, "status" | "framesDone" | "frameCoun
   return Math.min(1, c.framesDone / c.frameCount);
 }
 
-export function toSummary(j: JoinedClip): ClipSummary {
+export function toSummary(j: JoinedClipSummary): ClipSummary {
   const c = j.clip;
   const base = clipBase(c.teamId, c.id);
   const hasFrames = c.framesDone > 0 || c.status === "ready";

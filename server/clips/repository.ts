@@ -1,7 +1,8 @@
 // The only Drizzle code of clip ingest.
-import { and, asc, desc, eq, inArray, isNotNull, lt, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, getTableColumns, inArray, isNotNull, lt, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
+import { preparedBy } from "../db/prepared";
 import { clip, member, shot, shotShare, stick, teamSettings, trainingSession, user } from "../db/schema";
 import type { ClipSort, ShotType } from "../../shared/schemas/clips";
 
@@ -10,11 +11,15 @@ export type NewClipRow = typeof clip.$inferInsert;
 
 const uploader = alias(user, "uploader");
 
-/** A clip with the names the API shows next to it. */
-const joined = () =>
+// The clips table shows none of the heavy columns (the probe, one timestamp per frame, the
+// calibration): leaving them out of the list keeps a page of 25 rows small to read and parse.
+const { probe: _probe, frameTimes: _frameTimes, calibration: _calibration, ...summaryColumns } = getTableColumns(clip);
+
+/** A clip with the names the API shows next to it; the list reads only the summary columns. */
+const joined = <C extends typeof clip | typeof summaryColumns>(columns: C) =>
   db()
     .select({
-      clip,
+      clip: columns,
       playerName: user.name,
       uploaderName: uploader.name,
       session: { id: trainingSession.id, date: trainingSession.date, venue: trainingSession.venue, drill: trainingSession.drill },
@@ -25,10 +30,11 @@ const joined = () =>
     .leftJoin(uploader, eq(uploader.id, clip.uploadedBy))
     .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
     .leftJoin(stick, eq(stick.id, clip.stickId));
-export type JoinedClip = Awaited<ReturnType<typeof joined>>[number];
+export type JoinedClip = Awaited<ReturnType<typeof joined<typeof clip>>>[number];
+export type JoinedClipSummary = Awaited<ReturnType<typeof joined<typeof summaryColumns>>>[number];
 
 export async function clipInTeam(teamId: string, id: string): Promise<JoinedClip | null> {
-  const [row] = await joined().where(and(eq(clip.teamId, teamId), eq(clip.id, id)));
+  const [row] = await joined(clip).where(and(eq(clip.teamId, teamId), eq(clip.id, id)));
   return row ?? null;
 }
 
@@ -55,21 +61,32 @@ const sortColumn: Record<ClipSort, SQL | typeof clip.createdAt> = {
   status: sql`${clip.status}`,
 };
 
-export async function listClips(teamId: string, f: ListFilter, sort: ClipSort, dir: "asc" | "desc", page: number, pageSize: number) {
-  const where = and(
-    eq(clip.teamId, teamId),
-    f.playerId ? eq(clip.playerId, f.playerId) : undefined,
-    f.sessionId ? eq(clip.sessionId, f.sessionId) : undefined,
-    f.shotType ? eq(clip.shotType, f.shotType) : undefined,
-    f.status ? eq(clip.status, f.status) : undefined,
-  );
+const filterKeys = ["playerId", "sessionId", "shotType", "status"] as const;
+const filterColumn = { playerId: clip.playerId, sessionId: clip.sessionId, shotType: clip.shotType, status: clip.status } as const;
+type PageKey = `${ClipSort}:${"asc" | "desc"}:${string}`;
+
+// One prepared statement pair (page rows, total) per sort, direction and set of filters used.
+const pageQueries = preparedBy<PageKey, ReturnType<typeof buildPage>>("clip_page", (name, key) => buildPage(name, key));
+function buildPage(name: string, key: PageKey) {
+  const [sort, dir, used] = key.split(":") as [ClipSort, "asc" | "desc", string];
+  const where = and(eq(clip.teamId, sql.placeholder("teamId")), ...filterKeys.filter((k) => used.split(",").includes(k)).map((k) => eq(filterColumn[k], sql.placeholder(k))));
   const order = dir === "asc" ? asc : desc;
-  const rows = await joined()
-    .where(where)
-    .orderBy(order(sortColumn[sort]), desc(clip.createdAt), asc(clip.id))
-    .limit(pageSize)
-    .offset((page - 1) * pageSize);
-  const [{ n }] = await db().select({ n: sql<number>`count(*)::int` }).from(clip).where(where);
+  return {
+    rows: joined(summaryColumns)
+      .where(where)
+      .orderBy(order(sortColumn[sort]), desc(clip.createdAt), asc(clip.id))
+      .limit(sql.placeholder("limit"))
+      .offset(sql.placeholder("offset"))
+      .prepare(`${name}:rows`),
+    total: db().select({ n: sql<number>`count(*)::int` }).from(clip).where(where).prepare(`${name}:total`),
+  };
+}
+
+export async function listClips(teamId: string, f: ListFilter, sort: ClipSort, dir: "asc" | "desc", page: number, pageSize: number) {
+  const used = filterKeys.filter((k) => f[k]);
+  const q = pageQueries(`${sort}:${dir}:${used.join(",")}`);
+  const params = { teamId, ...Object.fromEntries(used.map((k) => [k, f[k]])), limit: pageSize, offset: (page - 1) * pageSize };
+  const [rows, [{ n }]] = [await q.rows.execute(params), await q.total.execute(params)];
   return { rows, total: n };
 }
 

@@ -14,3 +14,14 @@ export async function viaAuth<T>(fn: () => Promise<T>, fallbackCode = "auth_erro
     throw e;
   }
 }
+
+/**
+ * Cookies from several better-auth calls, the later ones winning by name. The session cookie
+ * cache (server/auth/auth.ts) makes this matter: a call that changes the session (the active
+ * team, a new sign-in) sends a new signed copy, and the browser must get the newest one.
+ */
+export function mergeSetCookies(...lists: string[][]): string[] {
+  const byName = new Map<string, string>();
+  for (const c of lists.flat()) byName.set(c.slice(0, c.indexOf("=")), c);
+  return [...byName.values()];
+}

@@ -9,6 +9,8 @@ meRouter.use(requireUser);
 meRouter.get("/", async (req, res) => void res.json(await me(signedInOf(req))));
 meRouter.put("/active-team", async (req, res) => {
   const { teamId } = parse(ActiveTeamBodySchema, req.body);
-  res.json(await setActiveTeam(signedInOf(req), headersOf(req), teamId));
+  const r = await setActiveTeam(signedInOf(req), headersOf(req), teamId);
+  for (const c of r.setCookies) res.append("Set-Cookie", c);
+  res.json(r.me);
 });
 meRouter.patch("/prefs", async (req, res) => void res.json(await updatePrefs(signedInOf(req), parse(PrefsBodySchema, req.body))));

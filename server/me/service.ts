@@ -11,15 +11,17 @@ export async function me(s: SignedIn): Promise<MeResponse> {
   return { user: s.user, prefs: await getPrefs(s.user.id), teams, activeTeamId: active };
 }
 
-export async function setActiveTeam(s: SignedIn, headers: Headers, teamId: string): Promise<MeResponse> {
+/** Switches the session's team; returns the answer and the refreshed session cookies to set. */
+export async function setActiveTeam(s: SignedIn, headers: Headers, teamId: string): Promise<{ me: MeResponse; setCookies: string[] }> {
   const teams = await teamsOf(s.user.id);
   if (!teams.some((t) => t.id === teamId)) throw notFound("That team");
+  let setCookies: string[];
   try {
-    await auth().api.setActiveOrganization({ headers, body: { organizationId: teamId } });
+    setCookies = (await auth().api.setActiveOrganization({ headers, body: { organizationId: teamId }, returnHeaders: true })).headers.getSetCookie();
   } catch (e) {
     throw new HttpError(409, "switch_failed", `Could not switch team: ${(e as Error).message}`);
   }
-  return me({ ...s, activeTeamId: teamId });
+  return { me: await me({ ...s, activeTeamId: teamId }), setCookies };
 }
 
 export const updatePrefs = (s: SignedIn, patch: Partial<Prefs>) => savePrefs(s.user.id, patch);

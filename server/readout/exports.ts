@@ -33,13 +33,13 @@ export function fileStem(title: string, shotId: string): string {
 }
 
 export async function marksExport(a: Actor, shotId: string, asked?: UnitSystem): Promise<FileAnswer> {
-  const { row } = await visibleShot(a, shotId);
+  const { row } = await visibleShot(a, shotId, "That shot", { marks: "always" });
   const units = await unitsFor(a, asked);
   const title = shotTitle({ label: row.label, shotType: row.shotType, date: row.sessionDate ?? row.clipCreatedAt.toISOString().slice(0, 10), playerName: row.playerName });
   return {
     filename: `${fileStem(title, shotId)}-marks.csv`,
     contentType: "text/csv; charset=utf-8",
-    body: marksCsv({ marks: row.marks, captureFps: row.captureFps, frameStart: row.frameStart, puckStrike: row.events.puckStrike ?? null, calibration: row.calibration, units }),
+    body: marksCsv({ marks: row.marks ?? {}, captureFps: row.captureFps, frameStart: row.frameStart, puckStrike: row.events.puckStrike ?? null, calibration: row.calibration, units }),
   };
 }
 

@@ -1,6 +1,7 @@
 import { and, asc, desc, eq, inArray, or, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
+import { prepared, preparedBy } from "../db/prepared";
 import { auditLog, clip, member, organization, shot, shotResult, shotShare, stick, trainingSession, user } from "../db/schema";
 import { ShotResults } from "../../shared/schemas/shot-results";
 import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../shared/schemas/shots";
@@ -53,11 +54,23 @@ function typed<R extends { events: unknown; calibration: unknown }>(r: R) {
   return { ...r, events: r.events as ShotEventsDraft, calibration: r.calibration as ClipCalibration | null };
 }
 
-/** One shot with everything the readout shows, results (with time series) included. */
-export async function shotById(teamId: string, shotId: string) {
-  const [row] = await joined(withEverything)
-    .where(and(eq(shot.id, shotId), eq(shot.teamId, teamId)));
-  return row ? { ...typed(row), results: fullResults(row.results), marks: row.marks as ShotMarks } : null;
+// The readout needs a shot's marks (tens of kB) only to say what is missing while it has no
+// results; reading them for every readout would double what each request parses.
+const marksWhenNoResults = sql<unknown>`case when jsonb_typeof(${shotResult.results}) = 'object' then null else ${shot.marks} end`;
+
+const shotQuery = preparedBy("readout_shot", (name, marks: "always" | "without results") =>
+  joined({ ...withEverything, marks: marks === "always" ? withEverything.marks : marksWhenNoResults })
+    .where(and(eq(shot.id, sql.placeholder("shotId")), eq(shot.teamId, sql.placeholder("teamId"))))
+    .prepare(name),
+);
+
+/**
+ * One shot with everything the readout shows, results (with time series) included. Marks are
+ * read when asked for (`marks: "always"`), else only while the shot has no results.
+ */
+export async function shotById(teamId: string, shotId: string, o: { marks?: "always" | "without results" } = {}) {
+  const [row] = await shotQuery(o.marks ?? "without results").execute({ teamId, shotId });
+  return row ? { ...typed(row), results: fullResults(row.results), marks: row.marks as ShotMarks | null } : null;
 }
 export type ReadoutRow = NonNullable<Awaited<ReturnType<typeof shotById>>>;
 
@@ -85,16 +98,21 @@ export async function listShots(teamId: string, f: ShotListQuery, scope: ListSco
 export type ListRow = Awaited<ReturnType<typeof listShots>>[number];
 
 /** Everyone each shot is shared with, with names and roles in the team. */
-export async function sharesOf(teamId: string, shotIds: string[]) {
-  if (!shotIds.length) return [];
-  return db()
+const sharesQuery = prepared("readout_shares", (name) =>
+  db()
     .select({ shotId: shotShare.shotId, userId: shotShare.userId, name: user.name, role: member.role, sharedAt: shotShare.createdAt, sharedByName: sharer.name })
     .from(shotShare)
     .innerJoin(user, eq(user.id, shotShare.userId))
-    .leftJoin(member, and(eq(member.userId, shotShare.userId), eq(member.organizationId, teamId)))
+    .leftJoin(member, and(eq(member.userId, shotShare.userId), eq(member.organizationId, sql.placeholder("teamId"))))
     .leftJoin(sharer, eq(sharer.id, shotShare.sharedBy))
-    .where(and(eq(shotShare.teamId, teamId), inArray(shotShare.shotId, shotIds)))
-    .orderBy(asc(user.name));
+    .where(and(eq(shotShare.teamId, sql.placeholder("teamId")), sql`${shotShare.shotId} = any(${sql.placeholder("shotIds")}::uuid[])`))
+    .orderBy(asc(user.name))
+    .prepare(name),
+);
+
+export async function sharesOf(teamId: string, shotIds: string[]) {
+  if (!shotIds.length) return [];
+  return sharesQuery().execute({ teamId, shotIds });
 }
 
 /** Adds shares; returns the user ids that were new (an existing share stays as it was). */

@@ -23,9 +23,9 @@ function shareRows(rows: Awaited<ReturnType<typeof repo.sharesOf>>): ShareRow[] 
 }
 
 /** A shot the actor may see with its shares, else 404 (410 for staff when the audit log says it was deleted). */
-export async function visibleShot(a: Actor, shotId: string, which = "That shot") {
+export async function visibleShot(a: Actor, shotId: string, which = "That shot", o: { marks?: "always" } = {}) {
   if (!UUID.test(shotId)) throw shotNotFound(which);
-  const row = await repo.shotById(a.teamId, shotId);
+  const row = await repo.shotById(a.teamId, shotId, o);
   if (!row) {
     const gone = isStaff(a) ? await repo.shotDeletion(a.teamId, shotId) : null;
     if (gone)

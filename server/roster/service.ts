@@ -2,7 +2,7 @@ import { auth } from "../auth/auth";
 import type { SignedIn } from "../auth/context";
 import { policy, type Actor } from "../auth/policy";
 import { recordAudit } from "../audit/repository";
-import { viaAuth } from "../http/better-auth-errors";
+import { mergeSetCookies, viaAuth } from "../http/better-auth-errors";
 import { forbidden, HttpError, notFound } from "../http/problem";
 import { RoleSchema, type InvitationPublic, type Role, type RosterResponse } from "../../shared/schemas/roster";
 import * as repo from "./repository";
@@ -116,7 +116,8 @@ export async function acceptInvitation(id: string, signedIn: SignedIn | null, he
     authHeaders = new Headers({ cookie: setCookies.map((c) => c.split(";")[0]).join("; "), origin: headers.get("origin") ?? "" });
   }
   await viaAuth(() => auth().api.acceptInvitation({ headers: authHeaders, body: { invitationId: id } }));
-  await viaAuth(() => auth().api.setActiveOrganization({ headers: authHeaders, body: { organizationId: inv.teamId } }));
+  const { headers: active } = await viaAuth(() => auth().api.setActiveOrganization({ headers: authHeaders, body: { organizationId: inv.teamId }, returnHeaders: true }));
+  setCookies = mergeSetCookies(setCookies, active.getSetCookie());
   await recordAudit({ teamId: inv.teamId, actorId: null, action: "member.joined", targetType: "invitation", targetId: id, detail: { email: inv.email, role: inv.role } });
   return { teamId: inv.teamId, setCookies };
 }
