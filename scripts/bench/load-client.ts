@@ -1,7 +1,39 @@
 // An open-loop load generator: request i is sent at start + i/rate whatever happened to the
 // earlier ones, and its latency is counted from that planned moment, so a slow server cannot hide
 // its queue by slowing the client down (no coordinated omission). Bounded by count and time.
+import http from "node:http";
 import { quantileSorted } from "simple-statistics";
+
+/**
+ * A light GET client for the generator: node:http over keep-alive sockets, with a cookie jar that
+ * takes Set-Cookie like a browser (the session cookie cache is refreshed that way). The generator
+ * shares the machine with the server, so it should cost as little CPU as it can: fetch() took
+ * about 1.3 ms of CPU a request here, this about 0.7 ms (measured in one run, same server).
+ */
+export function httpClient(cookie = "") {
+  const agent = new http.Agent({ keepAlive: true, maxSockets: 512 });
+  const jar = new Map(cookie.split("; ").filter(Boolean).map((c) => [c.slice(0, c.indexOf("=")), c.slice(c.indexOf("=") + 1)] as const));
+  const take = (setCookie: string[] | undefined) => {
+    for (const c of setCookie ?? []) {
+      const [pair] = c.split(";");
+      const k = pair.slice(0, pair.indexOf("="));
+      if (/max-age=0/i.test(c)) jar.delete(k);
+      else jar.set(k, pair.slice(pair.indexOf("=") + 1));
+    }
+  };
+  const get = (url: string, signal: AbortSignal) =>
+    new Promise<number>((resolve, reject) => {
+      const headers = jar.size ? { cookie: [...jar].map(([k, v]) => `${k}=${v}`).join("; ") } : {};
+      const q = http.get(url, { agent, headers, signal }, (res) => {
+        take(res.headers["set-cookie"]);
+        res.on("data", () => {});
+        res.on("end", () => resolve(res.statusCode ?? 0));
+        res.on("error", reject);
+      });
+      q.on("error", reject);
+    });
+  return { get, close: () => agent.destroy() };
+}
 
 export interface Figures { n: number; errors: number; p50: number; p95: number; p99: number; max: number; achievedRps: number }
 

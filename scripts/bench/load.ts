@@ -14,7 +14,7 @@ import os from "node:os";
 import path from "node:path";
 import pg from "pg";
 import * as tus from "tus-js-client";
-import { fmt, openLoop, sequential, type Figures } from "./load-client";
+import { fmt, httpClient, openLoop, sequential, type Figures } from "./load-client";
 import { BENCH_SIZE, seedBenchTeam } from "./load-seed";
 
 if (!process.env.PG_ADMIN_URL) {
@@ -145,11 +145,8 @@ try {
   )).rows.map((r) => r.id);
   const player = seeded.players[0];
   const sorts = ["created", "title", "player", "status"] as const;
-  const get = (u: string) => async (signal: AbortSignal) => {
-    const r = await fetch(u, { headers: { cookie }, signal });
-    await r.arrayBuffer();
-    return r.status === 200;
-  };
+  const client = httpClient(cookie);
+  const get = (u: string) => async (signal: AbortSignal) => (await client.get(u, signal)) === 200;
   // The 200/s pair is what people do all day; the other two are printed for the record at a rate
   // the server can carry (deep pages sort every clip of the team; a player's list is unpaged).
   const scenarios: { name: string; rate: number; seconds: number; http: (i: number) => string; raw: (i: number) => Promise<unknown> }[] = [
@@ -192,7 +189,7 @@ try {
   const barePort = await freePort();
   const bare = spawn(process.execPath, ["-e", `require("express")().get("/", (q, r) => r.json({ ok: true })).listen(${barePort}, "127.0.0.1")`], { stdio: "ignore" });
   for (let i = 0; i < 50 && !(await fetch(`http://127.0.0.1:${barePort}/`).then((r) => r.ok, () => false)); i++) await new Promise((r) => setTimeout(r, 100));
-  const bareFig = await openLoop({ rate: RATE, seconds: 5, timeoutMs: 30_000, request: async (_i, signal) => (await fetch(`http://127.0.0.1:${barePort}/`, { signal }).then((r) => r.arrayBuffer().then(() => r.ok))) });
+  const bareFig = await openLoop({ rate: RATE, seconds: 5, timeoutMs: 30_000, request: (_i, signal) => get(`http://127.0.0.1:${barePort}/`)(signal) });
   bare.kill();
   const healthFig = await openLoop({ rate: RATE, seconds: 5, timeoutMs: 30_000, request: (_i, signal) => get(`${base}/api/health`)(signal) });
   console.log(`  bare Express, empty answer    ${fmt(bareFig)}`);
@@ -216,6 +213,7 @@ try {
   console.log(`  HTTP ceiling @ ${RATE}/s: bare Express p95 ${bareFig.p95.toFixed(1)} ms, app /api/health p95 ${healthFig.p95.toFixed(1)} ms`);
   for (const t of table) console.log(`  ${t.name} @ ${t.rate}/s: p50 ${t.api.p50.toFixed(1)} / p95 ${t.api.p95.toFixed(1)} / p99 ${t.api.p99.toFixed(1)} ms (raw p95 ${t.raw.p95.toFixed(1)} ms)${t.api.errors ? `, ${t.api.errors} errors` : ""}`);
   console.log(`  total ${((Date.now() - t0) / 1000).toFixed(0)} s; load average ${load()} at the end (${os.cpus().length} cores)`);
+  client.close();
   await (await import("../../server/db/client")).db().pool.end();
   await cleanup();
   clearTimeout(hardStop);
