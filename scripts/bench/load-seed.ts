@@ -8,7 +8,7 @@ export const BENCH_SIZE = { players: 40, sessions: 100, clips: 5000, shotsPerCli
 
 async function columns(c: pg.Client, table: string): Promise<string[]> {
   const r = await c.query<{ column_name: string }>(
-    `select column_name from information_schema.columns where table_schema = 'public' and table_name = $1 order by ordinal_position`,
+    `select column_name from information_schema.columns where table_schema = 'public' and table_name = $1 and is_generated = 'NEVER' order by ordinal_position`,
     [table],
   );
   return r.rows.map((x) => x.column_name);

@@ -147,8 +147,8 @@ try {
   const sorts = ["created", "title", "player", "status"] as const;
   const client = httpClient(cookie);
   const get = (u: string) => async (signal: AbortSignal) => (await client.get(u, signal)) === 200;
-  // The 200/s pair is what people do all day; the other two are printed for the record at a rate
-  // the server can carry (deep pages sort every clip of the team; a player's list is unpaged).
+  // The 200/s pair is what people do all day; the others are printed for the record at a lower
+  // rate (deep pages and the results list sort every clip or shot of the team).
   const scenarios: { name: string; rate: number; seconds: number; http: (i: number) => string; raw: (i: number) => Promise<unknown> }[] = [
     {
       name: "clip list as the clips page opens it (newest first, pages 1-4)", rate: RATE, seconds: SECONDS,
@@ -169,9 +169,14 @@ try {
       raw: (i) => clipRepo.listClips(ids.teamId, {}, sorts[i % 4], "desc", (i * 7) % 200 + 1, 25),
     },
     {
-      name: `one player's results list (${Math.round(seeded.shots / seeded.players.length)} shots, unpaged)`, rate: 5, seconds: 4,
-      http: () => `${team}/readout/shots?playerId=${encodeURIComponent(player)}`,
-      raw: () => readoutRepo.listShots(ids.teamId, { playerId: player }, {}),
+      name: "results list as the Shots page opens it (the team's newest 50)", rate: 20, seconds: 5,
+      http: () => `${team}/readout/shots?page=1&pageSize=50`,
+      raw: () => readoutRepo.listShots(ids.teamId, {}, {}, { limit: 50, offset: 0 }),
+    },
+    {
+      name: `one player's results list, any page of 50 (${Math.round(seeded.shots / seeded.players.length)} shots)`, rate: 20, seconds: 5,
+      http: (i) => `${team}/readout/shots?playerId=${encodeURIComponent(player)}&page=${(i % 20) + 1}&pageSize=50`,
+      raw: (i) => readoutRepo.listShots(ids.teamId, { playerId: player }, {}, { limit: 50, offset: (i % 20) * 50 }),
     },
   ];
   /** Requests the client gave up on keep running on the server: wait until it is idle again. */

@@ -151,7 +151,7 @@ export const shot = pgTable(
     createdAt: createdAt(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).defaultNow().notNull(),
   },
-  (t) => [index("shot_team_player_idx").on(t.teamId, t.playerId), index("shot_clip_idx").on(t.clipId)],
+  (t) => [index("shot_team_player_idx").on(t.teamId, t.playerId), index("shot_team_stick_idx").on(t.teamId, t.stickId), index("shot_clip_idx").on(t.clipId)],
 );
 
 export const shotResult = pgTable("shot_result", {
@@ -160,6 +160,11 @@ export const shotResult = pgTable("shot_result", {
   engineVersion: text("engine_version").notNull(),
   /** Null with `error` set when the marks are not yet enough to compute. */
   results: jsonb("results"),
+  /**
+   * The results without their time series, kept by PostgreSQL itself: lists and trends read this
+   * (a few hundred bytes) instead of decompressing every stored result (docs/decisions/107-results-summary-column.md).
+   */
+  summary: jsonb("summary").generatedAlwaysAs(sql`case when jsonb_typeof(results) = 'object' then results - 'series' end`),
   error: text("error"),
   shotVersion: integer("shot_version").notNull(),
   computedAt: timestamp("computed_at", { withTimezone: true }).defaultNow().notNull(),

@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNotNull, or, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
 import { prepared, preparedBy } from "../db/prepared";
@@ -25,8 +25,8 @@ const baseColumns = {
 
 const withResultSummary = {
   ...baseColumns,
-  // A result stored as JSON null (not SQL null) must not make "- 'series'" fail.
-  summary: sql<Omit<ShotResults, "series"> | null>`case when jsonb_typeof(${shotResult.results}) = 'object' then ${shotResult.results} - 'series' end`,
+  // Kept by PostgreSQL beside the full results (a generated column), so lists never detoast them.
+  summary: sql<Omit<ShotResults, "series"> | null>`${shotResult.summary}`,
 };
 const withEverything = { ...withResultSummary, results: sql<unknown>`${shotResult.results}`, marks: sql<unknown>`${shot.marks}` };
 
@@ -79,8 +79,7 @@ export interface ListScope {
   onlyVisibleTo?: string;
 }
 
-/** Shots of the team, newest first, with the results but without their time series (small rows). */
-export async function listShots(teamId: string, f: ShotListQuery, scope: ListScope) {
+function listWhere(teamId: string, f: ShotListQuery, scope: ListScope) {
   const where: SQL[] = [eq(shot.teamId, teamId)];
   if (f.playerId) where.push(eq(shot.playerId, f.playerId));
   if (f.stickId) where.push(eq(shot.stickId, f.stickId));
@@ -89,11 +88,50 @@ export async function listShots(teamId: string, f: ShotListQuery, scope: ListSco
     const mine = db().select({ id: shotShare.shotId }).from(shotShare).where(and(eq(shotShare.userId, scope.onlyVisibleTo), eq(shotShare.teamId, teamId)));
     where.push(or(eq(shot.playerId, scope.onlyVisibleTo), inArray(shot.id, mine))!);
   }
-  // The list leaves out results and marks (the heavy parts): only the summary travels.
-  const rows = await joined({ ...withEverything, results: sql<null>`null`, marks: sql<null>`null` })
-    .where(and(...where))
-    .orderBy(desc(sql`coalesce(${trainingSession.date}::timestamptz, ${clip.createdAt})`), desc(shot.createdAt));
+  return and(...where);
+}
+
+/**
+ * Shots of the team, newest first, with the results summary but without time series or marks
+ * (small rows); one page when `page` is given, else all (a player's progress needs every shot).
+ */
+const newestFirst = [desc(sql`coalesce(${trainingSession.date}::timestamptz, ${clip.createdAt})`), desc(shot.createdAt), asc(shot.id)];
+
+export async function listShots(teamId: string, f: ShotListQuery, scope: ListScope, page?: { limit: number; offset: number }) {
+  let where = listWhere(teamId, f, scope);
+  if (page) {
+    // The page's ids first, sorting keys only: sorting whole rows (summaries included) of a team
+    // of 50,000 shots to keep 50 of them cost ~75 ms (scripts/bench/load.ts).
+    const ids = db().select({ id: shot.id }).from(shot).innerJoin(clip, eq(clip.id, shot.clipId)).leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
+      .where(where).orderBy(...newestFirst).limit(page.limit).offset(page.offset);
+    where = inArray(shot.id, ids);
+  }
+  const rows = await joined({ ...withEverything, results: sql<null>`null`, marks: sql<null>`null` }).where(where).orderBy(...newestFirst);
   return rows.map(({ results: _r, marks: _m, ...r }) => ({ ...typed(r), summary: summaryResults(r.summary) }));
+}
+
+/** How many shots the same filters find, for the pager. */
+export async function countShots(teamId: string, f: ShotListQuery, scope: ListScope) {
+  const q = db().select({ n: sql<number>`count(*)::int` }).from(shot);
+  // Only the shot-type filter needs the clip.
+  const [{ n }] = await (f.shotType ? q.innerJoin(clip, eq(clip.id, shot.clipId)) : q).where(listWhere(teamId, f, scope));
+  return n;
+}
+
+
+/** The players and sticks among the shots one may see, for the list's filters. */
+export async function listFilterChoices(teamId: string, scope: ListScope) {
+  const where = listWhere(teamId, {}, scope);
+  const [players, sticks] = await Promise.all([
+    // Distinct ids from the (team, player) and (team, stick) indexes first, names after: a join
+    // before "distinct" would read every shot row of the team.
+    db().select({ id: user.id, name: user.name }).from(user).where(inArray(user.id, db().selectDistinct({ id: shot.playerId }).from(shot).where(and(where, isNotNull(shot.playerId))))),
+    db().select({ id: stick.id, label: stick.label }).from(stick).where(inArray(stick.id, db().selectDistinct({ id: shot.stickId }).from(shot).where(and(where, isNotNull(shot.stickId))))),
+  ]);
+  return {
+    players: players.sort((x, y) => x.name.localeCompare(y.name)),
+    sticks: sticks.sort((x, y) => x.label.localeCompare(y.label)),
+  };
 }
 export type ListRow = Awaited<ReturnType<typeof listShots>>[number];
 

@@ -1,7 +1,7 @@
 import { Router, type Request, type Response } from "express";
 import { actorOf } from "../auth/context";
 import { parse } from "../http/validate";
-import { CompareQuery, ExportQuery, ProgressQuery, ShareShotBody, ShotListQuery } from "../../shared/schemas/readout";
+import { CompareQuery, ExportQuery, ProgressQuery, ShareShotBody, ShotListPageQuery } from "../../shared/schemas/readout";
 import type { FileAnswer } from "./exports";
 import { marksExport, reportExport, resultsExport } from "./exports";
 import * as svc from "./service";
@@ -20,7 +20,7 @@ function sendFile(res: Response, f: FileAnswer) {
   res.send(f.body);
 }
 
-readoutRouter.get("/readout/shots", async (req, res) => void res.json(await svc.listShots(actorOf(req), parse(ShotListQuery, req.query))));
+readoutRouter.get("/readout/shots", async (req, res) => void res.json(await svc.listShots(actorOf(req), parse(ShotListPageQuery, req.query))));
 readoutRouter.get("/readout/shots/:shotId", async (req, res) => void res.json(await svc.getReadout(actorOf(req), shotId(req))));
 readoutRouter.get("/readout/compare", async (req, res) => void res.json(await svc.compare(actorOf(req), parse(CompareQuery, req.query))));
 readoutRouter.get("/readout/players", async (req, res) => void res.json(await svc.players(actorOf(req))));

@@ -4,8 +4,9 @@ import { isStaff, policy, type Actor } from "../auth/policy";
 import { forbidden, HttpError } from "../http/problem";
 import { stickWithLatestTest } from "../shots/repository";
 import { stickFlex } from "../shots/results";
+import type { z } from "zod";
 import type {
-  CompareResponse, PlayersResponse, ProgressQuery, ProgressResponse, ShareRow, ShotListQuery, ShotListResponse, ShotReadout, ShotType,
+  CompareResponse, PlayersResponse, ProgressQuery, ProgressResponse, ShareRow, ShotListPageQuery, ShotListResponse, ShotReadout, ShotType,
 } from "../../shared/schemas/readout";
 import { listItem, readout, dateOf } from "./present";
 import { progressPoints, summarise } from "./progress";
@@ -52,25 +53,29 @@ export async function getReadout(a: Actor, shotId: string): Promise<ShotReadout>
   return toReadout(a, await visibleShot(a, shotId));
 }
 
-export async function listShots(a: Actor, q: ShotListQuery): Promise<ShotListResponse> {
+export async function listShots(a: Actor, q: z.output<typeof ShotListPageQuery>): Promise<ShotListResponse> {
   const staff = isStaff(a);
-  const rows = await repo.listShots(a.teamId, q, staff ? {} : { onlyVisibleTo: a.userId });
+  const scope = staff ? {} : { onlyVisibleTo: a.userId };
+  const filters = { playerId: q.playerId, stickId: q.stickId, shotType: q.shotType };
+  const [rows, total, choices] = await Promise.all([
+    repo.listShots(a.teamId, filters, scope, { limit: q.pageSize, offset: (q.page - 1) * q.pageSize }),
+    repo.countShots(a.teamId, filters, scope),
+    repo.listFilterChoices(a.teamId, scope),
+  ]);
   const shares = await repo.sharesOf(a.teamId, rows.map((r) => r.id));
   const by = new Map<string, string[]>();
   for (const s of shares) by.set(s.shotId, [...(by.get(s.shotId) ?? []), s.userId]);
+  // The query already keeps to what the viewer may see; the policy is asked again for each row.
   const visible = rows.filter((r) => policy.viewShot(a, { teamId: r.teamId, playerId: r.playerId, sharedWith: by.get(r.id) ?? [] }));
-  const players = new Map<string, string>();
-  const sticks = new Map<string, string>();
-  for (const r of visible) {
-    if (r.playerId && r.playerName) players.set(r.playerId, r.playerName);
-    if (r.stickId && r.stickLabel) sticks.set(r.stickId, r.stickLabel);
-  }
   return {
     shots: visible.map((r) =>
       listItem(r, { viewerId: a.userId, viewerIsStaff: staff, sharedWithViewer: (by.get(r.id) ?? []).includes(a.userId), shareCount: (by.get(r.id) ?? []).length }),
     ),
-    players: [...players].map(([id, name]) => ({ id, name })).sort((x, y) => x.name.localeCompare(y.name)),
-    sticks: [...sticks].map(([id, label]) => ({ id, label })).sort((x, y) => x.label.localeCompare(y.label)),
+    total,
+    page: q.page,
+    pageSize: q.pageSize,
+    players: choices.players,
+    sticks: choices.sticks,
   };
 }
 

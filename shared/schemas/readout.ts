@@ -23,6 +23,14 @@ export const ShotListQuery = z.object({
 });
 export type ShotListQuery = z.infer<typeof ShotListQuery>;
 
+/** The shots list is paged: a team of a season holds tens of thousands of shots. */
+export const SHOTS_PAGE_MAX = 200;
+export const ShotListPageQuery = ShotListQuery.extend({
+  page: z.coerce.number({ error: "page must be a number" }).int().min(1, { error: "page starts at 1" }).default(1),
+  pageSize: z.coerce.number({ error: "pageSize must be a number" }).int().min(1).max(SHOTS_PAGE_MAX, { error: `pageSize is at most ${SHOTS_PAGE_MAX}` }).default(50),
+});
+export type ShotListPageQuery = ShotListQuery & { page?: number; pageSize?: number };
+
 export const ProgressQuery = ShotListQuery;
 export type ProgressQuery = ShotListQuery;
 
@@ -80,8 +88,12 @@ export interface ShotListItem {
 }
 
 export interface ShotListResponse {
+  /** One page, newest first, with the filters applied. */
   shots: ShotListItem[];
-  /** For the filters: the players and sticks among the listed shots. */
+  total: number;
+  page: number;
+  pageSize: number;
+  /** For the filters: the players and sticks among all the shots one may see (not just this page). */
   players: PersonRef[];
   sticks: { id: string; label: string }[];
 }

@@ -112,6 +112,30 @@ describe("list of shots", () => {
   });
 });
 
+describe("the shots list in pages", () => {
+  it("pages cover every shot once, newest first; the total and the filter choices count all shots, not one page", async () => {
+    const { db } = await import("../../server/db/client");
+    const { stick } = await import("../../server/db/schema");
+    const [st] = await db().insert(stick).values({ teamId: world.teamId, label: "Pager 85", ratedFlex: 85 }).returning();
+    for (let i = 0; i < 7; i++) await insertShotWithResults({ teamId: world.teamId, playerId: uid("player3@ravens.example"), label: `Paged ${i}`, stickId: i === 0 ? st.id : undefined });
+    const filter = `playerId=${encodeURIComponent(uid("player3@ravens.example"))}`;
+    const first = (await coach.get(`${R()}/shots?${filter}&pageSize=3`)).json;
+    expect(first).toMatchObject({ total: 7, page: 1, pageSize: 3 });
+    expect(first.shots).toHaveLength(3);
+    const seen: string[] = [];
+    for (let page = 1; page <= 3; page++) seen.push(...(await coach.get(`${R()}/shots?${filter}&pageSize=3&page=${page}`)).json.shots.map((s: { id: string }) => s.id));
+    expect(seen).toHaveLength(7);
+    expect(new Set(seen).size).toBe(7);
+    // The stick of the one shot on the last page is offered on every page.
+    expect(first.sticks.map((s: { label: string }) => s.label)).toContain("Pager 85");
+    expect((await coach.get(`${R()}/shots?${filter}&pageSize=3&page=9`)).json).toMatchObject({ shots: [], total: 7 });
+    const tooBig = await coach.get(`${R()}/shots?pageSize=5000`);
+    expect(tooBig.status).toBe(422);
+    expect(tooBig.json.errors[0].path).toBe("pageSize");
+    expect((await coach.get(`${R()}/shots?page=0`)).status).toBe(422);
+  });
+});
+
 describe("stored results not in the engine's shape", () => {
   it("read as no results yet, in the list, the readout and progress, instead of failing", async () => {
     const { db } = await import("../../server/db/client");

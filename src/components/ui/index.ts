@@ -13,3 +13,4 @@ export { Spinner, PageSpinner } from "./Spinner";
 export { Table, THead, TBody, Tr, Th, Td } from "./Table";
 export { Toaster, toast } from "./Toast";
 export { LoadError } from "./LoadError";
+export { Pager } from "./Pager";

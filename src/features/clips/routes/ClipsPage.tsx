@@ -1,12 +1,11 @@
 import { useSearchParams } from "react-router-dom";
-import { Button, Card, EmptyState, PageHeader, PageSpinner, LoadError } from "@/components/ui";
+import { Button, Card, EmptyState, PageHeader, PageSpinner, LoadError, Pager } from "@/components/ui";
 import { useActiveTeam } from "@/lib/session";
 import { clipSorts, clipStatuses, shotTypes, type ClipListQuery, type ClipSort } from "@shared/schemas/clips";
 import { useClipOptions } from "../api/clipOptions";
 import { useClips } from "../api/clips";
 import { ClipFilters, type FilterValues } from "../components/ClipFilters";
 import { ClipsTable } from "../components/ClipsTable";
-import { Pager } from "../components/Pager";
 import { UploadPanel } from "../components/UploadPanel";
 
 const PAGE_SIZE = 20;
@@ -80,7 +79,7 @@ function ClipsLibrary({ teamId, teamName, staff }: { teamId: string; teamName: s
             <>
               <ClipsTable teamId={teamId} clips={clips.data.items} sort={query.sort ?? "created"} dir={query.dir ?? "desc"} canEdit={staff}
                 onSort={(sort: ClipSort, dir) => update({ sort, dir })} />
-              <Pager page={clips.data.page} pageSize={clips.data.pageSize} total={clips.data.total} onPage={(p) => update({ page: String(p) }, false)} />
+              <Pager page={clips.data.page} pageSize={clips.data.pageSize} total={clips.data.total} onPage={(p) => update({ page: String(p) }, false)} noun="clips" />
             </>
           )}
         </Card>

@@ -1,12 +1,14 @@
-import { useMemo, useState } from "react";
-import { useNavigate } from "react-router-dom";
-import { Button, ButtonLink, Card, EmptyState, PageHeader, PageSpinner, Select, LoadError } from "@/components/ui";
+import { useState } from "react";
+import { useNavigate, useSearchParams } from "react-router-dom";
+import { Button, ButtonLink, Card, EmptyState, PageHeader, PageSpinner, Pager, Select, LoadError } from "@/components/ui";
 import { isStaff } from "@/lib/roles";
 import { useActiveTeam } from "@/lib/session";
 import { useUnits } from "@/lib/units";
 import { SHOT_TYPES, shotTypeLabels, type ShotType } from "@shared/schemas/readout";
 import { useShots } from "../api/shots";
 import { ShotsTable } from "../components/ShotsTable";
+
+const PAGE_SIZE = 50;
 
 /** /readout — the shots one may see (staff: the team's; a player: own and shared), to open or compare. */
 export function Component() {
@@ -16,17 +18,25 @@ export function Component() {
 }
 
 function Shots({ teamId, teamName, staff }: { teamId: string; teamName: string; staff: boolean }) {
-  const q = useShots(teamId, {});
+  // Filters and page live in the address, so a filtered page can be reloaded or sent on.
+  const [params, setParams] = useSearchParams();
+  const player = params.get("player") ?? "";
+  const stick = params.get("stick") ?? "";
+  const type = (SHOT_TYPES as readonly string[]).includes(params.get("type") ?? "") ? (params.get("type") as ShotType) : "";
+  const page = Math.max(1, Number(params.get("page")) || 1);
+  const update = (patch: Record<string, string>) =>
+    setParams((p) => {
+      const next = new URLSearchParams(p);
+      for (const [k, v] of Object.entries(patch)) (v ? next.set(k, v) : next.delete(k));
+      if (!("page" in patch)) next.delete("page");
+      return next;
+    });
+  const filtered = !!(player || stick || type);
+  const q = useShots(teamId, { playerId: player || undefined, stickId: stick || undefined, shotType: type || undefined, page, pageSize: PAGE_SIZE });
   const { system } = useUnits();
   const navigate = useNavigate();
-  const [player, setPlayer] = useState("");
-  const [stick, setStick] = useState("");
-  const [type, setType] = useState<"" | ShotType>("");
   const [selected, setSelected] = useState<string[]>([]);
-  const shots = useMemo(
-    () => (q.data?.shots ?? []).filter((s) => (!player || s.playerId === player) && (!stick || s.stickId === stick) && (!type || s.shotType === type)),
-    [q.data, player, stick, type],
-  );
+  const shots = q.data?.shots ?? [];
   const toggle = (id: string) => setSelected((s) => (s.includes(id) ? s.filter((x) => x !== id) : [...s, id].slice(-2)));
 
   const header = (
@@ -49,7 +59,7 @@ function Shots({ teamId, teamName, staff }: { teamId: string; teamName: string; 
         <LoadError title="Couldn't load the shots" error={q.error} onRetry={() => q.refetch()} />
       </>
     );
-  if (!q.data.shots.length)
+  if (!q.data.total && !filtered)
     return (
       <>
         {header}
@@ -67,16 +77,20 @@ function Shots({ teamId, teamName, staff }: { teamId: string; teamName: string; 
       <Card flush>
         <div className="flex flex-wrap items-end gap-3 border-b border-line px-5 py-4">
           {staff && (
-            <Filter label="Player" value={player} onChange={setPlayer} options={q.data.players.map((p) => [p.id, p.name])} all="All players" />
+            <Filter label="Player" value={player} onChange={(v) => update({ player: v })} options={q.data.players.map((p) => [p.id, p.name])} all="All players" />
           )}
-          <Filter label="Stick" value={stick} onChange={setStick} options={q.data.sticks.map((s) => [s.id, s.label])} all="All sticks" />
-          <Filter label="Shot type" value={type} onChange={(v) => setType(v as "" | ShotType)} options={SHOT_TYPES.map((t) => [t, shotTypeLabels[t]])} all="All types" />
+          <Filter label="Stick" value={stick} onChange={(v) => update({ stick: v })} options={q.data.sticks.map((s) => [s.id, s.label])} all="All sticks" />
+          <Filter label="Shot type" value={type} onChange={(v) => update({ type: v })} options={SHOT_TYPES.map((t) => [t, shotTypeLabels[t]])} all="All types" />
           <p className="ml-auto text-sm text-ink-muted">
-            {shots.length} of {q.data.shots.length} shots
+            {q.data.total} shot{q.data.total === 1 ? "" : "s"}
+            {filtered ? " match" : ""}
           </p>
         </div>
         {shots.length ? (
-          <ShotsTable shots={shots} units={system} showPlayer={staff} selected={selected} onToggle={toggle} />
+          <>
+            <ShotsTable shots={shots} units={system} showPlayer={staff} selected={selected} onToggle={toggle} />
+            {q.data.total > q.data.pageSize && <Pager page={q.data.page} pageSize={q.data.pageSize} total={q.data.total} onPage={(p) => update({ page: String(p) })} noun="shots" />}
+          </>
         ) : (
           <p className="px-5 py-8 text-center text-sm text-ink-muted">No shot matches these filters.</p>
         )}

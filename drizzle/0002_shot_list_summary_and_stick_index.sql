@@ -1,0 +1,2 @@
+ALTER TABLE "shot_result" ADD COLUMN "summary" jsonb GENERATED ALWAYS AS (case when jsonb_typeof(results) = 'object' then results - 'series' end) STORED;--> statement-breakpoint
+CREATE INDEX "shot_team_stick_idx" ON "shot" USING btree ("team_id","stick_id");
