@@ -82,7 +82,7 @@ function Shots({ teamId, teamName, staff }: { teamId: string; teamName: string; 
           <Filter label="Stick" value={stick} onChange={(v) => update({ stick: v })} options={q.data.sticks.map((s) => [s.id, s.label])} all="All sticks" />
           <Filter label="Shot type" value={type} onChange={(v) => update({ type: v })} options={SHOT_TYPES.map((t) => [t, shotTypeLabels[t]])} all="All types" />
           <p className="ml-auto text-sm text-ink-muted">
-            {q.data.total} shot{q.data.total === 1 ? "" : "s"}
+            {q.data.total.toLocaleString("en")} shot{q.data.total === 1 ? "" : "s"}
             {filtered ? " match" : ""}
           </p>
         </div>
