@@ -1,4 +1,5 @@
 import type { ErrorRequestHandler, Response } from "express";
+import { isDatabaseDown } from "./database-down";
 import { ZodError } from "zod";
 
 /** An error the API answers as problem+json (RFC 9457) with a stable machine `code`. */
@@ -49,6 +50,11 @@ export const problemHandler: ErrorRequestHandler = (err, req, res, _next) => {
   if (err?.type === "entity.too.large") return sendProblem(res, 413, "too_large", "The request body is too large.");
   if (typeof err?.status === "number" && err.status >= 400 && err.status < 500)
     return sendProblem(res, err.status, err.code ?? "bad_request", err.message ?? "Bad request");
+  if (isDatabaseDown(err)) {
+    req.log?.warn({ err }, "database unavailable");
+    res.setHeader("Retry-After", "5");
+    return sendProblem(res, 503, "database_unavailable", "The database cannot be reached right now. Try again in a few seconds; if it lasts, tell your team admin.");
+  }
   req.log?.error({ err }, "unhandled error");
   if (!req.log) console.error(err);
   sendProblem(res, 500, "internal", "Something went wrong on our side. Try again; if it keeps happening, tell your team admin.");
