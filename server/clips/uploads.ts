@@ -121,7 +121,13 @@ export function uploadServer(): Server {
     maxSize: 0,
     onIncomingRequest: async (req, uploadId) => {
       if (req.method === "POST") {
-        const md = Metadata.parse(req.headers.get("upload-metadata") ?? undefined);
+        // Upload-Metadata names the team (and the clip's details); without it, or garbled, say so.
+        let md: Record<string, string | null>;
+        try {
+          md = Metadata.parse(req.headers.get("upload-metadata") ?? undefined);
+        } catch {
+          throw tusProblem(400, "metadata_missing", "Start the upload with Upload-Metadata naming the team (teamId) and the file (filename).");
+        }
         actors.set(req, await actorFor(req, md.teamId ?? ""));
         return;
       }

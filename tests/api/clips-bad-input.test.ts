@@ -116,6 +116,24 @@ describe("unusable files are refused with their reason", () => {
     expect(tusLeftovers()).toEqual([]);
   });
 
+  it("an upload started without Upload-Metadata, or with a garbled one: 400 saying so, nothing stored", async () => {
+    const start = (metadata?: string) =>
+      fetch(`${srv.url}/api/uploads`, {
+        method: "POST",
+        headers: { "tus-resumable": "1.0.0", "upload-length": "1000", cookie: cookie(coach), origin: "http://127.0.0.1:3000", ...(metadata ? { "upload-metadata": metadata } : {}) },
+      });
+    const missing = await start();
+    expect(missing.status).toBe(400);
+    const body = JSON.parse(await missing.text());
+    expect(body.code).toBe("metadata_missing");
+    expect(body.detail).toMatch(/teamId/);
+    // A garbled header is refused by tus itself, before our checks, with its own message.
+    const garbled = await start("teamId !!!");
+    expect(garbled.status).toBe(400);
+    expect(await garbled.text()).toMatch(/metadata/i);
+    expect(tusLeftovers()).toEqual([]);
+  });
+
   it("an upload that would take the team over its quota, before any byte arrives", async () => {
     const { db } = await import("../../server/db/client");
     const { teamSettings } = await import("../../server/db/schema");
