@@ -179,6 +179,15 @@ try {
       raw: (i) => readoutRepo.listShots(ids.teamId, { playerId: player }, {}, { limit: 50, offset: (i % 20) * 50 }),
     },
   ];
+  /** CPU time the web process has used, from /proc (Linux); -1 where there is none. */
+  const serverCpuMs = () => {
+    try {
+      const f = readFileSync(`/proc/${server!.pid}/stat`, "utf8").split(") ")[1].split(" ");
+      return ((Number(f[11]) + Number(f[12])) * 1000) / 100; // utime + stime in clock ticks (USER_HZ = 100)
+    } catch {
+      return -1;
+    }
+  };
   /** Requests the client gave up on keep running on the server: wait until it is idle again. */
   const settle = async () => {
     for (let calm = 0, i = 0; calm < 3 && i < 300; i++) {
@@ -206,8 +215,11 @@ try {
     await settle();
     for (let i = 0; i < 20; i++) await get(s.http(i))(AbortSignal.timeout(30_000)); // warm-up
     const raw = await sequential(Math.min(300, s.rate * s.seconds), s.raw);
+    const cpu0 = serverCpuMs();
     const api = await openLoop({ rate: s.rate, seconds: s.seconds, timeoutMs: 30_000, request: (i, signal) => get(s.http(i))(signal) });
+    const cpu = serverCpuMs() - cpu0;
     console.log(`  API  ${fmt(api)}`);
+    if (cpu0 >= 0) console.log(`  web process CPU ${(cpu / api.n).toFixed(2)} ms a request (${((cpu / 1000 / (api.n / s.rate)) * 100).toFixed(0)} % of one core)`);
     console.log(`  raw  ${fmt(raw)}   (same repository query, one at a time, no HTTP)`);
     console.log(`  API/raw p50 ×${(api.p50 / raw.p50).toFixed(1)}, p95 ×${(api.p95 / raw.p95).toFixed(1)}; goal p95 < 50 ms: ${api.p95 < 50 ? "met" : "NOT met"}`);
     table.push({ name: s.name, api, raw, rate: s.rate });

@@ -1,6 +1,7 @@
-import { and, asc, desc, eq, inArray, sql } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, sql, type Placeholder } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
+import { prepared } from "../db/prepared";
 import { benchTest, clip, member, shot, shotResult, shotShare, stick, user } from "../db/schema";
 import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../shared/schemas/shots";
 
@@ -74,15 +75,27 @@ export async function stickInTeam(teamId: string, stickId: string) {
 }
 
 /** The stick with its latest bench test (by test date, then entry time), if any. */
-export async function stickWithLatestTest(stickId: string, q: Tx | ReturnType<typeof db> = db()) {
-  const [s] = await q.select({ id: stick.id, label: stick.label, ratedFlex: stick.ratedFlex }).from(stick).where(eq(stick.id, stickId));
-  if (!s) return null;
-  const [t] = await q
+const stickQueries = (q: Tx | ReturnType<typeof db>, id: string | Placeholder) => ({
+  stick: q.select({ id: stick.id, label: stick.label, ratedFlex: stick.ratedFlex }).from(stick).where(eq(stick.id, id)),
+  latest: q
     .select({ measuredFlex: benchTest.measuredFlex, spanMm: benchTest.spanMm, testedOn: benchTest.testedOn })
     .from(benchTest)
-    .where(eq(benchTest.stickId, stickId))
+    .where(eq(benchTest.stickId, id))
     .orderBy(desc(benchTest.testedOn), desc(benchTest.createdAt))
-    .limit(1);
+    .limit(1),
+});
+// Every readout of a shot with a stick asks this (docs/decisions/106-hot-path-queries.md).
+const stickPrepared = prepared("stick_with_latest_test", (name) => {
+  const p = stickQueries(db(), sql.placeholder("stickId"));
+  return { stick: p.stick.prepare(`${name}:stick`), latest: p.latest.prepare(`${name}:latest`) };
+});
+
+/** A stick with its most recent bench test; inside a transaction when `q` is one. */
+export async function stickWithLatestTest(stickId: string, q?: Tx) {
+  const run = q ? stickQueries(q, stickId) : null;
+  const [s] = run ? await run.stick : await stickPrepared().stick.execute({ stickId });
+  if (!s) return null;
+  const [t] = run ? await run.latest : await stickPrepared().latest.execute({ stickId });
   return { ...s, latestTest: t ?? null };
 }
 
