@@ -90,7 +90,7 @@ describe("a clip from upload to frames", () => {
   });
 
   it("mails the uploader when the clip is ready", async () => {
-    const m = await waitForMail(EMAILS.coach, /Clip ready: Point shot, side/);
+    const m = await waitForMail(EMAILS.coach, /Clip ready: Point shot, side/, 5000, `/clips/${clipId}`);
     expect(m.text).toContain("48 frames");
     expect(m.text).toContain(`/clips/${clipId}`);
   });

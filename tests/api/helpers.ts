@@ -86,10 +86,12 @@ export async function mailsTo(address: string): Promise<{ subject: string; text:
   return all.filter((m) => m.to.some((t) => t.address.toLowerCase() === address.toLowerCase()));
 }
 
-export async function waitForMail(address: string, match: RegExp, timeoutMs = 5000) {
+/** The newest mail to `address` whose subject matches (and whose text holds `containing`, when given:
+ * test files run in parallel against one mail sink, so two may send the same subject). */
+export async function waitForMail(address: string, match: RegExp, timeoutMs = 5000, containing?: string) {
   const t0 = Date.now();
   while (Date.now() - t0 < timeoutMs) {
-    const m = (await mailsTo(address)).filter((x) => match.test(x.subject)).at(-1);
+    const m = (await mailsTo(address)).filter((x) => match.test(x.subject) && (!containing || x.text.includes(containing))).at(-1);
     if (m) return m;
     await new Promise((r) => setTimeout(r, 100));
   }
