@@ -6,7 +6,7 @@ import { env } from "../env";
 import { log } from "../log";
 import { HttpError } from "../http/problem";
 import { MediaInputError } from "../media/errors";
-import { probe, type ProbeResult } from "../media/probe";
+import { probe, withoutPlaceTags, type ProbeResult } from "../media/probe";
 import { clipKeys, displayFileName, sha256File } from "../storage";
 import { PLAYBACK_RATE_MAX_FPS, type ClipMeta } from "../../shared/schemas/clips";
 import { sendExtract } from "../jobs/clip-queue";
@@ -98,7 +98,7 @@ export async function ingestUpload(r: IngestRequest): Promise<repo.ClipRow> {
       rotationDeg: facts.rotationDeg,
       variableFrameRate: facts.variableFrameRate,
       codec: facts.codec,
-      probe: facts,
+      probe: { ...facts, raw: withoutPlaceTags(facts.raw) },
       frameFormat: env().FRAME_FORMAT,
       sha256,
       sizeBytes: size,

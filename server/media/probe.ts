@@ -65,7 +65,22 @@ export interface FfprobeStream {
 }
 export interface FfprobeJson {
   streams?: FfprobeStream[];
-  format?: { filename?: string; format_name?: string; duration?: string; size?: string; start_time?: string };
+  format?: { filename?: string; format_name?: string; duration?: string; size?: string; start_time?: string; tags?: Record<string, string> };
+}
+
+// Phones write where a clip was filmed into its metadata (QuickTime "location" / ©xyz, ISO 6709
+// coordinates; Android "location-eng"; some cameras GPS* keys). Nothing here needs it, so it is
+// dropped before the probe is stored with the clip (from memory: ffprobe's names for these tags).
+const PLACE_TAG = /location|gps|\bxyz\b|geo|latitude|longitude|coordinates/i;
+const withoutPlace = (tags?: Record<string, string>) => tags && Object.fromEntries(Object.entries(tags).filter(([k]) => !PLACE_TAG.test(k)));
+
+/** The probe JSON with every tag that could say where the clip was filmed taken out. */
+export function withoutPlaceTags(raw: FfprobeJson): FfprobeJson {
+  return {
+    ...raw,
+    streams: raw.streams?.map((s) => (s.tags ? { ...s, tags: withoutPlace(s.tags) } : s)),
+    format: raw.format && (raw.format.tags ? { ...raw.format, tags: withoutPlace(raw.format.tags) } : raw.format),
+  };
 }
 
 /** A stored rate of 60 fps or less is usually a playback rate: ask for the capture rate. */

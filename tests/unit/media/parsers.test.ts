@@ -1,7 +1,7 @@
 // Pure parsers: ffmpeg's -progress blocks, packet/frame timestamp lists, probe JSON helpers.
 // Formats as printed by ffmpeg/ffprobe 5.1 on this machine.
 import { describe, expect, it } from "vitest";
-import { isStillImage, looksLikePlaybackRate, parseRate, ratesDiffer, rotationOf, timestampsUneven } from "../../../server/media/probe";
+import { isStillImage, looksLikePlaybackRate, parseRate, ratesDiffer, rotationOf, timestampsUneven, withoutPlaceTags } from "../../../server/media/probe";
 import { percentOf, ProgressParser } from "../../../server/media/progress";
 import { frameTimesFromDecodedCsv, frameTimesFromPackets, parsePacketCsv, parseTimeBase } from "../../../server/media/timestamps";
 
@@ -94,5 +94,35 @@ describe("probe helpers", () => {
     expect(looksLikePlaybackRate(30)).toBe(true);
     expect(looksLikePlaybackRate(60)).toBe(true);
     expect(looksLikePlaybackRate(240)).toBe(false);
+  });
+});
+
+describe("withoutPlaceTags", () => {
+  it("drops where a real file says it was filmed, keeps the rest", async () => {
+    // A real MP4 written by ffmpeg with a QuickTime location, read back by ffprobe.
+    const { execFileSync } = await import("node:child_process");
+    const { mkdtempSync, rmSync } = await import("node:fs");
+    const { tmpdir } = await import("node:os");
+    const path = await import("node:path");
+    const dir = mkdtempSync(path.join(tmpdir(), "lf-place-"));
+    try {
+      const f = path.join(dir, "placed.mov");
+      execFileSync("ffmpeg", ["-hide_banner", "-loglevel", "error", "-nostdin", "-f", "lavfi", "-i", "testsrc2=size=64x48:rate=30", "-frames:v", "3",
+        "-metadata", "location=+45.5017-073.5673/", "-metadata", "title=Drill 4", "-c:v", "mjpeg", f]);
+      const raw = JSON.parse(execFileSync("ffprobe", ["-v", "error", "-print_format", "json", "-show_streams", "-show_format", f]).toString());
+      expect(JSON.stringify(raw)).toContain("45.5017"); // the fixture really carries a place
+      const kept = withoutPlaceTags(raw);
+      expect(JSON.stringify(kept)).not.toContain("45.5017");
+      expect(kept.format?.tags?.title).toBe("Drill 4");
+      expect(kept.streams?.length).toBe(raw.streams.length);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it("takes GPS and Android location keys out of streams too", () => {
+    const kept = withoutPlaceTags({ streams: [{ index: 0, tags: { "location-eng": "+1+2/", GPSLatitude: "1", rotate: "90" } }], format: { tags: { "com.apple.quicktime.location.ISO6709": "+1+2/", encoder: "x" } } });
+    expect(kept.streams?.[0].tags).toEqual({ rotate: "90" });
+    expect(kept.format?.tags).toEqual({ encoder: "x" });
   });
 });
