@@ -28,7 +28,14 @@ const withResultSummary = {
   // Kept by PostgreSQL beside the full results (a generated column), so lists never detoast them.
   summary: sql<Omit<ShotResults, "series"> | null>`${shotResult.summary}`,
 };
-const withEverything = { ...withResultSummary, results: sql<unknown>`${shotResult.results}`, marks: sql<unknown>`${shot.marks}` };
+const withEverything = {
+  ...withResultSummary,
+  results: sql<unknown>`${shotResult.results}`,
+  marks: sql<unknown>`${shot.marks}`,
+  // The stick's flex for the readout, in the same round trip (the latest bench test wins).
+  stickRatedFlex: stick.ratedFlex,
+  stickLatestTest: sql<{ measuredFlex: number; spanMm: number; testedOn: string } | null>`(select json_build_object('measuredFlex', bt.measured_flex, 'spanMm', bt.span_mm, 'testedOn', bt.tested_on) from bench_test bt where bt.stick_id = ${shot.stickId} order by bt.tested_on desc, bt.created_at desc limit 1)`,
+};
 
 // The joins of every shot query: its clip, session, player, stick and stored result.
 function joined(columns: typeof withEverything) {
@@ -106,8 +113,8 @@ export async function listShots(teamId: string, f: ShotListQuery, scope: ListSco
       .where(where).orderBy(...newestFirst).limit(page.limit).offset(page.offset);
     where = inArray(shot.id, ids);
   }
-  const rows = await joined({ ...withEverything, results: sql<null>`null`, marks: sql<null>`null` }).where(where).orderBy(...newestFirst);
-  return rows.map(({ results: _r, marks: _m, ...r }) => ({ ...typed(r), summary: summaryResults(r.summary) }));
+  const rows = await joined({ ...withEverything, results: sql<null>`null`, marks: sql<null>`null`, stickLatestTest: sql<null>`null` }).where(where).orderBy(...newestFirst);
+  return rows.map(({ results: _r, marks: _m, stickLatestTest: _t, ...r }) => ({ ...typed(r), summary: summaryResults(r.summary) }));
 }
 
 /** How many shots the same filters find, for the pager. */

@@ -2,7 +2,6 @@
 // shot the actor may not see is the same 404 as for a shot that does not exist: nothing leaks.
 import { isStaff, policy, type Actor } from "../auth/policy";
 import { forbidden, HttpError } from "../http/problem";
-import { stickWithLatestTest } from "../shots/repository";
 import { stickFlex } from "../shots/results";
 import type { z } from "zod";
 import type {
@@ -39,7 +38,8 @@ export async function visibleShot(a: Actor, shotId: string, which = "That shot",
 }
 
 async function toReadout(a: Actor, v: Awaited<ReturnType<typeof visibleShot>>): Promise<ShotReadout> {
-  const st = v.row.stickId ? await stickWithLatestTest(v.row.stickId) : null;
+  const r = v.row;
+  const st = r.stickId && r.stickLabel !== null ? { id: r.stickId, label: r.stickLabel, ratedFlex: r.stickRatedFlex, latestTest: r.stickLatestTest } : null;
   return readout(v.row, {
     // A player learns only that the shot was shared with them, not with whom else.
     shares: isStaff(a) ? v.shares : v.shares.filter((s) => s.userId === a.userId),

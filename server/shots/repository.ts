@@ -90,8 +90,15 @@ const stickPrepared = prepared("stick_with_latest_test", (name) => {
   return { stick: p.stick.prepare(`${name}:stick`), latest: p.latest.prepare(`${name}:latest`) };
 });
 
+export interface StickWithTest {
+  id: string;
+  label: string;
+  ratedFlex: number | null;
+  latestTest: { measuredFlex: number; spanMm: number; testedOn: string } | null;
+}
+
 /** A stick with its most recent bench test; inside a transaction when `q` is one. */
-export async function stickWithLatestTest(stickId: string, q?: Tx) {
+export async function stickWithLatestTest(stickId: string, q?: Tx): Promise<StickWithTest | null> {
   const run = q ? stickQueries(q, stickId) : null;
   const [s] = run ? await run.stick : await stickPrepared().stick.execute({ stickId });
   if (!s) return null;

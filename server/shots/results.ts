@@ -11,7 +11,7 @@ import * as repo from "./repository";
 // per-shot advisory lock, so overlapping saves cannot leave an older result on top of a newer one.
 
 /** Flex the engine should use: the latest bench test's measured flex, else the rated flex. */
-export function stickFlex(s: NonNullable<Awaited<ReturnType<typeof repo.stickWithLatestTest>>>): ShotStickInfo {
+export function stickFlex(s: repo.StickWithTest): ShotStickInfo {
   if (s.latestTest)
     return { id: s.id, label: s.label, flex: s.latestTest.measuredFlex, flexSource: "measured", benchSpanMm: DEFAULT_BENCH_SPAN_MM, testedOn: s.latestTest.testedOn };
   return { id: s.id, label: s.label, flex: s.ratedFlex, flexSource: s.ratedFlex ? "rated" : null, benchSpanMm: DEFAULT_BENCH_SPAN_MM, testedOn: null };

@@ -112,6 +112,21 @@ describe("list of shots", () => {
   });
 });
 
+describe("the stick on a readout", () => {
+  it("shows the rated flex until the stick is bench-tested, then the latest test's measured flex", async () => {
+    const { db } = await import("../../server/db/client");
+    const { benchTest, stick } = await import("../../server/db/schema");
+    const [st] = await db().insert(stick).values({ teamId: world.teamId, label: "Readout 85", ratedFlex: 85 }).returning();
+    const s = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Stick readout", stickId: st.id });
+    const before = (await coach.get(`${R()}/shots/${s.shotId}`)).json.stick;
+    expect(before).toMatchObject({ id: st.id, label: "Readout 85", flex: 85, flexSource: "rated", testedOn: null });
+    const test = (testedOn: string, measuredFlex: number) => ({ teamId: world.teamId, stickId: st.id, testedOn, spanMm: 1000, loadPointMm: 500, readings: [], fit: {}, measuredFlex, eiNm2: 1 });
+    await db().insert(benchTest).values([test("2026-02-01", 80), test("2026-03-01", 72.5), test("2026-01-01", 84)]);
+    const after = (await coach.get(`${R()}/shots/${s.shotId}`)).json.stick;
+    expect(after).toMatchObject({ flex: 72.5, flexSource: "measured", testedOn: "2026-03-01" });
+  });
+});
+
 describe("the shots list in pages", () => {
   it("pages cover every shot once, newest first; the total and the filter choices count all shots, not one page", async () => {
     const { db } = await import("../../server/db/client");
