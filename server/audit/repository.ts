@@ -5,7 +5,7 @@ import { auditLog, user } from "../db/schema";
 export type AuditAction =
   | "member.role_changed" | "member.removed" | "member.joined"
   | "invitation.created" | "invitation.resent" | "invitation.cancelled"
-  | "clip.deleted" | "shot.deleted" | "shot.shared" | "stick.deleted" | "bench_test.deleted";
+  | "clip.deleted" | "shot.deleted" | "shot.shared" | "shot.unshared" | "stick.deleted" | "bench_test.deleted";
 
 export async function recordAudit(e: { teamId: string; actorId: string | null; action: AuditAction; targetType: string; targetId?: string; detail?: Record<string, unknown> }) {
   await db().insert(auditLog).values({ ...e, detail: e.detail ?? {} });

@@ -5,7 +5,7 @@ import { CompareQuery, ExportQuery, ProgressQuery, ShareShotBody, ShotListPageQu
 import type { FileAnswer } from "./exports";
 import { marksExport, reportExport, resultsExport } from "./exports";
 import * as svc from "./service";
-import { shareShot } from "./share";
+import { shareShot, unshareShot } from "./share";
 
 /** Mounted at /api/teams/:teamId (after requireTeamMember). See docs/api.md, "Shot readout …". */
 export const readoutRouter = Router({ mergeParams: true });
@@ -29,6 +29,11 @@ readoutRouter.get("/readout/progress", async (req, res) => void res.json(await s
 readoutRouter.post("/readout/shots/:shotId/shares", async (req, res) => {
   const body = parse(ShareShotBody, req.body ?? {});
   res.status(201).json(await shareShot(actorOf(req), shotId(req), body));
+});
+
+readoutRouter.delete("/readout/shots/:shotId/shares/:userId", async (req, res) => {
+  await unshareShot(actorOf(req), shotId(req), String(req.params.userId));
+  res.status(204).end();
 });
 
 readoutRouter.get("/readout/shots/:shotId/marks.csv", async (req, res) => sendFile(res, await marksExport(actorOf(req), shotId(req), parse(ExportQuery, req.query).units)));

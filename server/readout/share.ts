@@ -3,7 +3,7 @@
 import { isStaff, policy, type Actor } from "../auth/policy";
 import { recordAudit } from "../audit/repository";
 import { env } from "../env";
-import { forbidden } from "../http/problem";
+import { forbidden, HttpError } from "../http/problem";
 import { log } from "../log";
 import { sendMail } from "../mail/mailer";
 import { shotSharedMail } from "../mail/readout-templates";
@@ -74,4 +74,14 @@ function headline(r: ShotResults | null, units: "metric" | "imperial"): string |
   const m = METRICS[0];
   const v = m.read(r)!;
   return `${m.label} ${formatWithU(m.kind, v.value, v.u, units)}`;
+}
+
+/** A coach or team admin stops sharing a shot with one person; staff keep seeing it through their role. */
+export async function unshareShot(a: Actor, shotId: string, userId: string): Promise<void> {
+  const { row, shares } = await visibleShot(a, shotId);
+  if (!policy.shareShot(a, row)) throw forbidden("Only a coach or a team admin changes who a shot is shared with.");
+  const gone = shares.find((s) => s.userId === userId);
+  if (!gone || !(await repo.removeShare(a.teamId, shotId, userId))) throw new HttpError(404, "not_found", "This shot is not shared with that person.");
+  const title = shotTitle({ label: row.label, shotType: row.shotType, date: dateOf(row), playerName: row.playerName });
+  await recordAudit({ teamId: a.teamId, actorId: a.userId, action: "shot.unshared", targetType: "shot", targetId: shotId, detail: { title, userId, name: gone.name } });
 }

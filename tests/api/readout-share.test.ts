@@ -54,6 +54,24 @@ describe("sharing a shot", () => {
     expect(again.json.recipients[0]).toMatchObject({ added: false, mailed: false, note: "already shared; no new e-mail" });
   });
 
+  it("can be taken back: the share row goes, the audit log says so, and a second time is 404", async () => {
+    const label = `Unshared ${Date.now()}`;
+    const s = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label });
+    expect((await coach.post(`${R()}/shots/${s.shotId}/shares`, { player: true })).status).toBe(201);
+    expect((await player.get(`${R()}/shots/${s.shotId}`)).json.shares).toHaveLength(1);
+    const path = `${R()}/shots/${s.shotId}/shares/${uid(EMAILS.player)}`;
+    expect((await player.del(path)).status).toBe(403);
+    expect((await coach.del(path)).status).toBe(204);
+    expect((await coach.get(`${R()}/shots/${s.shotId}`)).json.shares).toEqual([]);
+    const again = await coach.del(path);
+    expect(again.status).toBe(404);
+    expect(again.json.detail).toMatch(/not shared with that person/);
+    const audit = (await admin.get(`/api/teams/${world.teamId}/audit`)).json;
+    expect(audit.entries.find((e: { action: string; targetId: string }) => e.action === "shot.unshared" && e.targetId === s.shotId)).toMatchObject({
+      detail: { title: label, userId: uid(EMAILS.player), name: "Theo Marchetti" },
+    });
+  });
+
   it("with the staff too; nobody is mailed who turned shot e-mails off", async () => {
     expect((await player2.patch("/api/me/prefs", { notifyShotShared: false })).status).toBe(200);
     const label = `Quiet share ${Date.now()}`;

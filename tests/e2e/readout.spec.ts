@@ -191,4 +191,12 @@ test("a coach shares a shot; the player's e-mail link opens its readout", async 
   await player.goto(link.replace(/^https?:\/\/[^/]+/, ""));
   await expect(player.getByRole("heading", { name: "First test" })).toBeVisible();
   await expect(player.getByText("Shared with you")).toBeVisible();
+
+  // The coach takes the share back; the player still opens their own shot, without the badge.
+  await coach.getByRole("button", { name: "Stop sharing with Theo Marchetti" }).click();
+  await expect(coach.getByText(/Theo Marchetti is off the shared list\. They can still open it/)).toBeVisible();
+  await expect(coach.getByText("Not shared yet.")).toBeVisible();
+  await player.reload();
+  await expect(player.getByRole("heading", { name: "First test" })).toBeVisible();
+  await expect(player.getByText("Shared with you")).toHaveCount(0);
 });

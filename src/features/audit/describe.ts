@@ -61,6 +61,11 @@ export function describeAudit(e: AuditEntry, names: ReadonlyMap<string, string>)
       if (!all.length) return { group: "shares", actor, text: `stopped sharing ${title} with anyone` };
       return { group: "shares", actor, text: added.length ? `shared ${title} with ${listOf(who)}` : `changed who can see ${title} (${listOf(who)})` };
     }
+    case "shot.unshared": {
+      // The name as it was then, when the person has since left the team.
+      const who = (typeof d.userId === "string" && names.get(d.userId)) || str(d.name) || "a former member";
+      return { group: "shares", actor, text: `stopped sharing ${quoted(d.title, "a shot")} with ${who}` };
+    }
     default:
       return { group: e.targetType === "shot" ? "shares" : "people", actor, text: `${e.action.replace(/[._]/g, " ")} (${e.targetType})` };
   }

@@ -80,6 +80,13 @@ async function playerShot(c: Ctx) {
   return { shotId };
 }
 
+async function sharedPlayerShot(c: Ctx) {
+  const { shotId } = await playerShot(c);
+  const r = await c.admin.post(`${T(c)}/shots/${shotId}/shares`, { player: true });
+  if (r.status !== 201) throw new Error(`share fixture: ${r.status} ${r.text}`);
+  return { shotId };
+}
+
 async function twoPlayerShots(c: Ctx) {
   const a = await insertShotWithResults({ teamId: c.teamId, playerId: c.users[PLAYER_EMAIL], label: "Policy A" });
   const b = await insertShotWithResults({ teamId: c.teamId, playerId: c.users[PLAYER_EMAIL], label: "Policy B", scene: { captureFps: 1000 } });
@@ -98,6 +105,10 @@ export const readoutRoutes: RouteCase[] = [
   {
     name: "share a shot", method: "POST", path: (c) => `${T(c)}/shots/${c.ids.shotId}/shares`, body: () => ({ player: true }),
     allowed: SHARERS, teamScoped: true, fixture: playerShot,
+  },
+  {
+    name: "stop sharing a shot", method: "DELETE", path: (c) => `${T(c)}/shots/${c.ids.shotId}/shares/${c.users[PLAYER_EMAIL]}`,
+    allowed: SHARERS, teamScoped: true, fixture: sharedPlayerShot,
   },
   { name: "marks CSV", method: "GET", path: (c) => `${T(c)}/shots/${c.ids.shotId}/marks.csv`, allowed: ALL, teamScoped: true, fixture: playerShot },
   { name: "results CSV", method: "GET", path: (c) => `${T(c)}/shots/${c.ids.shotId}/results.csv`, allowed: ALL, teamScoped: true, fixture: playerShot },

@@ -40,6 +40,8 @@ describe("describeAudit", () => {
     const shared = entry("shot.shared", { title: "Wrist shot 3", with: ["u-pat", "u-sam", "u-kim"], added: ["u-sam", "u-kim", "u-x"] }, "shot");
     expect(describeAudit(shared, names)).toMatchObject({ group: "shares", text: "shared “Wrist shot 3” with Sam Second, Kim Third and a former member" });
     expect(describeAudit(entry("shot.shared", { title: "Wrist shot 3", with: ["u-pat"], added: [] }, "shot"), names).text).toBe("changed who can see “Wrist shot 3” (Pat Player)");
+    expect(describeAudit(entry("shot.unshared", { title: "Wrist shot 3", userId: "u-pat", name: "Old Name" }, "shot"), names)).toMatchObject({ group: "shares", text: "stopped sharing “Wrist shot 3” with Pat Player" });
+    expect(describeAudit(entry("shot.unshared", { title: "Wrist shot 3", userId: "u-gone", name: "Left Team" }, "shot"), names).text).toBe("stopped sharing “Wrist shot 3” with Left Team");
     expect(describeAudit(entry("shot.shared", { title: "Wrist shot 3", with: [], added: [] }, "shot"), names).text).toBe("stopped sharing “Wrist shot 3” with anyone");
   });
 

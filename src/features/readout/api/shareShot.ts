@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { apiPost } from "@/lib/api";
+import { apiDelete, apiPost } from "@/lib/api";
 import type { ShareResponse, ShareShotBody } from "@shared/schemas/readout";
 import { readoutKey } from "./keys";
 
@@ -11,6 +11,15 @@ export function useShareShot(teamId: string, shotId: string) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (body: ShareShotBody) => shareShot(teamId, shotId, body),
+    onSettled: () => qc.invalidateQueries({ queryKey: readoutKey(teamId) }),
+  });
+}
+
+/** DELETE /api/teams/:teamId/readout/shots/:shotId/shares/:userId — coach or team admin. */
+export function useUnshareShot(teamId: string, shotId: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (userId: string) => apiDelete(`/teams/${encodeURIComponent(teamId)}/readout/shots/${encodeURIComponent(shotId)}/shares/${encodeURIComponent(userId)}`),
     onSettled: () => qc.invalidateQueries({ queryKey: readoutKey(teamId) }),
   });
 }

@@ -1,6 +1,6 @@
 import { useState } from "react";
 import { useParams } from "react-router-dom";
-import { Alert, Badge, Button, ButtonLink, Card, EmptyState, PageHeader, PageSpinner } from "@/components/ui";
+import { Alert, Badge, Button, ButtonLink, Card, EmptyState, PageHeader, PageSpinner, toast } from "@/components/ui";
 import { digitiseUrl } from "@/components/shot/frames";
 import { useTeamFromLink } from "@/components/shot/useTeamFromLink";
 import { errorMessage, isApiError } from "@/lib/api";
@@ -9,6 +9,7 @@ import { useActiveTeam } from "@/lib/session";
 import { useUnits } from "@/lib/units";
 import { noteMetric, shotTitle, shotTypeLabels, type ShotReadout } from "@shared/schemas/readout";
 import { useReadout } from "../api/readout";
+import { useUnshareShot } from "../api/shareShot";
 import { ExportButtons } from "../components/ExportButtons";
 import { PhaseTimeline } from "../components/PhaseTimeline";
 import { ResultCards } from "../components/ResultCards";
@@ -89,7 +90,7 @@ function Readout({ teamId, teamName, r }: { teamId: string; teamName: string; r:
         }
       />
       <div className="mb-6 flex flex-wrap items-center justify-between gap-3">
-        <SharedLine r={r} />
+        <SharedLine r={r} teamId={teamId} />
         <ExportButtons teamId={teamId} shotId={r.shot.id} units={system} hasResults={!!r.results} />
       </div>
 
@@ -138,7 +139,7 @@ function Readout({ teamId, teamName, r }: { teamId: string; teamName: string; r:
   );
 }
 
-function SharedLine({ r }: { r: ShotReadout }) {
+function SharedLine({ r, teamId }: { r: ShotReadout; teamId: string }) {
   if (!r.shares.length) return <span className="text-sm text-ink-faint">{r.can.share ? "Not shared yet." : ""}</span>;
   if (!r.can.share) {
     const mine = r.shares[0];
@@ -153,7 +154,36 @@ function SharedLine({ r }: { r: ShotReadout }) {
   return (
     <span className="flex flex-wrap items-center gap-2 text-sm text-ink-muted">
       <Badge tone="accent">Shared</Badge>
-      with {r.shares.map((s) => s.name).join(", ")}
+      with{" "}
+      {r.shares.map((s) => (
+        <SharedWith key={s.userId} teamId={teamId} shotId={r.shot.id} userId={s.userId} name={s.name} stillSees={s.userId === r.shot.playerId || (!!s.role && s.role !== "player")} />
+      ))}
+    </span>
+  );
+}
+
+/** One person the shot is shared with, and the way to take it back. */
+function SharedWith({ teamId, shotId, userId, name, stillSees }: { teamId: string; shotId: string; userId: string; name: string; stillSees: boolean }) {
+  const unshare = useUnshareShot(teamId, shotId);
+  const stop = () =>
+    unshare.mutate(userId, {
+      // Taking a share back does not hide the shot from its own player or from staff: say so.
+      onSuccess: () => toast.success(`${name} is off the shared list.${stillSees ? " They can still open it: players see their own shots, staff every shot." : ""}`, "Sharing stopped"),
+      onError: (e) => toast.error(errorMessage(e), "Could not stop sharing"),
+    });
+  return (
+    <span className="inline-flex items-center gap-1 rounded-full border border-line bg-surface px-2 py-0.5 text-ink">
+      {name}
+      <button
+        type="button"
+        onClick={stop}
+        disabled={unshare.isPending}
+        aria-label={`Stop sharing with ${name}`}
+        title={`Stop sharing with ${name}`}
+        className="rounded-full px-1 text-ink-muted hover:bg-line hover:text-ink disabled:opacity-50"
+      >
+        ×
+      </button>
     </span>
   );
 }
