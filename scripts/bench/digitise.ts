@@ -138,7 +138,11 @@ try {
       return { lat: out, missing };
     }, { n, first });
   };
+  // BENCH_CPU_PROF=<file.cpuprofile> records the page's JavaScript during the walk (open it in DevTools).
+  const prof = process.env.BENCH_CPU_PROF ? await page.context().newCDPSession(page) : null;
+  if (prof) await prof.send("Profiler.enable").then(() => prof.send("Profiler.setSamplingInterval", { interval: 200 })).then(() => prof.send("Profiler.start"));
   const ours = await walk(page, STEPS, "ArrowRight", 1);
+  if (prof) (await import("node:fs")).writeFileSync(process.env.BENCH_CPU_PROF!, JSON.stringify((await prof.send("Profiler.stop")).profile));
   const cdp = await page.context().newCDPSession(page);
   await cdp.send("HeapProfiler.collectGarbage");
   await cdp.send("Performance.enable");
