@@ -86,7 +86,8 @@ export async function listClips(teamId: string, f: ListFilter, sort: ClipSort, d
   const used = filterKeys.filter((k) => f[k]);
   const q = pageQueries(`${sort}:${dir}:${used.join(",")}`);
   const params = { teamId, ...Object.fromEntries(used.map((k) => [k, f[k]])), limit: pageSize, offset: (page - 1) * pageSize };
-  const [rows, [{ n }]] = [await q.rows.execute(params), await q.total.execute(params)];
+  const rows = await q.rows.execute(params);
+  const [{ n }] = await q.total.execute(params);
   return { rows, total: n };
 }
 
