@@ -3,7 +3,7 @@
 // Prints reactions, the largest moment (predicted break point), shear, deflection and stations as
 // JSON; bad input: one line on stderr and a non-zero exit.
 import { readFileSync, statSync } from "node:fs";
-import { parseArgs } from "node:util";
+import { failWith, startCommand, type Fail } from "../lib/cli";
 import { BEAM_MODEL_NOTICE, StickLabInputError, solveBeam } from "../../shared/mechanics/sticklab";
 import { beamInputSchema, describeIssues } from "../../shared/schemas/stick-lab";
 
@@ -12,24 +12,9 @@ const USAGE = `usage: npm run --silent beam -- beam.json [--step-mm MM]
 beam.json: { "lengthMm", "supportsMm": [x1, x2], "loads": [{ "xMm", "forceN" }], "eiNm2"? }
 ${BEAM_MODEL_NOTICE}`;
 
-function fail(message: string, code = 1): never {
-  process.stderr.write(`beam: ${message.replace(/\s+/g, " ")}\n`);
-  process.exit(code);
-}
-
-let args: { values: { "step-mm"?: string; help?: boolean }; positionals: string[] };
-try {
-  args = parseArgs({ allowPositionals: true, options: { "step-mm": { type: "string" }, help: { type: "boolean", short: "h" } } });
-} catch (err) {
-  fail(`${(err as Error).message} (try --help)`, 2);
-}
-if (args.values.help) {
-  process.stdout.write(`${USAGE}\n`);
-  process.exit(0);
-}
-if (args.positionals.length !== 1) fail("give exactly one beam JSON file (try --help)", 2);
-const file = args.positionals[0];
-const stepText = args.values["step-mm"];
+const fail: Fail = failWith("beam");
+const { values, input: file } = startCommand({ fail, usage: USAGE, input: "beam JSON file", options: { "step-mm": { type: "string" } } });
+const stepText = values["step-mm"];
 const stepMm = stepText === undefined ? undefined : Number(stepText);
 if (stepMm !== undefined && (stepText!.trim() === "" || !(stepMm > 0) || !Number.isFinite(stepMm)))
   fail(`--step-mm must be a number greater than zero (got "${stepText}")`, 2);

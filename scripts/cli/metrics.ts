@@ -2,7 +2,7 @@
 // Reads a shot document (a file, or - for stdin), prints the results as JSON on stdout.
 // Bad input: one line on stderr and a non-zero exit (2 for usage, 1 for the document).
 import { readFileSync } from "node:fs";
-import { parseArgs } from "node:util";
+import { failWith, startCommand, type Fail } from "../lib/cli";
 import { computeShot, DEFAULT_TRIALS, isMechanicsInputError } from "../../shared/mechanics/index";
 
 const USAGE = `usage: npm run --silent metrics -- shot.json|- [--trials N] [--seed TEXT] [--no-series]
@@ -12,36 +12,14 @@ frameCount?, tracks: { puck, bladeHeel?, bladeToe?, bottomHand?, topHand? }, eve
 --seed    seed of the trials (same document and seed, same results)
 --no-series  leave the time series out`;
 
-function fail(message: string, code = 1): never {
-  process.stderr.write(`metrics: ${message.replace(/\s+/g, " ").trim()}\n`);
-  process.exit(code);
-}
-
-function parse() {
-  return parseArgs({
-    allowPositionals: true,
-    options: {
-      trials: { type: "string" },
-      seed: { type: "string" },
-      "no-series": { type: "boolean" },
-      help: { type: "boolean", short: "h" },
-    },
-  });
-}
-
-let args: ReturnType<typeof parse>;
-try {
-  args = parse();
-} catch (err) {
-  fail(`${(err as Error).message} (try --help)`, 2);
-}
-if (args.values.help) {
-  process.stdout.write(`${USAGE}\n`);
-  process.exit(0);
-}
-if (args.positionals.length !== 1) fail("give exactly one shot document: a JSON file, or - for stdin (try --help)", 2);
-const source = args.positionals[0];
-const trialsText = args.values.trials;
+const fail: Fail = failWith("metrics");
+const { values, input: source } = startCommand({
+  fail,
+  usage: USAGE,
+  input: "shot document: a JSON file, or - for stdin",
+  options: { trials: { type: "string" }, seed: { type: "string" }, "no-series": { type: "boolean" } },
+});
+const trialsText = values.trials;
 const trials = trialsText === undefined ? undefined : Number(trialsText);
 if (trials !== undefined && !(Number.isInteger(trials) && trials >= 20)) fail(`--trials must be a whole number of at least 20 (got "${trialsText}")`, 2);
 
@@ -60,7 +38,7 @@ try {
 }
 
 try {
-  const results = computeShot(doc, { trials, seed: args.values.seed, series: !args.values["no-series"] });
+  const results = computeShot(doc, { trials, seed: values.seed, series: !values["no-series"] });
   process.stdout.write(`${JSON.stringify(results, null, 2)}\n`);
 } catch (err) {
   if (isMechanicsInputError(err)) fail(err.message);
