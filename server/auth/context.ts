@@ -42,11 +42,12 @@ export async function requireUser(req: Request, _res: Response, next: NextFuncti
   next();
 }
 
-/** Role of a user in a team, or null when not a member (callers answer 404: nothing leaks). */
+// Asked on every team request (docs/decisions/106-hot-path-queries.md).
 const roleQuery = prepared("role_in", (name) =>
   db().select({ role: member.role }).from(member).where(and(eq(member.userId, sql.placeholder("userId")), eq(member.organizationId, sql.placeholder("teamId")))).prepare(name),
 );
 
+/** Role of a user in a team, or null when not a member (callers answer 404: nothing leaks). */
 export async function roleIn(userId: string, teamId: string) {
   const [row] = await roleQuery().execute({ userId, teamId });
   if (!row) return null;

@@ -3,6 +3,7 @@ import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
 import { prepared, preparedBy } from "../db/prepared";
 import { auditLog, clip, member, organization, shot, shotResult, shotShare, stick, trainingSession, user } from "../db/schema";
+import { latestBenchTest } from "../shots/repository";
 import { ShotResults } from "../../shared/schemas/shot-results";
 import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../shared/schemas/shots";
 import type { ShotListQuery } from "../../shared/schemas/readout";
@@ -34,7 +35,7 @@ const withEverything = {
   marks: sql<unknown>`${shot.marks}`,
   // The stick's flex for the readout, in the same round trip (the latest bench test wins).
   stickRatedFlex: stick.ratedFlex,
-  stickLatestTest: sql<{ measuredFlex: number; spanMm: number; testedOn: string } | null>`(select json_build_object('measuredFlex', bt.measured_flex, 'spanMm', bt.span_mm, 'testedOn', bt.tested_on) from bench_test bt where bt.stick_id = ${shot.stickId} order by bt.tested_on desc, bt.created_at desc limit 1)`,
+  stickLatestTest: latestBenchTest(shot.stickId),
 };
 
 // The joins of every shot query: its clip, session, player, stick and stored result.
@@ -98,12 +99,12 @@ function listWhere(teamId: string, f: ShotListQuery, scope: ListScope) {
   return and(...where);
 }
 
+const newestFirst = [desc(sql`coalesce(${trainingSession.date}::timestamptz, ${clip.createdAt})`), desc(shot.createdAt), asc(shot.id)];
+
 /**
  * Shots of the team, newest first, with the results summary but without time series or marks
  * (small rows); one page when `page` is given, else all (a player's progress needs every shot).
  */
-const newestFirst = [desc(sql`coalesce(${trainingSession.date}::timestamptz, ${clip.createdAt})`), desc(shot.createdAt), asc(shot.id)];
-
 export async function listShots(teamId: string, f: ShotListQuery, scope: ListScope, page?: { limit: number; offset: number }) {
   let where = listWhere(teamId, f, scope);
   if (page) {
@@ -124,7 +125,6 @@ export async function countShots(teamId: string, f: ShotListQuery, scope: ListSc
   const [{ n }] = await (f.shotType ? q.innerJoin(clip, eq(clip.id, shot.clipId)) : q).where(listWhere(teamId, f, scope));
   return n;
 }
-
 
 /** The players and sticks among the shots one may see, for the list's filters. */
 export async function listFilterChoices(teamId: string, scope: ListScope) {

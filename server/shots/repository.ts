@@ -1,7 +1,6 @@
-import { and, asc, desc, eq, inArray, sql, type Placeholder } from "drizzle-orm";
+import { and, asc, desc, eq, getTableName, inArray, sql, type Column } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
-import { prepared } from "../db/prepared";
 import { benchTest, clip, member, shot, shotResult, shotShare, stick, user } from "../db/schema";
 import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../shared/schemas/shots";
 
@@ -74,22 +73,6 @@ export async function stickInTeam(teamId: string, stickId: string) {
   return !!row;
 }
 
-/** The stick with its latest bench test (by test date, then entry time), if any. */
-const stickQueries = (q: Tx | ReturnType<typeof db>, id: string | Placeholder) => ({
-  stick: q.select({ id: stick.id, label: stick.label, ratedFlex: stick.ratedFlex }).from(stick).where(eq(stick.id, id)),
-  latest: q
-    .select({ measuredFlex: benchTest.measuredFlex, spanMm: benchTest.spanMm, testedOn: benchTest.testedOn })
-    .from(benchTest)
-    .where(eq(benchTest.stickId, id))
-    .orderBy(desc(benchTest.testedOn), desc(benchTest.createdAt))
-    .limit(1),
-});
-// Every readout of a shot with a stick asks this (docs/decisions/106-hot-path-queries.md).
-const stickPrepared = prepared("stick_with_latest_test", (name) => {
-  const p = stickQueries(db(), sql.placeholder("stickId"));
-  return { stick: p.stick.prepare(`${name}:stick`), latest: p.latest.prepare(`${name}:latest`) };
-});
-
 export interface StickWithTest {
   id: string;
   label: string;
@@ -97,13 +80,24 @@ export interface StickWithTest {
   latestTest: { measuredFlex: number; spanMm: number; testedOn: string } | null;
 }
 
+/**
+ * A stick's latest bench test (by test date, then entry time) as one JSON value, or null: a
+ * subquery, so the readout reads it in the shot's own query (server/readout/repository.ts).
+ */
+export function latestBenchTest(stickId: Column) {
+  // Qualified by hand: Drizzle leaves a single-table select's columns bare, and a bare "id" here
+  // would be the bench test's own.
+  const outer = sql`${sql.identifier(getTableName(stickId.table))}.${sql.identifier(stickId.name)}`;
+  return sql<StickWithTest["latestTest"]>`(select json_build_object('measuredFlex', bt.measured_flex, 'spanMm', bt.span_mm, 'testedOn', bt.tested_on) from ${benchTest} bt where bt.stick_id = ${outer} order by bt.tested_on desc, bt.created_at desc limit 1)`;
+}
+
 /** A stick with its most recent bench test; inside a transaction when `q` is one. */
-export async function stickWithLatestTest(stickId: string, q?: Tx): Promise<StickWithTest | null> {
-  const run = q ? stickQueries(q, stickId) : null;
-  const [s] = run ? await run.stick : await stickPrepared().stick.execute({ stickId });
-  if (!s) return null;
-  const [t] = run ? await run.latest : await stickPrepared().latest.execute({ stickId });
-  return { ...s, latestTest: t ?? null };
+export async function stickWithLatestTest(stickId: string, q: Tx | ReturnType<typeof db> = db()): Promise<StickWithTest | null> {
+  const [s] = await q
+    .select({ id: stick.id, label: stick.label, ratedFlex: stick.ratedFlex, latestTest: latestBenchTest(stick.id) })
+    .from(stick)
+    .where(eq(stick.id, stickId));
+  return s ?? null;
 }
 
 export async function insertShot(v: { teamId: string; clipId: string; label: string; frameStart: number; frameEnd: number; playerId: string | null; stickId: string | null; userId: string }) {
