@@ -11,7 +11,7 @@ import { bladeSource, lowerBound, worldTrack, type BladePoint, type Noise, type 
 import { storedEnergy } from "./stored-energy";
 import { gridIndex, gridSegments, smoothSegment, type SmoothSegment } from "./track-smoothing";
 import { normalSource, spreadOf, type Spread } from "./uncertainty";
-import { parseShotDocument, type ImageTrack } from "./validate-shot";
+import { MIN_FLIGHT_MARKS, parseShotDocument, type ImageTrack } from "./validate-shot";
 import { ENGINE_VERSION } from "./version";
 
 export interface ComputeShotOptions {
@@ -25,8 +25,13 @@ export interface ComputeShotOptions {
 
 export const DEFAULT_TRIALS = 400;
 export const DEFAULT_SEED = "loadframe";
-/** Puck exit speed uses at most this many flight marks, from release on. */
-export const MAX_FLIGHT_MARKS = 10;
+/**
+ * Puck exit speed is fitted over the flight's first FLIGHT_WINDOW_MS from release (or until the
+ * puck leaves the frame), so the window is the same stretch of flight at every capture rate: ten
+ * marks at 240 fps, 128 at 3,200 fps — not ten marks, which at 3,200 fps are 2.8 ms all beside the
+ * blade. Fewer than MIN_FLIGHT_MARKS marks in the window: the first MIN_FLIGHT_MARKS after release.
+ */
+export const FLIGHT_WINDOW_MS = 40;
 
 interface Smoothed {
   src: Source;
@@ -108,7 +113,8 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
 
   // Puck exit speed: straight-line fit over the first flight marks.
   const puckSrc = sources[0];
-  const flight = worldTrack(puckSrc, cal, release, Infinity, undefined, MAX_FLIGHT_MARKS);
+  const flightSpan = flightWindow(tracks.puck!.frames, release, fps);
+  const flight = worldTrack(puckSrc, cal, release, flightSpan.lastFrame, undefined, flightSpan.limit);
   const fit = fitConstantVelocity(flight.frames, flight.x, flight.y, fps);
 
   // Blade speed at strike, from the smoothed piece before strike.
@@ -187,7 +193,7 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
   const dEnergy: number[] = [];
   for (let t = 0; t < trials; t++) {
     const c = trialCalibration(doc.calibration, normal, doc.pixelErrorPx, doc.calibrationErrorRel);
-    const w = worldTrack(puckSrc, c, release, Infinity, noise, MAX_FLIGHT_MARKS);
+    const w = worldTrack(puckSrc, c, release, flightSpan.lastFrame, noise, flightSpan.limit);
     dPuck.push(fitConstantVelocity(w.frames, w.x, w.y, fps).speedMps - fit.speedMps);
     if (bladeAt) {
       const st = bladeAt.state.sample(c, normal);
@@ -292,7 +298,14 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
 
   const i0 = lowerBound(tracks.puck!.frames, release);
   const scatterMm = doc.pixelErrorPx * cal.mmPerPxAt([tracks.puck!.x[i0], tracks.puck!.y[i0]]);
-  notes.push(...plausibilityNotes(body, { captureFps: fps, expectedScatterMm: scatterMm * Math.SQRT2, contactFrames: release - strike }));
+  notes.push(...plausibilityNotes(body, { captureFps: fps, expectedScatterMm: scatterMm * Math.SQRT2, contactFrames: release - strike, flightMaxResidualMm: fit.maxResidualMm }));
   return { ...body, notes };
 }
 
+/** The puck marks of the exit-speed fit: frames release … lastFrame, at most `limit` of them. */
+export function flightWindow(puckFrames: ArrayLike<number>, release: number, fps: number): { lastFrame: number; limit: number } {
+  const lastFrame = release + Math.floor((FLIGHT_WINDOW_MS * fps) / 1000 + 1e-9);
+  let inWindow = 0;
+  for (let i = 0; i < puckFrames.length; i++) if (puckFrames[i] >= release && puckFrames[i] <= lastFrame) inWindow++;
+  return inWindow >= MIN_FLIGHT_MARKS ? { lastFrame, limit: Infinity } : { lastFrame: Infinity, limit: MIN_FLIGHT_MARKS };
+}

@@ -10,6 +10,8 @@ export interface VelocityFit {
   speedMps: number;
   /** RMS distance of the marks from the fitted line, mm. */
   rmsResidualMm: number;
+  /** Largest distance of one mark from the fitted line, mm: a single mis-mark shows here, not in the RMS of a long window. */
+  maxResidualMm: number;
 }
 
 export function fitConstantVelocity(frames: ArrayLike<number>, xMm: ArrayLike<number>, yMm: ArrayLike<number>, captureFps: number): VelocityFit {
@@ -25,11 +27,14 @@ export function fitConstantVelocity(frames: ArrayLike<number>, xMm: ArrayLike<nu
   const fx = linearRegression(px);
   const fy = linearRegression(py);
   let ss = 0;
+  let worst = 0;
   for (let i = 0; i < n; i++) {
     const t = px[i][0];
-    ss += (xMm[i] - (fx.m * t + fx.b)) ** 2 + (yMm[i] - (fy.m * t + fy.b)) ** 2;
+    const r2 = (xMm[i] - (fx.m * t + fx.b)) ** 2 + (yMm[i] - (fy.m * t + fy.b)) ** 2;
+    ss += r2;
+    worst = Math.max(worst, r2);
   }
   const vxMps = fx.m / 1000;
   const vyMps = fy.m / 1000;
-  return { vxMps, vyMps, speedMps: Math.hypot(vxMps, vyMps), rmsResidualMm: Math.sqrt(ss / n) };
+  return { vxMps, vyMps, speedMps: Math.hypot(vxMps, vyMps), rmsResidualMm: Math.sqrt(ss / n), maxResidualMm: Math.sqrt(worst) };
 }

@@ -13,6 +13,11 @@ export const MIN_HIGH_SPEED_FPS = 240;
 export const LARGE_RELATIVE_U = 0.1;
 /** Flight marks scattered this many times the digitising error off a straight line suggest a mis-mark. */
 export const FLIGHT_SCATTER_FACTOR = 3;
+/**
+ * One flight mark this many times the expected scatter off the line is a mis-mark: with Gaussian
+ * digitising error the distance is Rayleigh-distributed, P(d > 4·RMS) = e^−16 ≈ 1e-7 per mark [calc].
+ */
+export const FLIGHT_OUTLIER_FACTOR = 4;
 
 export interface PlausibilityContext {
   captureFps: number;
@@ -20,6 +25,8 @@ export interface PlausibilityContext {
   expectedScatterMm: number;
   /** Frames from puck strike to release. */
   contactFrames: number;
+  /** Largest distance of one flight mark from the fitted line, mm. */
+  flightMaxResidualMm?: number;
 }
 
 function relLarge(value: number, u: number | null): boolean {
@@ -52,7 +59,8 @@ export function plausibilityNotes(r: Omit<ShotResults, "notes">, ctx: Plausibili
     notes.push({ code: "CONTACT_FEW_FRAMES", message: `contact spans only ${ctx.contactFrames} frame${ctx.contactFrames > 1 ? "s" : ""}: times are good to one frame (${r.frameTimeMs.toFixed(2)} ms)` });
   if (p.marksUsed < 5)
     notes.push({ code: "PUCK_FLIGHT_FEW_MARKS", message: `puck exit speed rests on ${p.marksUsed} flight marks; 10 give a steadier fit` });
-  if (ctx.expectedScatterMm > 0 && p.rmsResidualMm > FLIGHT_SCATTER_FACTOR * ctx.expectedScatterMm)
+  const outlier = (ctx.flightMaxResidualMm ?? 0) > FLIGHT_OUTLIER_FACTOR * ctx.expectedScatterMm;
+  if (ctx.expectedScatterMm > 0 && (p.rmsResidualMm > FLIGHT_SCATTER_FACTOR * ctx.expectedScatterMm || outlier))
     notes.push({
       code: "PUCK_FLIGHT_NOT_STRAIGHT",
       message: `puck flight marks stray ${p.rmsResidualMm.toFixed(1)} mm (RMS) from a straight line, more than digitising error explains: check for a mis-placed mark`,
