@@ -7,7 +7,6 @@ import pino from "pino";
 export const log = pino({ level: process.env.LOG_LEVEL ?? "info", base: { svc: process.env.LF_PROCESS ?? "web" } });
 
 declare global {
-  // eslint-disable-next-line @typescript-eslint/no-namespace
   namespace Express {
     interface Request {
       id: string;

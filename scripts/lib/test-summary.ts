@@ -6,10 +6,11 @@ const dir = process.argv[2];
 const read = (f: string) => (fs.existsSync(path.join(dir, f)) ? fs.readFileSync(path.join(dir, f), "utf8") : null);
 const rows: { suite: string; passed: number; failed: number; skipped: number }[] = [];
 
-const tc = read("typecheck.txt");
-if (tc) {
-  const m = tc.match(/(\d+) passed, (\d+) failed/)!;
-  rows.push({ suite: "typecheck", passed: +m[1], failed: +m[2], skipped: 0 });
+for (const suite of ["typecheck", "lint"]) {
+  const text = read(`${suite}.txt`);
+  if (!text) continue;
+  const m = text.match(/(\d+) passed, (\d+) failed/)!;
+  rows.push({ suite, passed: +m[1], failed: +m[2], skipped: 0 });
 }
 const v = read("vitest.json");
 if (v) {

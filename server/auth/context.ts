@@ -16,7 +16,6 @@ export interface SignedIn {
 }
 
 declare global {
-  // eslint-disable-next-line @typescript-eslint/no-namespace
   namespace Express {
     interface Request {
       signedIn?: SignedIn;

@@ -4,21 +4,13 @@
 import { sql } from "drizzle-orm";
 import { db } from "../db/client";
 import { log } from "../log";
-import { enqueue, queue } from "./runtime";
+import { enqueue, startedQueue } from "./queue";
 
 type LiveState = "created" | "retry" | "active";
 export interface LiveJob { id: string; state: LiveState; startedOn: Date | null; retryCount: number }
 
-/** The queue when this process started it (server, worker); scripts and most tests have none. */
-function runningQueue() {
-  try {
-    return queue();
-  } catch {
-    return null;
-  }
-}
 function boss() {
-  const b = runningQueue();
+  const b = startedQueue();
   if (!b) throw new Error("the job queue is not started in this process");
   return b;
 }
@@ -36,7 +28,7 @@ export async function liveExtractJobs(clipId: string): Promise<LiveJob[]> {
  * this process the clip stays "extracting" and the next sweep queues it.
  */
 export async function sendExtract(clipId: string, reqId?: string): Promise<string | null> {
-  if (!runningQueue()) {
+  if (!startedQueue()) {
     log.warn({ clipId }, "no job queue in this process; the clip sweep will queue its extraction");
     return null;
   }
@@ -48,7 +40,7 @@ export async function sendExtract(clipId: string, reqId?: string): Promise<strin
 
 /** Cancel waiting and running extraction jobs of a clip (a running handler notices the row is gone). */
 export async function cancelExtract(clipId: string): Promise<number> {
-  const b = runningQueue();
+  const b = startedQueue();
   if (!b) return 0;
   const ids = (await liveExtractJobs(clipId)).map((j) => j.id);
   if (ids.length) await b.cancel("clip.extract", ids);

@@ -1,14 +1,16 @@
 import PgBoss from "pg-boss";
 import { env } from "../env";
 import { log } from "../log";
-import { jobPolicies, type JobName, type JobTypes } from "./types";
+import { jobPolicies, type JobName } from "./types";
 import { handlers } from "./handlers";
+import { setQueue, startedQueue } from "./queue";
 
-let boss: PgBoss | undefined;
+export { enqueue, queue } from "./queue";
 
 /** Start the queue (pg-boss on our PostgreSQL); with work=true this process also runs jobs. */
 export async function startJobs({ work }: { work: boolean }) {
-  boss = new PgBoss({ connectionString: env().DATABASE_URL, schema: "pgboss", max: 5 });
+  const boss = new PgBoss({ connectionString: env().DATABASE_URL, schema: "pgboss", max: 5 });
+  setQueue(boss);
   boss.on("error", (err) => log.error({ err }, "queue error"));
   await boss.start();
   for (const name of Object.keys(jobPolicies) as JobName[]) {
@@ -36,19 +38,10 @@ export async function startJobs({ work }: { work: boolean }) {
   return boss;
 }
 
-export async function enqueue<N extends JobName>(name: N, data: JobTypes[N], opts: { singletonKey?: string } = {}) {
-  if (!boss) throw new Error("job queue not started");
-  return boss.send(name, data as object, opts);
-}
-
-export function queue() {
-  if (!boss) throw new Error("job queue not started");
-  return boss;
-}
-
 /** Stop taking jobs; running ones get a grace period, then pg-boss hands them back. */
 export async function stopJobs() {
+  const boss = startedQueue();
   if (!boss) return;
   await boss.stop({ graceful: true, timeout: 20_000, wait: true });
-  boss = undefined;
+  setQueue(undefined);
 }

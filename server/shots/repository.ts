@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, getTableName, inArray, sql, type Column } from "drizzle-orm";
+import { and, asc, eq, getTableName, inArray, sql, type Column } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
 import { benchTest, clip, member, shot, shotResult, shotShare, stick, user } from "../db/schema";

@@ -15,7 +15,7 @@ declare module "fili" {
     Fc: number;
     preGain?: boolean;
   }
-  class CalcCascades {
+  export class CalcCascades {
     lowpass(params: CascadeParams): BiquadCoeffs[];
   }
   const Fili: { CalcCascades: typeof CalcCascades };

@@ -1,5 +1,4 @@
 import type { RouteObject } from "react-router-dom";
-import { ComingNext } from "./ComingNext";
 import { NotFound } from "./NotFound";
 
 /**

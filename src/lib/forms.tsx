@@ -1,5 +1,5 @@
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useForm, type FieldValues, type Path, type UseFormProps, type UseFormReturn } from "react-hook-form";
+import { useForm, type FieldValues, type FormState, type Path, type UseFormProps, type UseFormReturn } from "react-hook-form";
 import type { z } from "zod";
 import { Alert } from "@/components/ui/Alert";
 import { errorMessage, isApiError } from "./api";
@@ -33,7 +33,7 @@ export function applyServerErrors<T extends FieldValues>(form: UseFormReturn<T, 
 }
 
 /** The form-wide message set by applyServerErrors. */
-export function FormError({ form }: { form: Pick<UseFormReturn<any, any, any>, "formState"> }) {
+export function FormError<T extends FieldValues>({ form }: { form: { formState: FormState<T> } }) {
   const message = form.formState.errors.root?.server?.message;
   if (!message) return null;
   return <Alert tone="danger">{message}</Alert>;

@@ -47,12 +47,18 @@ export function Menu({ trigger, triggerLabel, triggerClassName, align = "start",
     const list = items();
     const at = list.indexOf(document.activeElement as HTMLElement);
     const move = (i: number) => list[(i + list.length) % list.length]?.focus();
-    if (e.key === "ArrowDown") (e.preventDefault(), move(at + 1));
-    else if (e.key === "ArrowUp") (e.preventDefault(), move(at - 1));
-    else if (e.key === "Home") (e.preventDefault(), move(0));
-    else if (e.key === "End") (e.preventDefault(), move(list.length - 1));
-    else if (e.key === "Escape") (e.preventDefault(), close());
-    else if (e.key === "Tab") setOpen(false);
+    if (e.key === "Tab") return setOpen(false);
+    const action: Record<string, () => void> = {
+      ArrowDown: () => move(at + 1),
+      ArrowUp: () => move(at - 1),
+      Home: () => move(0),
+      End: () => move(list.length - 1),
+      Escape: close,
+    };
+    const run = action[e.key];
+    if (!run) return;
+    e.preventDefault();
+    run();
   };
 
   return (
@@ -66,7 +72,7 @@ export function Menu({ trigger, triggerLabel, triggerClassName, align = "start",
         aria-label={triggerLabel}
         onClick={() => setOpen((o) => !o)}
         onKeyDown={(e) => {
-          if (e.key === "ArrowDown" && !open) (e.preventDefault(), setOpen(true));
+          if (e.key === "ArrowDown" && !open) { e.preventDefault(); setOpen(true); }
         }}
         className={triggerClassName}
       >

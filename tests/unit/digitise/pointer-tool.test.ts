@@ -1,7 +1,6 @@
 // The canvas tools as state machines, driven by plain pointer events: no DOM, no Konva.
 import { describe, expect, it } from "vitest";
 import { CLICK_SLOP_PX, idle, step, type Handle, type PointerInput, type ToolContext, type ToolState } from "@/features/digitise/model/tools/pointer-tool";
-import type { Vec2 } from "@/features/digitise/model/viewport";
 
 const handle: Handle = { kind: "mark", landmark: "puck", frame: 10 };
 // Zoomed 4× and panned: frame (x, y) is at screen (50 + 4x, 20 + 4y).

@@ -35,7 +35,8 @@ function ClipsLibrary({ teamId, teamName, staff }: { teamId: string; teamName: s
 
   const update = (patch: Record<string, string | undefined>, resetPage = true) => {
     const next = new URLSearchParams(params);
-    for (const [k, v] of Object.entries(patch)) (v ? next.set(k, v) : next.delete(k));
+    for (const [k, v] of Object.entries(patch)) if (v) next.set(k, v);
+      else next.delete(k);
     if (resetPage) next.delete("page");
     setParams(next, { replace: true });
   };

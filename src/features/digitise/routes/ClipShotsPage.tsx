@@ -1,6 +1,6 @@
 import { useState } from "react";
 import { Link, useNavigate, useParams } from "react-router-dom";
-import { EVENTS, eventLabels, LANDMARKS, landmarkLabels, type ShotSummary } from "@shared/schemas/shots";
+import { EVENTS, LANDMARKS, landmarkLabels, type ShotSummary } from "@shared/schemas/shots";
 import { Alert, Badge, Button, Card, ConfirmDialog, EmptyState, Field, Input, PageHeader, PageSpinner, toast } from "@/components/ui";
 import { errorMessage, isApiError } from "@/lib/api";
 import { formatRelative } from "@/lib/format";

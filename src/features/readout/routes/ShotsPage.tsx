@@ -27,7 +27,8 @@ function Shots({ teamId, teamName, staff }: { teamId: string; teamName: string; 
   const update = (patch: Record<string, string>) =>
     setParams((p) => {
       const next = new URLSearchParams(p);
-      for (const [k, v] of Object.entries(patch)) (v ? next.set(k, v) : next.delete(k));
+      for (const [k, v] of Object.entries(patch)) if (v) next.set(k, v);
+      else next.delete(k);
       if (!("page" in patch)) next.delete("page");
       return next;
     });

@@ -1,0 +1,47 @@
+// The layering rules (docs/decisions/120-layering-rules.md) are ESLint rules: each deliberate
+// forbidden import below must be reported, and the allowed twin must pass. Files are linted as
+// text under a path of the tree, so nothing is written to it.
+import { ESLint } from "eslint";
+import { beforeAll, describe, expect, it } from "vitest";
+
+let eslint: ESLint;
+beforeAll(() => {
+  eslint = new ESLint({ cwd: process.cwd() });
+});
+
+async function ruleIds(filePath: string, code: string) {
+  const [result] = await eslint.lintText(code, { filePath });
+  return result.messages.map((m) => m.ruleId ?? m.message);
+}
+
+describe("import boundaries", () => {
+  it("a feature importing another feature fails", async () => {
+    expect(await ruleIds("src/features/clips/boundary-probe.ts", `import { readoutKeys } from "@/features/readout/api/keys";\nexport const k = readoutKeys;\n`)).toContain(
+      "import-x/no-restricted-paths",
+    );
+    expect(await ruleIds("src/features/clips/boundary-probe.ts", `import { readoutKeys } from "../readout/api/keys";\nexport const k = readoutKeys;\n`)).toContain(
+      "import-x/no-restricted-paths",
+    );
+  });
+
+  it("a feature importing its own files, shared UI and lib passes", async () => {
+    expect(await ruleIds("src/features/clips/boundary-probe.ts", `import { clipKeys } from "./api/keys";\nimport { Button } from "@/components/ui";\nexport const k = [clipKeys, Button];\n`)).toEqual([]);
+  });
+
+  it("shared UI importing a feature fails", async () => {
+    expect(await ruleIds("src/components/ui/boundary-probe.ts", `import { clipKeys } from "@/features/clips/api/keys";\nexport const k = clipKeys;\n`)).toContain(
+      "import-x/no-restricted-paths",
+    );
+  });
+
+  it("Drizzle outside an entity repository or server/db fails", async () => {
+    expect(await ruleIds("server/readout/routes.ts", `import { sql } from "drizzle-orm";\nexport const q = sql\`select 1\`;\n`)).toContain("no-restricted-imports");
+    expect(await ruleIds("server/entities/shot/repository.ts", `import { sql } from "drizzle-orm";\nexport const q = sql\`select 1\`;\n`)).toEqual([]);
+  });
+
+  it("shared/ with Node I/O or the DOM fails", async () => {
+    expect(await ruleIds("shared/mechanics/boundary-probe.ts", `import { readFileSync } from "node:fs";\nexport const r = readFileSync;\n`)).toContain("no-restricted-imports");
+    expect(await ruleIds("shared/mechanics/boundary-probe.ts", `export const title = () => document.title;\n`)).toContain("no-restricted-globals");
+    expect(await ruleIds("shared/mechanics/boundary-probe.ts", `export const pure = (x: number) => x * 2;\n`)).toEqual([]);
+  });
+});
