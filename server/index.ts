@@ -6,6 +6,7 @@ import { startJobs, stopJobs } from "./jobs/runtime";
 import { db } from "./db/client";
 import { startDraining } from "./health/draining";
 import { onShutdown } from "./shutdown";
+import { closeUploads } from "./clips/uploads";
 
 async function main() {
   let e;
@@ -35,7 +36,7 @@ async function main() {
     server.closeIdleConnections();
     setTimeout(() => server.closeAllConnections(), 10_000).unref();
     await Promise.all([closed, stopJobs()]);
-    await db().pool.end();
+    await Promise.all([db().pool.end(), closeUploads()]);
   });
 }
 

@@ -19,6 +19,7 @@ import { checkMetaRefs, ClipProblem, ingestUpload } from "./ingest";
 import { tusDir } from "./deps";
 import { clipInTeam, teamQuotaBytes, teamUsageBytes } from "./repository";
 import { toSummary } from "./present";
+import { PgUploadLocker } from "./upload-lock";
 
 export const UPLOAD_PATH = "/api/uploads";
 /** An unfinished upload untouched this long is removed. */
@@ -107,14 +108,18 @@ export async function sweepStaleUploads(maxAgeMs = STALE_UPLOAD_MS): Promise<num
 }
 
 let tus: Server | undefined;
+let locker: PgUploadLocker | undefined;
 export function uploadServer(): Server {
   if (tus) return tus;
   const e = env();
   const store = new FileStore({ directory: tusDir() });
   const actors = new WeakMap<TusRequest, Actor>();
+  locker = new PgUploadLocker(e.DATABASE_URL);
   tus = new Server({
     path: UPLOAD_PATH,
     datastore: store,
+    // Any web process may serve any request of an upload: the lock lives in PostgreSQL.
+    locker,
     relativeLocation: true,
     allowedOrigins: [new URL(e.PUBLIC_URL).origin],
     // The size limit is ours (onUploadCreate), to answer with our message rather than tus's.
@@ -192,6 +197,11 @@ export function uploadServer(): Server {
 }
 
 export type { Upload };
+
+/** Closes the upload lock's connection (at shutdown; any lock it held is freed with it). */
+export async function closeUploads() {
+  await locker?.close();
+}
 
 /** Mount on the app before any body parser (tus reads the raw stream). */
 export function mountUploads(app: Express) {

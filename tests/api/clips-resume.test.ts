@@ -1,6 +1,6 @@
 // Resumable uploads: a paused upload continues where it stopped, and so does one whose
 // connection was cut mid-chunk; the stored original's SHA-256 matches the file.
-import { clipMeta, cookieOf, makeClip, tusLeftovers, tusUpload } from "./clips-support";
+import { clipMeta, cookieOf, createUpload, makeClip, tusLeftovers, tusUpload } from "./clips-support";
 import { createHash } from "node:crypto";
 import http from "node:http";
 import { readFileSync } from "node:fs";
@@ -73,15 +73,7 @@ describe("resumable uploads", () => {
 
   it("a connection cut mid-chunk keeps what arrived; the upload resumes to a matching checksum", async () => {
     const data = bigClip("cut-conn.mp4", 2);
-    const create = await fetch(`${srv.url}/api/uploads`, {
-      method: "POST",
-      headers: {
-        "tus-resumable": "1.0.0", "upload-length": String(data.length), cookie: cookieOf(coach), origin: "http://127.0.0.1:3000",
-        "upload-metadata": Object.entries(md("Dropped connection")).map(([k, v]) => `${k} ${Buffer.from(v).toString("base64")}`).join(","),
-      },
-    });
-    expect(create.status).toBe(201);
-    const url = srv.url + create.headers.get("location");
+    const url = srv.url + (await createUpload(srv.url, coach, data.length, md("Dropped connection")));
 
     // Send half the file in one PATCH, then drop the socket before the rest.
     const half = Math.floor(data.length / 2);

@@ -31,6 +31,19 @@ export function makeClip(name: string, o: { frames?: number; fps?: number; size?
 
 export const cookieOf = (c: Client) => [...(c as unknown as { cookies: Map<string, string> }).cookies].map(([k, v]) => `${k}=${v}`).join("; ");
 
+/** The headers every raw tus request of these tests sends. */
+export const tusHeaders = (who: Client) => ({ "tus-resumable": "1.0.0", cookie: cookieOf(who), origin: "http://127.0.0.1:3000" });
+
+/** Starts an upload with a raw tus POST; answers its location (a path). */
+export async function createUpload(base: string, who: Client, size: number, metadata: Record<string, string>): Promise<string> {
+  const r = await fetch(`${base}/api/uploads`, {
+    method: "POST",
+    headers: { ...tusHeaders(who), "upload-length": String(size), "upload-metadata": Object.entries(metadata).map(([k, v]) => `${k} ${Buffer.from(v).toString("base64")}`).join(",") },
+  });
+  if (r.status !== 201) throw new Error(`upload not created: ${r.status} ${await r.text()}`);
+  return r.headers.get("location")!;
+}
+
 export interface UploadOutcome {
   ok: boolean;
   status?: number;
