@@ -21,6 +21,12 @@ export async function clipById(teamId: string, clipId: string) {
 }
 export type ClipRow = NonNullable<Awaited<ReturnType<typeof clipById>>>;
 
+/** The clip's stored frame times and rates (a separate read: the array can be long). */
+export async function clipClock(clipId: string) {
+  const [row] = await db().select({ captureFps: clip.captureFps, storedFps: clip.storedFps, frameTimes: clip.frameTimes }).from(clip).where(eq(clip.id, clipId));
+  return row ?? null;
+}
+
 const shotColumns = {
   id: shot.id, teamId: shot.teamId, clipId: shot.clipId, label: shot.label, playerId: shot.playerId, playerName: player.name, stickId: shot.stickId,
   stickLabel: stick.label, frameStart: shot.frameStart, frameEnd: shot.frameEnd, marks: shot.marks, events: shot.events, version: shot.version,
@@ -145,7 +151,7 @@ export async function recomputeInputs(tx: Tx, shotId: string) {
     .from(shot)
     .where(eq(shot.id, shotId));
   if (!s) return null;
-  const [c] = await tx.select({ captureFps: clip.captureFps, frameCount: clip.frameCount, calibration: clip.calibration }).from(clip).where(eq(clip.id, s.clipId));
+  const [c] = await tx.select({ captureFps: clip.captureFps, storedFps: clip.storedFps, frameTimes: clip.frameTimes, frameCount: clip.frameCount, calibration: clip.calibration }).from(clip).where(eq(clip.id, s.clipId));
   return { shot: { ...s, marks: s.marks as ShotMarks, events: s.events as ShotEventsDraft }, clip: { ...c, calibration: c.calibration as ClipCalibration | null } };
 }
 

@@ -3,6 +3,7 @@ import { db } from "../db/client";
 import { log } from "../log";
 import { computeShot, ENGINE_VERSION, isMechanicsInputError } from "../../shared/mechanics/index";
 import { DEFAULT_BENCH_SPAN_MM } from "../../shared/schemas/shot-document";
+import { shotFrameTimes } from "../../shared/schemas/clips";
 import { toShotDocument, type ShotStickInfo, type StoredResult } from "../../shared/schemas/shots";
 import * as repo from "./repository";
 
@@ -34,14 +35,16 @@ export async function recomputeShot(shotId: string): Promise<StoredResult | null
     const { shot, clip } = inputs;
     const s = shot.stickId ? await repo.stickWithLatestTest(shot.stickId, tx) : null;
     const flex = s ? stickFlex(s) : null;
+    const frameEnd = shot.frameEnd ?? clip.frameCount ?? shot.frameStart;
     const built = toShotDocument({
       captureFps: clip.captureFps,
       calibration: clip.calibration,
       marks: shot.marks,
       events: shot.events,
       frameStart: shot.frameStart,
-      frameEnd: shot.frameEnd ?? clip.frameCount ?? shot.frameStart,
+      frameEnd,
       stick: flex?.flex ? { flex: flex.flex, benchSpanMm: flex.benchSpanMm } : null,
+      frameTimes: shotFrameTimes(clip.frameTimes, clip.storedFps, clip.captureFps, shot.frameStart, frameEnd),
     });
     let results: unknown = null;
     let error: string | null = built.missing;

@@ -2,6 +2,7 @@ import { policy, type Actor } from "../auth/policy";
 import { recordAudit } from "../audit/repository";
 import { forbidden, HttpError, notFound } from "../http/problem";
 import { checkCalibration } from "../../shared/mechanics/calibration";
+import { shotFrameTimes } from "../../shared/schemas/clips";
 import {
   calibrationFrameProblem, canonicalMarks as canonical, LANDMARKS, marksProblem,
   type ClipCalibration, type ClipShots, type CreateShotBody, type DigitiseClip, type FrameBox, type SaveMarksBody, type SaveMarksResponse, type ShotDetail, type ShotSummary, type UpdateShotBody,
@@ -62,6 +63,7 @@ function summary(s: repo.ShotRow): ShotSummary {
 async function detail(a: Actor, s: repo.ShotRow): Promise<ShotDetail> {
   const c = await clipOrThrow(a, s.clipId);
   const st = s.stickId ? await repo.stickWithLatestTest(s.stickId) : null;
+  const clock = await repo.clipClock(c.id);
   return {
     ...summary(s),
     marks: s.marks,
@@ -71,6 +73,7 @@ async function detail(a: Actor, s: repo.ShotRow): Promise<ShotDetail> {
       ? toStoredResult({ engineVersion: s.resultEngine, results: s.results, error: s.resultError, shotVersion: s.resultShotVersion!, computedAt: s.computedAt! })
       : null,
     canEdit: policy.editShot(a, s),
+    frameTimes: clock ? shotFrameTimes(clock.frameTimes, clock.storedFps, clock.captureFps, s.frameStart, s.frameEnd ?? c.frameCount ?? s.frameStart) : null,
   };
 }
 

@@ -9,6 +9,7 @@ import { linearState, type LinearState } from "./linear-response";
 import { cutsFor, chooseCutoff, type CutoffMode } from "./shot-smoothing";
 import { bladeSource, lowerBound, worldTrack, type BladePoint, type Noise, type Source, type SourceKey } from "./sources";
 import { storedEnergy } from "./stored-energy";
+import { describeIrregularity, rateTimeBase, timesOf, type TimeBase } from "./time-base";
 import { gridIndex, gridSegments, smoothSegment, type SmoothSegment } from "./track-smoothing";
 import { normalSource, spreadOf, type Spread } from "./uncertainty";
 import { MIN_FLIGHT_MARKS, parseShotDocument, type ImageTrack } from "./validate-shot";
@@ -72,9 +73,20 @@ function spreadFields(s: Spread | null): { u: number | null; interval95: [number
   return s ? { u: s.u, interval95: s.interval95 } : { u: null, interval95: null };
 }
 
+/** A note when the frames a result rests on include a gap or a repeated frame in the clip's timing. */
+function timingNote(notes: ResultNote[], time: TimeBase, what: string, a: number, b: number): void {
+  const found = time.irregularities(a, b);
+  if (!found.length) return;
+  const more = found.length > 1 ? ` and ${found.length - 1} more` : "";
+  notes.push({
+    code: "TIMING_GAP",
+    message: `${what} spans ${describeIrregularity(found[0])}${more}: it uses each frame's own capture time, but whatever happened in the missing time was not filmed`,
+  });
+}
+
 /** Validate a shot document and derive its results; throws MechanicsInputError for unusable input. */
 export function computeShot(input: unknown, opts: ComputeShotOptions = {}): ShotResults {
-  const { doc, tracks, clip } = parseShotDocument(input);
+  const { doc, tracks, clip, time } = parseShotDocument(input);
   const trials = opts.trials ?? DEFAULT_TRIALS;
   if (!Number.isInteger(trials) || trials < 20) throw new RangeError(`trials must be a whole number of at least 20 (got ${trials})`);
   const seed = opts.seed ?? DEFAULT_SEED;
@@ -83,7 +95,8 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
   const cal = nominalCalibration(doc.calibration);
   const notes: ResultNote[] = [];
   const normal = normalSource(seed);
-  const ms = (frames: number) => (frames * 1000) / fps;
+  /** Capture time from frame a to frame b, ms (the clip's frame clock when the document has it). */
+  const ms = (a: number, b: number) => time.between(a, b) * 1000;
 
   // Sources and their smoothing.
   const sources: Source[] = [{ key: "puck", parts: [tracks.puck!], names: ["puck"] }];
@@ -96,7 +109,7 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
   const smoothed = new Map<SourceKey, Smoothed>();
   for (const src of sources) {
     const cuts = cutsFor(src.key, strike, release);
-    const grids = gridSegments(worldTrack(src, cal), cuts.splits, cuts.labels, fps);
+    const grids = gridSegments(worldTrack(src, cal), cuts.splits, cuts.labels, fps, undefined, time);
     const name = src.names.join("+");
     let cutoffHz = byNames.get(name);
     if (cutoffHz === undefined) {
@@ -108,14 +121,16 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
     const longestGap = Math.max(0, ...grids.map((g) => g.longestGapFrames));
     if (longestGap > 0 && src.key !== "blade")
       notes.push({ code: "TRACK_GAPS", message: `${name} has unmarked frames (longest run ${longestGap}) bridged by straight lines before smoothing` });
-    smoothed.set(src.key, { src, cutoffHz, segments: grids.map((g) => smoothSegment(g, cutoffHz, fps)) });
+    smoothed.set(src.key, { src, cutoffHz, segments: grids.map((g) => smoothSegment(g, cutoffHz)) });
   }
 
   // Puck exit speed: straight-line fit over the first flight marks.
   const puckSrc = sources[0];
-  const flightSpan = flightWindow(tracks.puck!.frames, release, fps);
+  const flightSpan = flightWindow(tracks.puck!.frames, release, fps, time);
   const flight = worldTrack(puckSrc, cal, release, flightSpan.lastFrame, undefined, flightSpan.limit);
-  const fit = fitConstantVelocity(flight.frames, flight.x, flight.y, fps);
+  const flightTimes = timesOf(time, flight.frames);
+  const fit = fitConstantVelocity(flightTimes, flight.x, flight.y);
+  timingNote(notes, time, "puck exit speed's straight-line fit", flight.frames[0], flight.frames[flight.frames.length - 1]);
 
   // Blade speed at strike, from the smoothed piece before strike.
   const bladeSm = smoothed.get("blade");
@@ -123,7 +138,8 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
   let bladeAt: { frame: number; speed: number; state: LinearState } | null = null;
   if (pre && bladeSm && pre.frames.length >= 3 && strike - pre.frames[pre.frames.length - 1] <= pre.step) {
     const i = pre.frames.length - 1;
-    bladeAt = { frame: pre.frames[i], speed: Math.hypot(pre.vx[i], pre.vy[i]), state: linearState(bladeSm.src, pre, i, cal, doc.pixelErrorPx, fps) };
+    bladeAt = { frame: pre.frames[i], speed: Math.hypot(pre.vx[i], pre.vy[i]), state: linearState(bladeSm.src, pre, i, cal, doc.pixelErrorPx) };
+    timingNote(notes, time, "blade speed at strike", pre.frames[Math.max(0, i - 2)], strike);
   } else if (bladeSm) {
     notes.push({ code: "BLADE_NOT_AT_STRIKE", message: "the blade needs at least 3 marks up to the puck-strike frame, the last on or just before it: no blade speed at strike" });
   }
@@ -161,7 +177,7 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
     const p = peak;
     bendStates = [top!, bottom!, heel!].map((s) => {
       const g = seg(s, p.label)!;
-      return linearState(s.src, g, gridIndex(g, p.frame), cal, doc.pixelErrorPx, fps);
+      return linearState(s.src, g, gridIndex(g, p.frame), cal, doc.pixelErrorPx);
     });
     const [pt, pb, ph] = bendStates.map((st) => [st.nominal.x, st.nominal.y] as Vec2);
     const g = chordGeometry(pt, pb, ph);
@@ -194,7 +210,7 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
   for (let t = 0; t < trials; t++) {
     const c = trialCalibration(doc.calibration, normal, doc.pixelErrorPx, doc.calibrationErrorRel);
     const w = worldTrack(puckSrc, c, release, flightSpan.lastFrame, noise, flightSpan.limit);
-    dPuck.push(fitConstantVelocity(w.frames, w.x, w.y, fps).speedMps - fit.speedMps);
+    dPuck.push(fitConstantVelocity(flightTimes, w.x, w.y).speedMps - fit.speedMps);
     if (bladeAt) {
       const st = bladeAt.state.sample(c, normal);
       dBlade.push(Math.hypot(st.vx, st.vy) - bladeAt.speed);
@@ -217,11 +233,13 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
   const energyU = energyNominal ? spreadFields(spreadOf(energyNominal.valueJ, dEnergy)) : null;
 
   // Time series for the readout charts.
-  const firstFrame = clip ? clip[0] : 0;
+  const firstFrame = clip ? clip[0] : (doc.frameTimes?.firstFrame ?? 0);
+  if (iceStrike !== undefined) timingNote(notes, time, "load time", iceStrike, strike);
+  timingNote(notes, time, "contact time", strike, release);
   const point = (frame: number, label: SegmentLabel, value: number): SeriesPoint => ({
     frame,
-    tMs: ms(frame - firstFrame),
-    tFromStrikeMs: ms(frame - strike),
+    tMs: ms(firstFrame, frame),
+    tFromStrikeMs: ms(strike, frame),
     value,
     segment: label,
   });
@@ -266,9 +284,9 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
             bMm: peakGeometry!.bMm,
           }
         : null,
-    loadTimeMs: iceStrike !== undefined ? ms(strike - iceStrike) : null,
-    contactTimeMs: ms(release - strike),
-    frameTimeMs: ms(1),
+    loadTimeMs: iceStrike !== undefined ? ms(iceStrike, strike) : null,
+    contactTimeMs: ms(strike, release),
+    frameTimeMs: time.nominalS * 1000,
     storedEnergy:
       energyNominal && energyU && peak
         ? {
@@ -303,8 +321,14 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
 }
 
 /** The puck marks of the exit-speed fit: frames release … lastFrame, at most `limit` of them. */
-export function flightWindow(puckFrames: ArrayLike<number>, release: number, fps: number): { lastFrame: number; limit: number } {
-  const lastFrame = release + Math.floor((FLIGHT_WINDOW_MS * fps) / 1000 + 1e-9);
+export function flightWindow(puckFrames: ArrayLike<number>, release: number, fps: number, time: TimeBase = rateTimeBase(fps)): { lastFrame: number; limit: number } {
+  let lastFrame = release + Math.floor((FLIGHT_WINDOW_MS * fps) / 1000 + 1e-9);
+  if (time.fromClock) {
+    // The window is capture time: on an uneven clock, the last puck frame within it.
+    lastFrame = release;
+    for (let i = 0; i < puckFrames.length; i++)
+      if (puckFrames[i] > lastFrame && time.between(release, puckFrames[i]) * 1000 <= FLIGHT_WINDOW_MS + 1e-9) lastFrame = puckFrames[i];
+  }
   let inWindow = 0;
   for (let i = 0; i < puckFrames.length; i++) if (puckFrames[i] >= release && puckFrames[i] <= lastFrame) inWindow++;
   return inWindow >= MIN_FLIGHT_MARKS ? { lastFrame, limit: Infinity } : { lastFrame: Infinity, limit: MIN_FLIGHT_MARKS };

@@ -14,13 +14,14 @@ export interface VelocityFit {
   maxResidualMm: number;
 }
 
-export function fitConstantVelocity(frames: ArrayLike<number>, xMm: ArrayLike<number>, yMm: ArrayLike<number>, captureFps: number): VelocityFit {
-  const n = frames.length;
-  const f0 = frames[0];
+/** Fit against each mark's capture time in seconds (any origin). */
+export function fitConstantVelocity(tS: ArrayLike<number>, xMm: ArrayLike<number>, yMm: ArrayLike<number>): VelocityFit {
+  const n = tS.length;
+  const t0 = tS[0];
   const px: number[][] = new Array(n);
   const py: number[][] = new Array(n);
   for (let i = 0; i < n; i++) {
-    const t = (frames[i] - f0) / captureFps;
+    const t = tS[i] - t0;
     px[i] = [t, xMm[i]];
     py[i] = [t, yMm[i]];
   }

@@ -2,7 +2,7 @@ import { EigenvalueDecomposition, Matrix } from "ml-matrix";
 import { endPadLength, lfilterZi, zeroLagDesignCached, type Biquad } from "./butterworth";
 import type { CalibrationMap } from "./calibration";
 import type { Source } from "./sources";
-import type { GridSegment, SmoothSegment } from "./track-smoothing";
+import { gradientWeights, type GridSegment, type SmoothSegment } from "./track-smoothing";
 
 // Gap filling, the zero-lag filter and differencing are all linear in the world marks, so a
 // smoothed position or velocity at one frame is a weighted sum of the marks. The weights (one row
@@ -82,37 +82,23 @@ export function gridToMarkWeights(seg: GridSegment, wg: Float64Array): Float64Ar
       continue;
     }
     if (next <= j) for (next = j + 1; !seg.marked[next]; next++);
-    const u = (j - last) / (next - last);
+    const u = (seg.tS[j] - seg.tS[last]) / (seg.tS[next] - seg.tS[last]);
     wm[m] += (1 - u) * wg[j];
     wm[m + 1] += u * wg[j];
   }
   return wm;
 }
 
-/** Grid coefficients of gradientMps at index i (velocity in m/s from mm). */
-function gradientRow(n: number, i: number, h: number): Float64Array {
-  const c = new Float64Array(n);
-  const k = 1 / (1000 * h);
-  if (n === 2) {
-    c[0] = -k;
-    c[1] = k;
-  } else if (i === 0) {
-    c[0] = -1.5 * k;
-    c[1] = 2 * k;
-    c[2] = -0.5 * k;
-  } else if (i === n - 1) {
-    c[n - 1] = 1.5 * k;
-    c[n - 2] = -2 * k;
-    c[n - 3] = 0.5 * k;
-  } else {
-    c[i - 1] = -0.5 * k;
-    c[i + 1] = 0.5 * k;
-  }
+/** Grid coefficients of gradientMps at index i (velocity in m/s from mm), at the samples' own times. */
+function gradientRow(tS: Float64Array, i: number): Float64Array {
+  const c = new Float64Array(tS.length);
+  const { from, w } = gradientWeights(tS, i);
+  for (let k = 0; k < w.length; k++) c[from + k] = w[k] / 1000;
   return c;
 }
 
 /** Weights on the segment's marks that give the smoothed position and velocity at grid index i. */
-export function stateWeights(seg: SmoothSegment, i: number, captureFps: number): { pos: Float64Array; vel: Float64Array | null } {
+export function stateWeights(seg: SmoothSegment, i: number): { pos: Float64Array; vel: Float64Array | null } {
   const n = seg.frames.length;
   const filtered = seg.cutoffHz !== null && n >= 3;
   const q = filtered ? zeroLagDesignCached(seg.cutoffHz!, seg.fsHz) : null;
@@ -120,7 +106,7 @@ export function stateWeights(seg: SmoothSegment, i: number, captureFps: number):
   const e = new Float64Array(n);
   e[i] = 1;
   const pos = gridToMarkWeights(seg, smoothT(e));
-  const vel = n >= 2 ? gridToMarkWeights(seg, smoothT(gradientRow(n, i, seg.step / captureFps))) : null;
+  const vel = n >= 2 ? gridToMarkWeights(seg, smoothT(gradientRow(seg.tS, i))) : null;
   return { pos, vel };
 }
 
@@ -145,8 +131,8 @@ const WEIGHT_FLOOR = 1e-12;
  * noise enters as one 4-D Gaussian (its exact covariance through the linear smoothing, with the
  * calibration's Jacobian at each mark); the calibration's own error by re-mapping the marks.
  */
-export function linearState(src: Source, seg: SmoothSegment, i: number, nominalCal: CalibrationMap, sigmaPx: number, captureFps: number): LinearState {
-  const { pos, vel } = stateWeights(seg, i, captureFps);
+export function linearState(src: Source, seg: SmoothSegment, i: number, nominalCal: CalibrationMap, sigmaPx: number): LinearState {
+  const { pos, vel } = stateWeights(seg, i);
   let maxP = 0;
   let maxV = 0;
   for (let k = 0; k < pos.length; k++) {

@@ -1,8 +1,10 @@
 import type { SegmentLabel } from "../schemas/shot-results";
 import { zeroLagLowPass } from "./butterworth";
+import { rateTimeBase, type TimeBase } from "./time-base";
 
 // Tracks are cut at the impact frames (never filtered across puck strike), put on a uniform frame
-// grid (gaps bridged by straight lines), smoothed, and differentiated.
+// grid (gaps bridged by straight lines in time), smoothed, and differentiated against each
+// sample's own capture time (the frame clock, which is uniform unless the clip's timing is not).
 
 /** One landmark's marks in world mm, sorted by frame, no repeats. */
 export interface WorldTrack {
@@ -17,6 +19,8 @@ export interface GridSegment {
   step: number;
   fsHz: number;
   frames: Int32Array;
+  /** Capture time of each grid sample, seconds. */
+  tS: Float64Array;
   x: Float64Array;
   y: Float64Array;
   marked: Uint8Array;
@@ -47,7 +51,14 @@ function gcd(a: number, b: number): number {
  * Cut at `splits` (ascending frames; a split frame belongs to both sides, the position being
  * continuous there) and grid each piece. labels.length === splits.length + 1; empty pieces are dropped.
  */
-export function gridSegments(track: WorldTrack, splits: number[], labels: SegmentLabel[], captureFps: number, step?: number): GridSegment[] {
+export function gridSegments(
+  track: WorldTrack,
+  splits: number[],
+  labels: SegmentLabel[],
+  captureFps: number,
+  step?: number,
+  time: TimeBase = rateTimeBase(captureFps),
+): GridSegment[] {
   const out: GridSegment[] = [];
   const n = track.frames.length;
   for (let s = 0; s <= splits.length; s++) {
@@ -58,13 +69,13 @@ export function gridSegments(track: WorldTrack, splits: number[], labels: Segmen
     let i1 = i0;
     while (i1 < n && track.frames[i1] <= to) i1++;
     if (i1 === i0) continue;
-    out.push(gridPiece(track, i0, i1, labels[s], captureFps, step));
+    out.push(gridPiece(track, i0, i1, labels[s], captureFps, time, step));
   }
   return out;
 }
 
 /** `wanted` (a part of a longer track keeps that track's grid) is used when it divides every gap. */
-function gridPiece(t: WorldTrack, i0: number, i1: number, label: SegmentLabel, captureFps: number, wanted?: number): GridSegment {
+function gridPiece(t: WorldTrack, i0: number, i1: number, label: SegmentLabel, captureFps: number, time: TimeBase, wanted?: number): GridSegment {
   let step = 0;
   for (let i = i0 + 1; i < i1; i++) step = gcd(step, t.frames[i] - t.frames[i - 1]);
   if (step === 0) step = wanted ?? 1;
@@ -72,6 +83,7 @@ function gridPiece(t: WorldTrack, i0: number, i1: number, label: SegmentLabel, c
   const f0 = t.frames[i0];
   const len = (t.frames[i1 - 1] - f0) / step + 1;
   const frames = new Int32Array(len);
+  const tS = new Float64Array(len);
   const x = new Float64Array(len);
   const y = new Float64Array(len);
   const marked = new Uint8Array(len);
@@ -85,46 +97,72 @@ function gridPiece(t: WorldTrack, i0: number, i1: number, label: SegmentLabel, c
     if (i + 1 < i1) {
       const gn = (t.frames[i + 1] - f0) / step;
       if (gn - g > 1) longestGap = Math.max(longestGap, (gn - g - 1) * step);
+      const ta = time.t(t.frames[i]);
+      const tb = time.t(t.frames[i + 1]);
       for (let k = g + 1; k < gn; k++) {
-        const u = (k - g) / (gn - g);
         frames[k] = f0 + k * step;
+        const u = (time.t(frames[k]) - ta) / (tb - ta);
         x[k] = t.x[i] + u * (t.x[i + 1] - t.x[i]);
         y[k] = t.y[i] + u * (t.y[i + 1] - t.y[i]);
       }
     }
   }
-  return { label, step, fsHz: captureFps / step, frames, x, y, marked, filled: len - (i1 - i0), longestGapFrames: longestGap, i0, i1 };
+  for (let k = 0; k < len; k++) tS[k] = time.t(frames[k]);
+  return { label, step, fsHz: captureFps / step, frames, tS, x, y, marked, filled: len - (i1 - i0), longestGapFrames: longestGap, i0, i1 };
 }
 
-/** d/dt like numpy.gradient with second-order edges; values in mm, h in s, result in m/s. */
-export function gradientMps(v: Float64Array, h: number): Float64Array {
+/**
+ * Weights of d/dt at sample i over samples `from`, `from + 1`, … (two or three of them), for
+ * samples at times t: numpy.gradient's second-order formulas on a coordinate array (central
+ * differences inside, one-sided at the ends), which on a uniform grid are (−½, 0, ½)/h etc.
+ */
+export function gradientWeights(t: ArrayLike<number>, i: number): { from: number; w: number[] } {
+  const n = t.length;
+  if (n === 2) {
+    const h = t[1] - t[0];
+    return { from: 0, w: [-1 / h, 1 / h] };
+  }
+  if (i === 0) {
+    const d1 = t[1] - t[0];
+    const d2 = t[2] - t[1];
+    return { from: 0, w: [-(2 * d1 + d2) / (d1 * (d1 + d2)), (d1 + d2) / (d1 * d2), -d1 / (d2 * (d1 + d2))] };
+  }
+  if (i === n - 1) {
+    const d1 = t[n - 2] - t[n - 3];
+    const d2 = t[n - 1] - t[n - 2];
+    return { from: n - 3, w: [d2 / (d1 * (d1 + d2)), -(d1 + d2) / (d1 * d2), (2 * d2 + d1) / (d2 * (d1 + d2))] };
+  }
+  const hs = t[i] - t[i - 1];
+  const hd = t[i + 1] - t[i];
+  return { from: i - 1, w: [-hd / (hs * (hs + hd)), (hd - hs) / (hs * hd), hs / (hd * (hs + hd))] };
+}
+
+/** d/dt like numpy.gradient(v, t, edge_order=2); values in mm, times in s, result in m/s. */
+export function gradientMps(v: Float64Array, tS: ArrayLike<number>): Float64Array {
   const n = v.length;
   const out = new Float64Array(n);
-  const k = 1 / (1000 * h);
   if (n === 1) {
     out[0] = NaN;
     return out;
   }
-  if (n === 2) {
-    out[0] = out[1] = (v[1] - v[0]) * k;
-    return out;
+  for (let i = 0; i < n; i++) {
+    const { from, w } = gradientWeights(tS, i);
+    let d = 0;
+    for (let k = 0; k < w.length; k++) d += w[k] * v[from + k];
+    out[i] = d / 1000;
   }
-  for (let i = 1; i < n - 1; i++) out[i] = ((v[i + 1] - v[i - 1]) / 2) * k;
-  out[0] = ((-3 * v[0] + 4 * v[1] - v[2]) / 2) * k;
-  out[n - 1] = ((3 * v[n - 1] - 4 * v[n - 2] + v[n - 3]) / 2) * k;
   return out;
 }
 
-/** Smooth a grid segment at cutoffHz (null = raw) and differentiate. */
-export function smoothSegment(seg: GridSegment, cutoffHz: number | null, captureFps: number): SmoothSegment {
+/** Smooth a grid segment at cutoffHz (null = raw) and differentiate against the samples' times. */
+export function smoothSegment(seg: GridSegment, cutoffHz: number | null): SmoothSegment {
   let sx = seg.x;
   let sy = seg.y;
   if (cutoffHz !== null && seg.x.length >= 3) {
     sx = zeroLagLowPass(seg.x, cutoffHz, seg.fsHz);
     sy = zeroLagLowPass(seg.y, cutoffHz, seg.fsHz);
   }
-  const h = seg.step / captureFps;
-  return { ...seg, sx, sy, vx: gradientMps(sx, h), vy: gradientMps(sy, h), cutoffHz };
+  return { ...seg, sx, sy, vx: gradientMps(sx, seg.tS), vy: gradientMps(sy, seg.tS), cutoffHz };
 }
 
 /** Index of `frame` on the segment's grid, or −1. */

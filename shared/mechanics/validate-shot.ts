@@ -1,6 +1,7 @@
 import { LANDMARKS, ShotDocument, type Landmark, type Mark } from "../schemas/shot-document";
 import { checkCalibration } from "./calibration";
 import { MechanicsInputError, type InputPath } from "./errors";
+import { clockTimeBase, rateTimeBase, type TimeBase } from "./time-base";
 
 // Everything that makes a document unusable is caught here, before any result is computed.
 
@@ -16,6 +17,8 @@ export interface ParsedShot {
   tracks: Partial<Record<Landmark, ImageTrack>>;
   /** Inclusive frame limits of the clip, when known. */
   clip: [number, number] | null;
+  /** When each frame was captured. */
+  time: TimeBase;
 }
 
 export const MIN_FLIGHT_MARKS = 3;
@@ -111,5 +114,33 @@ export function parseShotDocument(input: unknown): ParsedShot {
       ["tracks", "puck"],
       `puck exit speed needs at least ${MIN_FLIGHT_MARKS} puck marks from the release frame (${doc.events.release}) on; found ${flight}`,
     );
-  return { doc, tracks, clip };
+  return { doc, tracks, clip, time: timeBaseOf(doc, tracks, clip) };
+}
+
+/** The frames marks and events use, first and last. */
+function usedFrames(doc: ShotDocument, tracks: ParsedShot["tracks"]): [number, number] {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const f of Object.values(doc.events)) if (f !== undefined) [lo, hi] = [Math.min(lo, f), Math.max(hi, f)];
+  for (const t of Object.values(tracks)) if (t && t.frames.length) [lo, hi] = [Math.min(lo, t.frames[0]), Math.max(hi, t.frames[t.frames.length - 1])];
+  return [lo, hi];
+}
+
+function timeBaseOf(doc: ShotDocument, tracks: ParsedShot["tracks"], clip: [number, number] | null): TimeBase {
+  if (!doc.frameTimes) return rateTimeBase(doc.captureFps);
+  const [lo, hi] = usedFrames(doc, tracks);
+  // Series are timed from the clip's first frame, so that one needs a time too.
+  const tb = clockTimeBase(doc.frameTimes, doc.captureFps, [clip ? Math.min(lo, clip[0]) : lo, hi]);
+  // Derivatives divide by time steps: a track's frames must each have their own time.
+  for (const name of LANDMARKS) {
+    const t = tracks[name];
+    if (!t) continue;
+    for (let f = t.frames[0]; f < t.frames[t.frames.length - 1]; f++)
+      if (tb.t(f + 1) <= tb.t(f))
+        throw new MechanicsInputError(
+          ["tracks", name],
+          `frames ${f} and ${f + 1} have the same capture time (the clip repeats a frame there): ${name} cannot be smoothed across them; mark only one side`,
+        );
+  }
+  return tb;
 }

@@ -33,6 +33,26 @@ export function captureTimes(frameTimes: readonly number[], storedFps: number | 
   return frameTimes.map((t) => (t - t0) * factor);
 }
 
+/**
+ * The engine's frame clock for clip frames from..to (counted from 1): their capture times, or null
+ * when those are simply frame ÷ capture rate (an even clock, where the engine's default is exact)
+ * or unknown. Stored times are kept to 1 µs, hence the tolerance.
+ */
+export function shotFrameTimes(
+  frameTimes: readonly number[] | null | undefined,
+  storedFps: number | null,
+  captureFps: number,
+  from: number,
+  to: number,
+): { firstFrame: number; seconds: number[] } | null {
+  if (!frameTimes || from < 1 || to > frameTimes.length || to <= from) return null;
+  const seconds = captureTimes(frameTimes.slice(from - 1, to), storedFps, captureFps);
+  const scale = storedFps && storedFps > 0 ? storedFps / captureFps : 1;
+  const tolerance = 1.5e-6 * scale;
+  const even = seconds.every((t, i) => Math.abs(t - i / captureFps) <= tolerance);
+  return even ? null : { firstFrame: from, seconds };
+}
+
 const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date like 2026-03-14");
 const text = (max: number, what: string) => z.string().trim().max(max, `${what} can be at most ${max} characters`);
 

@@ -76,6 +76,25 @@ const track = z
     }
   });
 
+// A clip's frame times (capture time, seconds) can run to 100,000 frames: checked in one loop.
+const seconds = z.custom<number[]>().superRefine((v: unknown, ctx) => {
+  if (!Array.isArray(v) || v.length === 0) {
+    ctx.addIssue({ code: "custom", message: "must be a list of times in seconds, one per frame" });
+    return;
+  }
+  for (let i = 0; i < v.length; i++)
+    if (typeof v[i] !== "number" || !Number.isFinite(v[i])) {
+      ctx.addIssue({ code: "custom", path: [i], message: `a time must be a finite number of seconds (got ${String(v[i])})` });
+      return;
+    }
+});
+
+/** Each frame's capture time: seconds[k] belongs to frame firstFrame + k. */
+export const FrameTimes = z.strictObject(
+  { firstFrame: frameNumber(), seconds },
+  { error: needs("{ firstFrame, seconds: [...] }: the capture time of each frame from firstFrame on") },
+);
+
 export const LANDMARKS = ["puck", "bladeHeel", "bladeToe", "bottomHand", "topHand", "buttEnd"] as const;
 export type Landmark = (typeof LANDMARKS)[number];
 
@@ -134,6 +153,11 @@ export const ShotDocument = z.strictObject({
   tracks: Tracks,
   events: ShotEvents,
   stick: ShotStick.nullable().optional(),
+  /**
+   * The clip's own frame clock in capture time (optional). Without it frame f is at f ÷ captureFps;
+   * with it speeds and times follow each frame's real time (dropped frames, uneven clocks).
+   */
+  frameTimes: FrameTimes.optional(),
 }, { error: needs("a shot document (a JSON object)") });
 
 /** The document as sent (defaults optional). */
@@ -144,3 +168,4 @@ export type CalibrationInput = z.input<typeof Calibration>;
 export type Calibration = z.output<typeof Calibration>;
 export type ShotEvents = z.output<typeof ShotEvents>;
 export type ShotStick = z.output<typeof ShotStick>;
+export type FrameTimes = z.output<typeof FrameTimes>;

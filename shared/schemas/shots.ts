@@ -194,6 +194,8 @@ export interface ShotDocumentParts {
   frameStart: number;
   frameEnd: number;
   stick: { flex: number; benchSpanMm: number } | null;
+  /** The clip's own frame clock over the shot's frames (shotFrameTimes), null when even. */
+  frameTimes?: { firstFrame: number; seconds: number[] } | null;
 }
 
 /**
@@ -221,6 +223,7 @@ export function toShotDocument(p: ShotDocumentParts, opts: { pixelsOnly?: boolea
       events: p.events as ShotDocumentInput["events"],
       frameRange: [p.frameStart, p.frameEnd],
       stick: p.stick,
+      ...(p.frameTimes ? { frameTimes: p.frameTimes } : {}),
     },
   };
 }
@@ -297,6 +300,8 @@ export interface ShotDetail extends ShotSummary {
   storedResult: StoredResult | null;
   /** Whether the caller may edit (staff); players see the shot read-only. */
   canEdit: boolean;
+  /** The clip's frame clock over frameStart..frameEnd in capture seconds; null when it is even (frame ÷ rate). */
+  frameTimes: { firstFrame: number; seconds: number[] } | null;
 }
 
 export interface SaveMarksResponse {

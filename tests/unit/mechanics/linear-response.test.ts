@@ -30,9 +30,9 @@ describe("linear response of the smoothing", () => {
     const y = Float64Array.from(frames, (f) => Math.cos(f / 4));
     const [g] = gridSegments({ frames, x, y }, [], ["beforeStrike"], 100);
     expect(g.filled).toBe(5);
-    const s = smoothSegment(g, 20, 100);
+    const s = smoothSegment(g, 20);
     for (let i = 0; i < s.frames.length; i++) {
-      const w = stateWeights(s, i, 100);
+      const w = stateWeights(s, i);
       let p = 0;
       let v = 0;
       for (let k = 0; k < x.length; k++) {
@@ -54,8 +54,8 @@ describe("linear response of the smoothing", () => {
     const cal = scaleBarMap([0, 0], [40, 0], 76.2);
     const src = { key: "blade" as const, parts: [{ frames, x: px, y: py }], names: ["bladeHeel"] };
     const world = (nx: Float64Array, ny: Float64Array) => ({ frames, x: nx.map((v) => v * cal.mmPerPx!), y: ny.map((v) => -v * cal.mmPerPx!) });
-    const [seg] = gridSegments(world(px, py), [], ["beforeStrike"], fps).map((g) => smoothSegment(g, 40, fps));
-    const state = linearState(src, seg, n - 1, cal, sigma, fps);
+    const [seg] = gridSegments(world(px, py), [], ["beforeStrike"], fps).map((g) => smoothSegment(g, 40));
+    const state = linearState(src, seg, n - 1, cal, sigma);
 
     const normal = normalSource("brute-force");
     const viaWeights: number[] = [];
@@ -63,7 +63,7 @@ describe("linear response of the smoothing", () => {
     for (let t = 0; t < 3000; t++) {
       viaWeights.push(state.sample(cal, normal).vx);
       const [g] = gridSegments(world(px.map((v) => v + sigma * normal()), py.map((v) => v + sigma * normal())), [], ["beforeStrike"], fps);
-      const s = smoothSegment(g, 40, fps);
+      const s = smoothSegment(g, 40);
       brute.push(s.vx[n - 1]);
     }
     const sd = (a: number[]) => {

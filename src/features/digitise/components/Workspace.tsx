@@ -73,6 +73,7 @@ export function Workspace({ teamId, shot }: { teamId: string; shot: ShotDetail }
       frameStart: shot.frameStart,
       frameEnd: shot.frameEnd,
       stick: shot.stick?.flex ? { flex: shot.stick.flex, benchSpanMm: shot.stick.benchSpanMm } : null,
+      frameTimes: shot.frameTimes,
     }),
     // eslint-disable-next-line react-hooks/exhaustive-deps
     [doc],
