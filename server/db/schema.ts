@@ -4,6 +4,7 @@
 import { sql } from "drizzle-orm";
 import { bigint, boolean, date, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { organization, user } from "./auth-schema";
+import type { ClipTiming } from "../../shared/schemas/clips";
 
 export * from "./auth-schema";
 
@@ -111,6 +112,8 @@ export const clip = pgTable(
     probe: jsonb("probe"),
     /** Real presentation time of each frame in seconds, index 0 = frame 1. */
     frameTimes: jsonb("frame_times").$type<number[]>(),
+    /** The frame clock ingest found: even, snapped or uneven; gaps, repeats, missing frames. */
+    timing: jsonb("timing").$type<ClipTiming>(),
     frameFormat: text("frame_format").notNull().default("jpg"),
     sha256: text("sha256"),
     sizeBytes: bigint("size_bytes", { mode: "number" }),

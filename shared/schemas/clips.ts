@@ -19,6 +19,30 @@ export const clipStatusLabels: Record<ClipStatus, string> = {
 export const PLAYBACK_RATE_MAX_FPS = 60;
 export const MAX_CAPTURE_FPS = 1_000_000;
 
+/**
+ * A clip's frame clock as ingest found it (docs/decisions/131-clip-timing.md). Frames counted from 1.
+ * - even: every frame on a regular grid; snapped: a coarse container clock, put on that grid;
+ *   uneven: times that no grid explains, kept as they are (a phone's variable rate).
+ */
+export interface ClipTiming {
+  clock: "even" | "snapped" | "uneven";
+  /** Rate of the grid in the stored timeline (the typical rate of an uneven clock). */
+  nominalFps: number;
+  /** Resolution of the container's clock, seconds. */
+  tickS: number;
+  /** Frame `after` is followed by about `missing` missing frames. At most 200 listed. */
+  gaps: { after: number; missing: number }[];
+  gapCount: number;
+  /** Frames at the same instant as the frame before. At most 200 listed. */
+  repeats: number[];
+  repeatCount: number;
+  /** Frames the file's header promises that could not be decoded (a cut or damaged file). */
+  missingTail: { from: number; to: number } | null;
+}
+
+/** True when the clip has real gaps, repeats or missing frames. */
+export const timingIrregular = (t: ClipTiming | null | undefined): boolean => !!t && (t.gapCount > 0 || t.repeatCount > 0 || t.missingTail !== null);
+
 /** True when the person must confirm the capture rate before speeds mean anything. */
 export const needsCaptureRateConfirmation = (c: { storedFps: number | null; captureFpsConfirmed: boolean }) =>
   !c.captureFpsConfirmed && (c.storedFps === null || c.storedFps <= PLAYBACK_RATE_MAX_FPS);
