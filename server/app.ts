@@ -20,7 +20,7 @@ export function createApp() {
   const e = env();
   const app = express();
   app.disable("x-powered-by");
-  app.set("trust proxy", "loopback");
+  app.set("trust proxy", e.TRUST_PROXY);
   app.use(requestLog);
   app.use(
     helmet({

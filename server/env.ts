@@ -11,6 +11,9 @@ const EnvSchema = z.object({
   HOST: z.string().default("127.0.0.1"),
   PORT: z.coerce.number().int().min(1).max(65535).default(3000),
   PUBLIC_URL: z.string().url().default("http://127.0.0.1:3000"),
+  /** Which proxies' X-Forwarded-For to believe (Express "trust proxy": names such as loopback,
+   * uniquelocal, or addresses/subnets, comma-separated). */
+  TRUST_PROXY: z.string().regex(/^[\w.:/, ]+$/, "TRUST_PROXY: names (loopback, uniquelocal) or addresses, comma-separated").default("loopback"),
   DATABASE_URL: z.string().url({ message: "DATABASE_URL must be a postgres:// URL" }),
   AUTH_SECRET: z.string().min(32, "AUTH_SECRET must be at least 32 characters"),
   SMTP_HOST: z.string().default("127.0.0.1"),
@@ -32,6 +35,8 @@ const EnvSchema = z.object({
   MAX_PIXELS: z.coerce.number().int().positive().default(3840 * 2160),
   TEAM_QUOTA_BYTES: z.coerce.number().int().positive().default(200 * 1024 ** 3),
   EMBEDDED_WORKER: bool.default(true),
+  /** Web processes sharing PORT (node:cluster); 1 = this process serves requests itself. */
+  WEB_PROCESSES: z.coerce.number().int().min(1).max(64).default(1),
   RATE_LIMIT: bool.default(true),
   LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).default("info"),
 });

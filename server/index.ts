@@ -1,3 +1,4 @@
+import cluster from "node:cluster";
 import { createServer } from "node:http";
 import { env } from "./env";
 import { log } from "./log";
@@ -7,6 +8,7 @@ import { db } from "./db/client";
 import { startDraining } from "./health/draining";
 import { onShutdown } from "./shutdown";
 import { closeUploads } from "./clips/uploads";
+import { superviseWebProcesses } from "./web-processes";
 
 async function main() {
   let e;
@@ -16,6 +18,7 @@ async function main() {
     console.error((err as Error).message);
     process.exit(2);
   }
+  if (e.WEB_PROCESSES > 1 && cluster.isPrimary) return superviseWebProcesses(e.WEB_PROCESSES, e.EMBEDDED_WORKER);
   const server = createServer(createApp());
   server.requestTimeout = 0; // large resumable uploads; each chunk is bounded by tus itself
   server.headersTimeout = 60_000;
