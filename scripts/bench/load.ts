@@ -96,6 +96,7 @@ try {
   if (signIn.status !== 200) throw new Error(`sign-in failed: ${signIn.status}`);
   const cookie = signIn.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
   const team = `${base}/api/teams/${ids.teamId}`;
+  const coach = { userId: ids.users["coach@ravens.example"], teamId: ids.teamId, role: "coach" as const };
 
   // --- 1. concurrent uploads -----------------------------------------------------------------
   step(`${UPLOADS} concurrent resumable uploads of different clips`);
@@ -171,12 +172,12 @@ try {
     {
       name: "results list as the Shots page opens it (the team's newest 50)", rate: 20, seconds: 5,
       http: () => `${team}/readout/shots?page=1&pageSize=50`,
-      raw: () => readoutRepo.listShots(ids.teamId, {}, {}, { limit: 50, offset: 0 }),
+      raw: () => readoutRepo.listShots(coach, {}, { limit: 50, offset: 0 }),
     },
     {
       name: `one player's results list, any page of 50 (${Math.round(seeded.shots / seeded.players.length)} shots)`, rate: 20, seconds: 5,
       http: (i) => `${team}/readout/shots?playerId=${encodeURIComponent(player)}&page=${(i % 20) + 1}&pageSize=50`,
-      raw: (i) => readoutRepo.listShots(ids.teamId, { playerId: player }, {}, { limit: 50, offset: (i % 20) * 50 }),
+      raw: (i) => readoutRepo.listShots(coach, { playerId: player }, { limit: 50, offset: (i % 20) * 50 }),
     },
   ];
   /** CPU time the web process has used, from /proc (Linux); -1 where there is none. */

@@ -1,13 +1,11 @@
 import type { NextFunction, Request, Response } from "express";
 import { fromNodeHeaders } from "better-auth/node";
-import { and, eq, sql } from "drizzle-orm";
 import { auth } from "./auth";
-import { db } from "../db/client";
-import { member } from "../db/schema";
-import { prepared } from "../db/prepared";
 import { HttpError, notFound, unauthenticated } from "../http/problem";
-import { RoleSchema } from "../../shared/schemas/roster";
+import { roleIn } from "../entities/member/repository";
 import type { Actor } from "./policy";
+
+export { roleIn };
 
 export interface SignedIn {
   user: { id: string; name: string; email: string };
@@ -41,18 +39,6 @@ export async function requireUser(req: Request, _res: Response, next: NextFuncti
   next();
 }
 
-// Asked on every team request (docs/decisions/106-hot-path-queries.md).
-const roleQuery = prepared("role_in", (name) =>
-  db().select({ role: member.role }).from(member).where(and(eq(member.userId, sql.placeholder("userId")), eq(member.organizationId, sql.placeholder("teamId")))).prepare(name),
-);
-
-/** Role of a user in a team, or null when not a member (callers answer 404: nothing leaks). */
-export async function roleIn(userId: string, teamId: string) {
-  const [row] = await roleQuery().execute({ userId, teamId });
-  if (!row) return null;
-  const parsed = RoleSchema.safeParse(row.role.split(",")[0]?.trim());
-  return parsed.success ? parsed.data : null;
-}
 
 /** For routers mounted at /api/teams/:teamId — sets req.actor or answers 401/404. */
 export async function requireTeamMember(req: Request, _res: Response, next: NextFunction) {

@@ -1,25 +1,14 @@
-import type { Role } from "../../shared/schemas/roster";
+import { isStaff, type Actor } from "../entities/member/role";
+import { canSeeShot, type ShotAccess } from "../entities/shot/visibility";
 
 // The one authorization policy. Pure functions over (actor, resource): no I/O, so every route
 // asks the same question the same way and the whole table is unit-tested without a server.
 // A team admin can do everything a coach can (VOCABULARY.md: admin manages the team itself).
 
-export interface Actor {
-  userId: string;
-  teamId: string;
-  role: Role;
-}
+export { isStaff, type Actor };
 
 /** What a shot-like resource exposes to the policy. */
-export interface OwnedResource {
-  teamId: string;
-  playerId: string | null;
-  /** Users the shot was explicitly shared with. */
-  sharedWith?: readonly string[];
-}
-
-const STAFF: readonly Role[] = ["admin", "coach", "analyst"];
-export const isStaff = (a: Actor) => STAFF.includes(a.role);
+export type OwnedResource = ShotAccess;
 const sameTeam = (a: Actor, r: { teamId: string }) => a.teamId === r.teamId;
 
 export const policy = {
@@ -34,7 +23,8 @@ export const policy = {
   editClip: (a: Actor, c: { teamId: string }) => sameTeam(a, c) && isStaff(a),
   deleteClip: (a: Actor, c: { teamId: string }) => sameTeam(a, c) && (a.role === "admin" || a.role === "coach" || a.role === "analyst"),
 
-  viewShot: (a: Actor, s: OwnedResource) => sameTeam(a, s) && (isStaff(a) || s.playerId === a.userId || (s.sharedWith ?? []).includes(a.userId)),
+  /** The shot entity's one visibility rule (server/entities/shot/visibility.ts). */
+  viewShot: (a: Actor, s: ShotAccess) => canSeeShot(a, s),
   editShot: (a: Actor, s: { teamId: string }) => sameTeam(a, s) && isStaff(a),
   shareShot: (a: Actor, s: { teamId: string }) => sameTeam(a, s) && (a.role === "admin" || a.role === "coach"),
   /** A player compares own shots; staff compare any two in the team. */

@@ -11,6 +11,7 @@ import { clipKeys, displayFileName, sha256File } from "../storage";
 import { PLAYBACK_RATE_MAX_FPS, type ClipMeta } from "../../shared/schemas/clips";
 import { sendExtract } from "../jobs/clip-queue";
 import { mediaConfig, storage } from "./deps";
+import * as memberRepo from "../entities/member/repository";
 import * as repo from "./repository";
 
 /** A problem with extra members in its body (e.g. the existing clip of a duplicate). */
@@ -24,7 +25,7 @@ const fieldProblem = (path: string, message: string) => new HttpError(422, "vali
 
 /** The form's references must be of this team; checked before any byte arrives and again at the end. */
 export async function checkMetaRefs(teamId: string, m: Pick<ClipMeta, "playerId" | "sessionId" | "stickId">) {
-  if (!(await repo.isPlayerOf(teamId, m.playerId))) throw fieldProblem("playerId", "Pick a player of this team");
+  if (!(await memberRepo.isPlayerOf(teamId, m.playerId))) throw fieldProblem("playerId", "Pick a player of this team");
   if (m.sessionId && !(await repo.sessionInTeam(teamId, m.sessionId))) throw fieldProblem("sessionId", "That session is not in this team");
   if (m.stickId && !(await repo.stickInTeam(teamId, m.stickId))) throw fieldProblem("stickId", "That stick is not in this team");
 }

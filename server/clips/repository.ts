@@ -3,7 +3,7 @@ import { and, asc, desc, eq, getTableColumns, inArray, isNotNull, lt, sql, type 
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
 import { preparedBy } from "../db/prepared";
-import { clip, member, shot, shotShare, stick, teamSettings, trainingSession, user } from "../db/schema";
+import { clip, shot, shotShare, stick, teamSettings, trainingSession, user } from "../db/schema";
 import type { ClipSort, ShotType } from "../../shared/schemas/clips";
 
 export type ClipRow = typeof clip.$inferSelect;
@@ -129,19 +129,6 @@ export async function teamQuotaBytes(teamId: string): Promise<number | null> {
   return row?.q ?? null;
 }
 
-const firstRole = (r: string) => r.split(",")[0]?.trim();
-
-/** Players of the team (the people whose shots a clip can hold). */
-export async function playersOf(teamId: string) {
-  const rows = await db().select({ id: user.id, name: user.name, role: member.role }).from(member)
-    .innerJoin(user, eq(user.id, member.userId)).where(eq(member.organizationId, teamId)).orderBy(user.name);
-  return rows.filter((r) => firstRole(r.role) === "player").map(({ id, name }) => ({ id, name }));
-}
-
-export async function isPlayerOf(teamId: string, userId: string) {
-  const [row] = await db().select({ role: member.role }).from(member).where(and(eq(member.organizationId, teamId), eq(member.userId, userId)));
-  return !!row && firstRole(row.role) === "player";
-}
 
 export async function sessionsOf(teamId: string) {
   return db().select({ id: trainingSession.id, date: trainingSession.date, venue: trainingSession.venue, drill: trainingSession.drill })

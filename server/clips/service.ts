@@ -10,6 +10,7 @@ import type { z } from "zod";
 import { storage } from "./deps";
 import { checkMetaRefs } from "./ingest";
 import { toDetail, toProgress, toSummary } from "./present";
+import * as memberRepo from "../entities/member/repository";
 import * as repo from "./repository";
 
 const clipNotFound = () => notFound("That clip");
@@ -33,7 +34,7 @@ async function editableClip(a: Actor, id: string, allowed: (a: Actor, c: { teamI
 
 export async function options(a: Actor): Promise<ClipOptions> {
   if (!policy.uploadClip(a)) throw forbidden("Your role in this team does not allow uploading clips.");
-  const [sessions, players, sticks] = await Promise.all([repo.sessionsOf(a.teamId), repo.playersOf(a.teamId), repo.sticksOf(a.teamId)]);
+  const [sessions, players, sticks] = await Promise.all([repo.sessionsOf(a.teamId), memberRepo.playersOf(a.teamId), repo.sticksOf(a.teamId)]);
   return { sessions, players, sticks };
 }
 

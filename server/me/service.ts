@@ -1,12 +1,16 @@
 import { auth } from "../auth/auth";
 import type { SignedIn } from "../auth/context";
 import { HttpError, notFound } from "../http/problem";
-import { RoleSchema, type MeResponse, type Prefs } from "../../shared/schemas/roster";
+import { parseRole, type MeResponse, type Prefs } from "../../shared/schemas/roster";
 import { getPrefs, savePrefs, teamsOf } from "./repository";
 
 export async function me(s: SignedIn): Promise<MeResponse> {
   const rows = await teamsOf(s.user.id);
-  const teams = rows.map((t) => ({ ...t, role: RoleSchema.catch("player").parse(t.role.split(",")[0]) }));
+  // A team whose stored role is unknown opens nothing (roleIn), so it is not offered either.
+  const teams = rows.flatMap((t) => {
+    const role = parseRole(t.role);
+    return role ? [{ ...t, role }] : [];
+  });
   const active = teams.find((t) => t.id === s.activeTeamId)?.id ?? teams[0]?.id ?? null;
   return { user: s.user, prefs: await getPrefs(s.user.id), teams, activeTeamId: active };
 }

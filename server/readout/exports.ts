@@ -9,6 +9,7 @@ import { marksCsv, resultsCsv } from "./csv";
 import { eventThumbs, renderShotReport } from "./pdf/render";
 import * as repo from "./repository";
 import { getReadout, resultsOrThrow, visibleShot } from "./service";
+import { shotDate } from "../entities/shot/date";
 
 export interface FileAnswer {
   filename: string;
@@ -35,7 +36,7 @@ export function fileStem(title: string, shotId: string): string {
 export async function marksExport(a: Actor, shotId: string, asked?: UnitSystem): Promise<FileAnswer> {
   const { row } = await visibleShot(a, shotId, "That shot", { marks: "always" });
   const units = await unitsFor(a, asked);
-  const title = shotTitle({ label: row.label, shotType: row.shotType, date: row.sessionDate ?? row.clipCreatedAt.toISOString().slice(0, 10), playerName: row.playerName });
+  const title = shotTitle({ label: row.label, shotType: row.shotType, date: shotDate(row), playerName: row.playerName });
   return {
     filename: `${fileStem(title, shotId)}-marks.csv`,
     contentType: "text/csv; charset=utf-8",

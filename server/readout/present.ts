@@ -2,11 +2,10 @@
 import { EVENTS, toShotDocument, type ShotStickInfo } from "../../shared/schemas/shots";
 import { frameTimeMs, type ReadoutEvent, type ShareRow, type ShotListItem, type ShotReadout, type ShotType } from "../../shared/schemas/readout";
 import type { ListRow, ReadoutRow } from "./repository";
+import { shotDate } from "../entities/shot/date";
 
 type Common = Pick<ReadoutRow, "sessionDate" | "clipCreatedAt" | "resultShotVersion" | "resultError" | "calibration" | "events" | "frameStart" | "frameEnd" | "frameCount" | "captureFps">;
 
-/** The session's date, else the day the clip was uploaded. */
-export const dateOf = (r: Pick<Common, "sessionDate" | "clipCreatedAt">) => r.sessionDate ?? r.clipCreatedAt.toISOString().slice(0, 10);
 
 /**
  * What is still needed before there are results, said as the next step. The stored engine message
@@ -42,7 +41,7 @@ export function listItem(r: ListRow, opts: { viewerId: string; sharedWithViewer:
   const s = r.summary;
   return {
     id: r.id, label: r.label, clipId: r.clipId, clipTitle: r.clipTitle, playerId: r.playerId, playerName: r.playerName,
-    stickId: r.stickId, stickLabel: r.stickLabel, shotType: r.shotType as ShotType, date: dateOf(r), sessionId: r.sessionId, venue: r.venue || null,
+    stickId: r.stickId, stickLabel: r.stickLabel, shotType: r.shotType as ShotType, date: shotDate(r), sessionId: r.sessionId, venue: r.venue || null,
     captureFps: r.captureFps, hasResults: !!s, missing: missingOf(r, !!s),
     puckExitSpeedMps: s?.puckExitSpeed.valueMps ?? null,
     bladeSpeedMps: s?.bladeSpeedAtStrike?.valueMps ?? null,
@@ -59,7 +58,7 @@ export function readout(r: ReadoutRow, o: { shares: ShareRow[]; stick: ShotStick
   return {
     shot: {
       id: r.id, label: r.label, clipId: r.clipId, playerId: r.playerId, playerName: r.playerName, stickId: r.stickId, stickLabel: r.stickLabel,
-      shotType: r.shotType as ShotType, cameraView: r.cameraView, date: dateOf(r), venue: r.venue || null,
+      shotType: r.shotType as ShotType, cameraView: r.cameraView, date: shotDate(r), venue: r.venue || null,
       frameStart: r.frameStart, frameEnd: r.frameEnd ?? r.frameCount ?? r.frameStart, version: r.version, updatedAt: r.updatedAt.toISOString(),
     },
     clip: {

@@ -1,9 +1,12 @@
-import { and, asc, desc, eq, inArray, isNotNull, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNotNull, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
 import { prepared, preparedBy } from "../db/prepared";
 import { auditLog, clip, member, organization, shot, shotResult, shotShare, stick, trainingSession, user } from "../db/schema";
 import { latestBenchTest } from "../shots/repository";
+import type { Actor } from "../entities/member/role";
+import { newestShotFirst } from "../entities/shot/date";
+import { shotVisibleWhere } from "../entities/shot/visibility";
 import { ShotResults } from "../../shared/schemas/shot-results";
 import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../shared/schemas/shots";
 import type { ShotListQuery } from "../../shared/schemas/readout";
@@ -82,31 +85,23 @@ export async function shotById(teamId: string, shotId: string, o: { marks?: "alw
 }
 export type ReadoutRow = NonNullable<Awaited<ReturnType<typeof shotById>>>;
 
-export interface ListScope {
-  /** Staff see the team; a player sees own shots and those shared with them. */
-  onlyVisibleTo?: string;
-}
-
-function listWhere(teamId: string, f: ShotListQuery, scope: ListScope) {
-  const where: SQL[] = [eq(shot.teamId, teamId)];
+/** The shots of the actor's team that the actor may see (entities/shot/visibility.ts), filtered. */
+function listWhere(a: Actor, f: ShotListQuery) {
+  const where: SQL[] = [shotVisibleWhere(a)];
   if (f.playerId) where.push(eq(shot.playerId, f.playerId));
   if (f.stickId) where.push(eq(shot.stickId, f.stickId));
   if (f.shotType) where.push(eq(clip.shotType, f.shotType));
-  if (scope.onlyVisibleTo) {
-    const mine = db().select({ id: shotShare.shotId }).from(shotShare).where(and(eq(shotShare.userId, scope.onlyVisibleTo), eq(shotShare.teamId, teamId)));
-    where.push(or(eq(shot.playerId, scope.onlyVisibleTo), inArray(shot.id, mine))!);
-  }
   return and(...where);
 }
 
-const newestFirst = [desc(sql`coalesce(${trainingSession.date}::timestamptz, ${clip.createdAt})`), desc(shot.createdAt), asc(shot.id)];
+const newestFirst = newestShotFirst;
 
 /**
  * Shots of the team, newest first, with the results summary but without time series or marks
  * (small rows); one page when `page` is given, else all (a player's progress needs every shot).
  */
-export async function listShots(teamId: string, f: ShotListQuery, scope: ListScope, page?: { limit: number; offset: number }) {
-  let where = listWhere(teamId, f, scope);
+export async function listShots(a: Actor, f: ShotListQuery, page?: { limit: number; offset: number }) {
+  let where = listWhere(a, f);
   if (page) {
     // The page's ids first, sorting keys only: sorting whole rows (summaries included) of a team
     // of 50,000 shots to keep 50 of them cost ~75 ms (scripts/bench/load.ts).
@@ -119,16 +114,16 @@ export async function listShots(teamId: string, f: ShotListQuery, scope: ListSco
 }
 
 /** How many shots the same filters find, for the pager. */
-export async function countShots(teamId: string, f: ShotListQuery, scope: ListScope) {
+export async function countShots(a: Actor, f: ShotListQuery) {
   const q = db().select({ n: sql<number>`count(*)::int` }).from(shot);
   // Only the shot-type filter needs the clip.
-  const [{ n }] = await (f.shotType ? q.innerJoin(clip, eq(clip.id, shot.clipId)) : q).where(listWhere(teamId, f, scope));
+  const [{ n }] = await (f.shotType ? q.innerJoin(clip, eq(clip.id, shot.clipId)) : q).where(listWhere(a, f));
   return n;
 }
 
 /** The players and sticks among the shots one may see, for the list's filters. */
-export async function listFilterChoices(teamId: string, scope: ListScope) {
-  const where = listWhere(teamId, {}, scope);
+export async function listFilterChoices(a: Actor) {
+  const where = listWhere(a, {});
   const [players, sticks] = await Promise.all([
     // Distinct ids from the (team, player) and (team, stick) indexes first, names after: a join
     // before "distinct" would read every shot row of the team.
@@ -179,16 +174,6 @@ export async function removeShare(teamId: string, shotId: string, userId: string
   return rows.length > 0;
 }
 
-/** Members of the team with their first role and contact, by name. */
-export async function teamMembers(teamId: string) {
-  const rows = await db()
-    .select({ userId: member.userId, name: user.name, email: user.email, role: member.role })
-    .from(member)
-    .innerJoin(user, eq(user.id, member.userId))
-    .where(eq(member.organizationId, teamId))
-    .orderBy(asc(user.name));
-  return rows.map((r) => ({ ...r, role: r.role.split(",")[0]!.trim() }));
-}
 
 /** Shots per player in the team (any result state). */
 export async function shotCountsByPlayer(teamId: string) {

@@ -1,14 +1,17 @@
 // The readout's rules: who sees which shot, compare, progress and sharing. Every answer about a
 // shot the actor may not see is the same 404 as for a shot that does not exist: nothing leaks.
 import { isStaff, policy, type Actor } from "../auth/policy";
+import { roleForList } from "../entities/member/role";
 import { forbidden, HttpError } from "../http/problem";
 import { stickFlex } from "../shots/results";
 import type { z } from "zod";
 import type {
   CompareResponse, PlayersResponse, ProgressQuery, ProgressResponse, ShareRow, ShotListPageQuery, ShotListResponse, ShotReadout, ShotType,
 } from "../../shared/schemas/readout";
-import { listItem, readout, dateOf } from "./present";
+import { listItem, readout } from "./present";
+import { shotDate } from "../entities/shot/date";
 import { progressPoints, summarise } from "./progress";
+import * as memberRepo from "../entities/member/repository";
 import * as repo from "./repository";
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
@@ -19,7 +22,7 @@ const shotNotFound = (which = "That shot") =>
 const invalid = (path: string, message: string) => new HttpError(422, "validation_failed", `${path}: ${message}`, [{ path, message }]);
 
 function shareRows(rows: Awaited<ReturnType<typeof repo.sharesOf>>): ShareRow[] {
-  return rows.map((r) => ({ userId: r.userId, name: r.name, role: r.role?.split(",")[0] ?? "former member", sharedAt: r.sharedAt.toISOString(), sharedByName: r.sharedByName }));
+  return rows.map((r) => ({ userId: r.userId, name: r.name, role: r.role === null ? "former member" : roleForList(r.role), sharedAt: r.sharedAt.toISOString(), sharedByName: r.sharedByName }));
 }
 
 /** A shot the actor may see with its shares, else 404 (410 for staff when the audit log says it was deleted). */
@@ -55,12 +58,11 @@ export async function getReadout(a: Actor, shotId: string): Promise<ShotReadout>
 
 export async function listShots(a: Actor, q: z.output<typeof ShotListPageQuery>): Promise<ShotListResponse> {
   const staff = isStaff(a);
-  const scope = staff ? {} : { onlyVisibleTo: a.userId };
   const filters = { playerId: q.playerId, stickId: q.stickId, shotType: q.shotType };
   const [rows, total, choices] = await Promise.all([
-    repo.listShots(a.teamId, filters, scope, { limit: q.pageSize, offset: (q.page - 1) * q.pageSize }),
-    repo.countShots(a.teamId, filters, scope),
-    repo.listFilterChoices(a.teamId, scope),
+    repo.listShots(a, filters, { limit: q.pageSize, offset: (q.page - 1) * q.pageSize }),
+    repo.countShots(a, filters),
+    repo.listFilterChoices(a),
   ]);
   const shares = await repo.sharesOf(a.teamId, rows.map((r) => r.id));
   const by = new Map<string, string[]>();
@@ -88,7 +90,7 @@ export async function compare(a: Actor, ids: { a: string; b: string }): Promise<
 }
 
 export async function players(a: Actor): Promise<PlayersResponse> {
-  const [members, counts] = await Promise.all([repo.teamMembers(a.teamId), repo.shotCountsByPlayer(a.teamId)]);
+  const [members, counts] = await Promise.all([memberRepo.teamMembers(a.teamId), repo.shotCountsByPlayer(a.teamId)]);
   const listed = members.filter((m) => (isStaff(a) ? m.role === "player" || counts.has(m.userId) : m.userId === a.userId));
   return { players: listed.map((m) => ({ id: m.userId, name: m.name, shots: counts.get(m.userId) ?? 0 })) };
 }
@@ -96,9 +98,9 @@ export async function players(a: Actor): Promise<PlayersResponse> {
 export async function progress(a: Actor, q: ProgressQuery): Promise<ProgressResponse> {
   const playerId = q.playerId ?? a.userId;
   if (!policy.viewProgress(a, playerId)) throw forbidden("Players see their own progress only.");
-  const who = (await repo.teamMembers(a.teamId)).find((m) => m.userId === playerId);
+  const who = (await memberRepo.teamMembers(a.teamId)).find((m) => m.userId === playerId);
   if (!who) throw new HttpError(404, "not_found", "That player is not a member of this team.");
-  const all = await repo.listShots(a.teamId, { playerId }, {});
+  const all = await repo.listShots(a, { playerId });
   const sticks = new Map<string, string>();
   const types = new Set<ShotType>();
   for (const r of all) {
@@ -108,7 +110,7 @@ export async function progress(a: Actor, q: ProgressQuery): Promise<ProgressResp
   const rows = all.filter((r) => (!q.stickId || r.stickId === q.stickId) && (!q.shotType || r.shotType === q.shotType));
   const points = progressPoints(
     rows.map((r) => ({
-      shotId: r.id, label: r.label, date: dateOf(r), sessionId: r.sessionId, venue: r.venue || null, stickId: r.stickId, stickLabel: r.stickLabel,
+      shotId: r.id, label: r.label, date: shotDate(r), sessionId: r.sessionId, venue: r.venue || null, stickId: r.stickId, stickLabel: r.stickLabel,
       shotType: r.shotType as ShotType, results: r.summary,
     })),
   );

@@ -10,14 +10,15 @@ import { shotSharedMail } from "../mail/readout-templates";
 import { getPrefs } from "../me/repository";
 import { METRICS, formatWithU, readoutPath, shotTitle, type ShareResponse, type ShareShotBody } from "../../shared/schemas/readout";
 import type { ShotResults } from "../../shared/schemas/shot-results";
-import { dateOf } from "./present";
+import { shotDate } from "../entities/shot/date";
+import * as memberRepo from "../entities/member/repository";
 import * as repo from "./repository";
 import { invalid, visibleShot } from "./service";
 
 export async function shareShot(a: Actor, shotId: string, body: { player: boolean; staff: boolean } & ShareShotBody): Promise<ShareResponse> {
   const { row } = await visibleShot(a, shotId);
   if (!policy.shareShot(a, row)) throw forbidden("Only a coach or a team admin shares shots.");
-  const members = await repo.teamMembers(a.teamId);
+  const members = await memberRepo.teamMembers(a.teamId);
   const targets = new Map<string, (typeof members)[number]>();
   if (body.player) {
     if (!row.playerId) throw invalid("player", "this shot has no player yet: set its player on the Digitise page, or share it with the team's staff only");
@@ -29,7 +30,7 @@ export async function shareShot(a: Actor, shotId: string, body: { player: boolea
   if (!targets.size) throw invalid(body.staff ? "staff" : "player", "there is nobody else to share this shot with");
 
   const added = new Set(await repo.addShares({ teamId: a.teamId, shotId, userIds: [...targets.keys()], sharedBy: a.userId }));
-  const title = shotTitle({ label: row.label, shotType: row.shotType, date: dateOf(row), playerName: row.playerName });
+  const title = shotTitle({ label: row.label, shotType: row.shotType, date: shotDate(row), playerName: row.playerName });
   await recordAudit({
     teamId: a.teamId, actorId: a.userId, action: "shot.shared", targetType: "shot", targetId: shotId,
     detail: { title, with: [...targets.keys()], added: [...added] },
@@ -82,6 +83,6 @@ export async function unshareShot(a: Actor, shotId: string, userId: string): Pro
   if (!policy.shareShot(a, row)) throw forbidden("Only a coach or a team admin changes who a shot is shared with.");
   const gone = shares.find((s) => s.userId === userId);
   if (!gone || !(await repo.removeShare(a.teamId, shotId, userId))) throw new HttpError(404, "not_found", "This shot is not shared with that person.");
-  const title = shotTitle({ label: row.label, shotType: row.shotType, date: dateOf(row), playerName: row.playerName });
+  const title = shotTitle({ label: row.label, shotType: row.shotType, date: shotDate(row), playerName: row.playerName });
   await recordAudit({ teamId: a.teamId, actorId: a.userId, action: "shot.unshared", targetType: "shot", targetId: shotId, detail: { title, userId, name: gone.name } });
 }

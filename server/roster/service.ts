@@ -4,10 +4,11 @@ import { policy, type Actor } from "../auth/policy";
 import { recordAudit } from "../audit/repository";
 import { mergeSetCookies, viaAuth } from "../http/better-auth-errors";
 import { forbidden, HttpError, notFound } from "../http/problem";
-import { RoleSchema, type InvitationPublic, type Role, type RosterResponse } from "../../shared/schemas/roster";
+import { type InvitationPublic, type Role, type RosterResponse } from "../../shared/schemas/roster";
+import { roleForList } from "../entities/member/role";
 import * as repo from "./repository";
 
-const asRole = (r: string | null) => RoleSchema.catch("player").parse((r ?? "").split(",")[0]);
+const asRole = roleForList;
 
 function requireAdmin(a: Actor) {
   if (!policy.manageRoster(a)) throw forbidden("Only a team admin can manage the roster.");

@@ -1,7 +1,7 @@
 import { and, asc, eq, getTableName, inArray, sql, type Column } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
-import { benchTest, clip, member, shot, shotResult, shotShare, stick, user } from "../db/schema";
+import { benchTest, clip, shot, shotResult, shotShare, stick, user } from "../db/schema";
 import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../shared/schemas/shots";
 
 // Drizzle only: every query names the team, so a row of another team is simply not found.
@@ -69,10 +69,6 @@ export async function sharesOf(shotIds: string[]) {
   return out;
 }
 
-export async function isMember(teamId: string, userId: string) {
-  const [row] = await db().select({ id: member.id }).from(member).where(and(eq(member.organizationId, teamId), eq(member.userId, userId)));
-  return !!row;
-}
 
 export async function stickInTeam(teamId: string, stickId: string) {
   const [row] = await db().select({ id: stick.id }).from(stick).where(and(eq(stick.id, stickId), eq(stick.teamId, teamId)));

@@ -8,6 +8,7 @@ import {
   type ClipCalibration, type ClipShots, type CreateShotBody, type DigitiseClip, type FrameBox, type SaveMarksBody, type SaveMarksResponse, type ShotDetail, type ShotSummary, type UpdateShotBody,
 } from "../../shared/schemas/shots";
 import { VersionConflictError } from "./conflict";
+import * as memberRepo from "../entities/member/repository";
 import * as repo from "./repository";
 import { recomputeShot, recomputeShotsOfClip, stickFlex, toStoredResult } from "./results";
 
@@ -94,7 +95,7 @@ export async function listShots(a: Actor, clipId: string): Promise<ClipShots> {
 }
 
 async function checkPeople(a: Actor, playerId: string | null | undefined, stickId: string | null | undefined) {
-  if (playerId && !(await repo.isMember(a.teamId, playerId))) throw invalid("playerId", "that player is not a member of this team");
+  if (playerId && !(await memberRepo.isMember(a.teamId, playerId))) throw invalid("playerId", "that player is not a member of this team");
   if (stickId && !(await repo.stickInTeam(a.teamId, stickId))) throw invalid("stickId", "that stick is not one of this team's sticks");
 }
 

@@ -1,8 +1,11 @@
 // Stick lab rows: sticks, bench tests, the team's alert level, and the shots taken with a stick.
 // Drizzle only; the rules live in service.ts. Every query names the team.
-import { and, asc, desc, eq, inArray, isNotNull, sql } from "drizzle-orm";
+import { and, asc, eq, inArray, isNotNull, sql } from "drizzle-orm";
 import { db } from "../db/client";
-import { benchTest, clip, member, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../db/schema";
+import { benchTest, clip, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../db/schema";
+import type { Actor } from "../entities/member/role";
+import { newestShotFirst, shotDateSql } from "../entities/shot/date";
+import { shotVisibleWhere } from "../entities/shot/visibility";
 
 export type StickRecord = typeof stick.$inferSelect;
 export type BenchTestRecord = typeof benchTest.$inferSelect;
@@ -86,19 +89,8 @@ export async function setFlexAlertPercent(teamId: string, flexAlertPercent: numb
     .onConflictDoUpdate({ target: teamSettings.teamId, set: { flexAlertPercent } });
 }
 
-/** Members of the team whose role is player. */
-export async function playersOf(teamId: string) {
-  const rows = await db()
-    .select({ id: user.id, name: user.name, role: member.role })
-    .from(member)
-    .innerJoin(user, eq(user.id, member.userId))
-    .where(eq(member.organizationId, teamId))
-    .orderBy(asc(user.name));
-  return rows.filter((r) => r.role.split(",")[0]?.trim() === "player").map(({ id, name }) => ({ id, name }));
-}
 
-// A shot's day: its session's date when the clip has one, else the day the shot was made.
-const shotDay = sql<string>`coalesce(${trainingSession.date}, (${shot.createdAt} at time zone 'UTC')::date)::text`;
+const shotDay = shotDateSql;
 
 /** Shots taken with each stick, for the list's counts. */
 export async function shotCountsOf(teamId: string, stickIds: readonly string[]) {
@@ -111,22 +103,20 @@ export async function shotCountsOf(teamId: string, stickIds: readonly string[]) 
   return new Map(rows.map((r) => [r.stickId!, r.n]));
 }
 
-export async function shotsByDateOf(teamId: string, stickId: string) {
+/** Shots with this stick per day, of those the actor may see. */
+export async function shotsByDateOf(a: Actor, stickId: string) {
   return db()
     .select({ date: shotDay, count: sql<number>`count(*)::int` })
     .from(shot)
     .innerJoin(clip, eq(clip.id, shot.clipId))
     .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
-    .where(and(eq(shot.teamId, teamId), eq(shot.stickId, stickId)))
+    .where(and(shotVisibleWhere(a), eq(shot.stickId, stickId)))
     .groupBy(shotDay)
     .orderBy(shotDay);
 }
 
-/** Shots with this stick, newest first; `visibleTo` limits them to a player's own and shared ones. */
-export async function shotsWithStick(teamId: string, stickId: string, visibleTo?: string, limit = 50) {
-  const shared = visibleTo
-    ? sql`(${shot.playerId} = ${visibleTo} or exists (select 1 from ${shotShare} where ${shotShare.shotId} = ${shot.id} and ${shotShare.userId} = ${visibleTo}))`
-    : sql`true`;
+/** Shots with this stick that the actor may see, newest first. */
+export async function shotsWithStick(a: Actor, stickId: string, limit = 50) {
   return db()
     .select({
       id: shot.id,
@@ -141,8 +131,8 @@ export async function shotsWithStick(teamId: string, stickId: string, visibleTo?
     .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
     .leftJoin(user, eq(user.id, shot.playerId))
     .leftJoin(shotResult, eq(shotResult.shotId, shot.id))
-    .where(and(eq(shot.teamId, teamId), eq(shot.stickId, stickId), shared))
-    .orderBy(desc(shot.createdAt))
+    .where(and(shotVisibleWhere(a), eq(shot.stickId, stickId)))
+    .orderBy(...newestShotFirst)
     .limit(limit);
 }
 

@@ -14,6 +14,7 @@ import {
 } from "../../shared/schemas/sticks";
 import { StickCreateSchema } from "../../shared/schemas/sticks";
 import { presentBenchTest, presentStick } from "./present";
+import * as memberRepo from "../entities/member/repository";
 import * as repo from "./repository";
 import { stickStiffnessChanged } from "./stiffness";
 
@@ -35,7 +36,7 @@ export async function editableStick(a: Actor, stickId: string, can: (a: Actor, s
 
 async function checkOwner(teamId: string, ownerId: string | null | undefined) {
   if (!ownerId) return;
-  const players = await repo.playersOf(teamId);
+  const players = await memberRepo.playersOf(teamId);
   if (!players.some((p) => p.id === ownerId))
     throw new HttpError(422, "validation_failed", "ownerId: the owner must be a player of this team", [
       { path: "ownerId", message: "The owner must be a player of this team" },
@@ -56,7 +57,7 @@ export async function listSticks(a: Actor): Promise<SticksResponse> {
   return {
     sticks: await rowsFor(a, sticks),
     flexAlertPercent: await flexAlertPercent(a.teamId),
-    players: staff ? await repo.playersOf(a.teamId) : [],
+    players: staff ? await memberRepo.playersOf(a.teamId) : [],
     canEdit: staff,
     canManageSettings: policy.manageTeamSettings(a),
   };
@@ -68,8 +69,8 @@ export async function stickDetail(a: Actor, stickId: string): Promise<StickDetai
   const [[stick], tests, shotsByDate, shots, alert] = await Promise.all([
     rowsFor(a, [row]),
     repo.benchTestsOf(a.teamId, [stickId]),
-    repo.shotsByDateOf(a.teamId, stickId),
-    repo.shotsWithStick(a.teamId, stickId, staff ? undefined : a.userId),
+    repo.shotsByDateOf(a, stickId),
+    repo.shotsWithStick(a, stickId),
     flexAlertPercent(a.teamId),
   ]);
   return {

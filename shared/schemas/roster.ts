@@ -4,6 +4,16 @@ export const roles = ["admin", "coach", "analyst", "player"] as const;
 export const RoleSchema = z.enum(roles, { message: "Role must be team admin, coach, analyst or player" });
 export type Role = z.infer<typeof RoleSchema>;
 
+/**
+ * A member's role as stored by better-auth: a comma-separated list of which Loadframe gives each
+ * member one. The first entry, trimmed; null when it is not a role we know (such a member gets no
+ * access; lists show the least role, player, so a team admin can see and fix it).
+ */
+export function parseRole(stored: string | null | undefined): Role | null {
+  const parsed = RoleSchema.safeParse((stored ?? "").split(",")[0]?.trim());
+  return parsed.success ? parsed.data : null;
+}
+
 export const roleLabels: Record<Role, string> = { admin: "Team admin", coach: "Coach", analyst: "Analyst", player: "Player" };
 export const roleDescriptions: Record<Role, string> = {
   admin: "Members, roles, invitations and team settings; everything a coach can do.",

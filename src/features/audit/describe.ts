@@ -1,6 +1,6 @@
 // An audit entry as one plain sentence for the team admin, plus the group it belongs to for the
 // filter. Pure, so it is tested without a DOM.
-import { roleLabels, RoleSchema } from "@shared/schemas/roster";
+import { parseRole, roleLabels } from "@shared/schemas/roster";
 import type { AuditEntry } from "./api/auditLog";
 
 export type AuditGroup = "people" | "deletions" | "shares";
@@ -8,8 +8,8 @@ export const groupLabels: Record<AuditGroup, string> = { people: "Members and in
 
 const str = (v: unknown) => (typeof v === "string" && v.trim() ? v : null);
 const role = (v: unknown) => {
-  const r = RoleSchema.safeParse(typeof v === "string" ? v.split(",")[0]?.trim() : v);
-  return r.success ? roleLabels[r.data].toLowerCase() : "another role";
+  const r = typeof v === "string" ? parseRole(v) : null;
+  return r ? roleLabels[r].toLowerCase() : "another role";
 };
 const quoted = (v: unknown, fallback: string) => (str(v) ? `“${str(v)}”` : fallback);
 

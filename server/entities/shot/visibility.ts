@@ -1,0 +1,64 @@
+// Who may see a shot — THE rule, written once. Each ground below says it twice, side by side: as
+// an SQL condition over the `shot` row (for lists, counts and filter choices) and as a pure check
+// over one shot already read (for a single shot, exports, compare, the beam). A shot is visible to
+// a member of its own team on any one ground; never across teams. tests/api/shot-visibility.test.ts
+// runs one table of cases against both forms.
+//
+// Adding a ground (say "published to the team"): add its column to ShotAccess, one entry to
+// `grounds`, and rows to the table test. Nothing else in the server decides who sees a shot.
+import { and, eq, exists, or, sql, type SQL } from "drizzle-orm";
+import { db } from "../../db/client";
+import { shot, shotShare } from "../../db/schema";
+import { isStaff, type Actor } from "../member/role";
+
+/** What the rule reads of one shot. */
+export interface ShotAccess {
+  teamId: string;
+  playerId: string | null;
+  /** Users the shot was explicitly shared with. */
+  sharedWith?: readonly string[];
+}
+
+interface Ground {
+  /** What the ground means, in a coach's words (shown by the table test). */
+  means: string;
+  /** true: every shot of the team; false: none; else a condition on the `shot` row. */
+  where: (a: Actor) => SQL | boolean;
+  check: (a: Actor, s: ShotAccess) => boolean;
+}
+
+export const grounds: readonly Ground[] = [
+  {
+    means: "staff (team admin, coach, analyst) see every shot of their team",
+    where: (a) => isStaff(a),
+    check: (a) => isStaff(a),
+  },
+  {
+    means: "a player sees the shots they took",
+    where: (a) => eq(shot.playerId, a.userId),
+    check: (a, s) => s.playerId === a.userId,
+  },
+  {
+    means: "anyone sees a shot shared with them",
+    where: (a) =>
+      exists(db().select({ one: sql`1` }).from(shotShare).where(and(eq(shotShare.shotId, shot.id), eq(shotShare.userId, a.userId)))),
+    check: (a, s) => (s.sharedWith ?? []).includes(a.userId),
+  },
+];
+
+/** The SQL condition: shots of the actor's team that the actor may see. */
+export function shotVisibleWhere(a: Actor): SQL {
+  const team = eq(shot.teamId, a.teamId);
+  const conditions: SQL[] = [];
+  for (const g of grounds) {
+    const w = g.where(a);
+    if (w === true) return team;
+    if (w !== false) conditions.push(w);
+  }
+  return conditions.length ? and(team, or(...conditions))! : and(team, sql`false`)!;
+}
+
+/** The pure check for one shot already read. */
+export function canSeeShot(a: Actor, s: ShotAccess): boolean {
+  return s.teamId === a.teamId && grounds.some((g) => g.check(a, s));
+}
