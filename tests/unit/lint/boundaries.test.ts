@@ -14,7 +14,7 @@ async function ruleIds(filePath: string, code: string) {
   return result.messages.map((m) => m.ruleId ?? m.message);
 }
 
-describe("import boundaries", () => {
+describe("import boundaries", { timeout: 60_000 }, () => {
   it("a feature importing another feature fails", async () => {
     expect(await ruleIds("src/features/clips/boundary-probe.ts", `import { readoutKeys } from "@/features/readout/api/keys";\nexport const k = readoutKeys;\n`)).toContain(
       "import-x/no-restricted-paths",
