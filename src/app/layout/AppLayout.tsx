@@ -1,4 +1,4 @@
-import { useEffect } from "react";
+import { useEffect, useId, useRef, useState } from "react";
 import { Navigate, NavLink, Outlet, useLocation, useMatches, useNavigation } from "react-router-dom";
 import { cn } from "@/lib/cn";
 import { useActiveTeam, useMe } from "@/lib/session";
@@ -24,6 +24,8 @@ export function AppLayout() {
   const location = useLocation();
   useDocumentTitle();
 
+  const items = [{ to: "/", label: "Home" }, ...visibleNav(team?.role)];
+
   // The loader checked the session on the way in; this catches it ending while the page is open.
   if (!me) return <Navigate to={signInUrl(location.pathname + location.search)} replace />;
 
@@ -38,14 +40,13 @@ export function AppLayout() {
           <span aria-hidden className="hidden h-6 w-px bg-line sm:block" />
           <TeamSwitcher />
           <div className="flex-1" />
+          <PhoneMenu items={items} />
           <UserMenu />
         </div>
-        <nav aria-label="Areas" className="mx-auto flex max-w-7xl gap-1 overflow-x-auto px-4 sm:px-6">
-          <NavTab to="/" end>
-            Home
-          </NavTab>
-          {visibleNav(team?.role).map((item) => (
-            <NavTab key={item.to} to={item.to}>
+        {/* Tabs from tablet width up; phones get the menu button above instead. */}
+        <nav aria-label="Areas" className="mx-auto hidden max-w-7xl gap-1 px-4 sm:px-6 md:flex">
+          {items.map((item) => (
+            <NavTab key={item.to} to={item.to} end={item.to === "/"}>
               {item.label}
             </NavTab>
           ))}
@@ -73,5 +74,71 @@ function NavTab({ to, end, children }: { to: string; end?: boolean; children: Re
     >
       {children}
     </NavLink>
+  );
+}
+
+/**
+ * Below tablet width the areas sit behind one button (a disclosure, not a menu: its entries are
+ * plain links). It closes on a choice, on Escape (focus back on the button) and on a tap outside.
+ */
+function PhoneMenu({ items }: { items: { to: string; label: string }[] }) {
+  const [open, setOpen] = useState(false);
+  const id = useId();
+  const root = useRef<HTMLDivElement>(null);
+  const button = useRef<HTMLButtonElement>(null);
+  const { pathname } = useLocation();
+  useEffect(() => setOpen(false), [pathname]);
+  useEffect(() => {
+    if (!open) return;
+    const away = (e: PointerEvent) => !root.current?.contains(e.target as Node) && setOpen(false);
+    const esc = (e: KeyboardEvent) => {
+      if (e.key !== "Escape") return;
+      setOpen(false);
+      button.current?.focus();
+    };
+    document.addEventListener("pointerdown", away);
+    document.addEventListener("keydown", esc);
+    return () => {
+      document.removeEventListener("pointerdown", away);
+      document.removeEventListener("keydown", esc);
+    };
+  }, [open]);
+  const current = [...items].reverse().find((i) => (i.to === "/" ? pathname === "/" : pathname.startsWith(i.to)));
+  return (
+    <div ref={root} className="md:hidden">
+      <button
+        ref={button}
+        type="button"
+        aria-expanded={open}
+        aria-controls={id}
+        onClick={() => setOpen((o) => !o)}
+        className="flex h-10 items-center gap-2 rounded-lg border border-line px-3 text-sm font-medium text-ink hover:bg-sunken"
+      >
+        <svg aria-hidden viewBox="0 0 16 16" className="size-4">
+          <path d={open ? "M4 4l8 8M12 4l-8 8" : "M2.5 4h11M2.5 8h11M2.5 12h11"} stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" />
+        </svg>
+        Menu
+        <span className="sr-only">{current ? `, now on ${current.label}` : ""}</span>
+      </button>
+      {open && (
+        <nav id={id} aria-label="Areas" className="absolute inset-x-0 top-16 border-b border-line bg-surface px-4 pt-2 pb-4 shadow-[var(--shadow-pop)]">
+          <ul className="grid grid-cols-2 gap-1">
+            {items.map((item) => (
+              <li key={item.to}>
+                <NavLink
+                  to={item.to}
+                  end={item.to === "/"}
+                  className={({ isActive }) =>
+                    cn("flex min-h-11 items-center rounded-lg px-3 text-[0.95rem] font-medium", isActive ? "bg-accent-soft text-accent-strong" : "text-ink hover:bg-sunken")
+                  }
+                >
+                  {item.label}
+                </NavLink>
+              </li>
+            ))}
+          </ul>
+        </nav>
+      )}
+    </div>
   );
 }

@@ -29,13 +29,20 @@ export function TeamSwitcher() {
   return (
     <Menu
       className="min-w-0"
-      triggerLabel={`Team: ${active.name}, ${roleLabel[active.role]}. Switch team`}
       triggerClassName="flex h-10 min-w-0 max-w-72 items-center gap-2.5 rounded-lg border border-line bg-surface pr-2.5 pl-3 text-left hover:border-line-strong hover:bg-sunken/60"
       trigger={
         <>
+          {/* The button's name is its visible text plus hidden words: "Team: <team>, <role>. Switch team". */}
           <span className="min-w-0 leading-tight">
-            <span className="block truncate text-sm font-semibold text-ink">{active.name}</span>
-            <span className="block text-xs text-ink-muted">{roleLabel[active.role]}</span>
+            <span className="block truncate text-sm font-semibold text-ink">
+              <span className="sr-only">Team: </span>
+              {active.name}
+              <span className="sr-only">,</span>
+            </span>
+            <span className="block text-xs text-ink-muted">
+              {roleLabel[active.role]}
+              <span className="sr-only">. Switch team</span>
+            </span>
           </span>
           {setActive.isPending ? (
             <Spinner size="sm" label="Switching team…" />

@@ -26,14 +26,15 @@ export function UserMenu() {
   return (
     <Menu
       align="end"
-      triggerLabel={`Account: ${me.user.name}`}
       triggerClassName="flex h-10 items-center gap-2 rounded-full py-1 pr-2 pl-1 hover:bg-sunken"
       trigger={
         <>
+          <span className="sr-only">Account: </span>
           <span aria-hidden className="flex size-8 items-center justify-center rounded-full bg-ink text-xs font-semibold text-white">
             {initials(me.user.name)}
           </span>
-          <span className="hidden max-w-40 truncate text-sm font-medium text-ink sm:block">{me.user.name}</span>
+          {/* Hidden on phones but still the button's name. */}
+          <span className="sr-only max-w-40 truncate text-sm font-medium text-ink lg:not-sr-only">{me.user.name}</span>
         </>
       }
     >

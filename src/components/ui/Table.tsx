@@ -1,11 +1,16 @@
 import type { HTMLAttributes, TdHTMLAttributes, ThHTMLAttributes } from "react";
 import { cn } from "@/lib/cn";
 
-/** Plain semantic table pieces with our spacing; scrolls sideways on narrow screens. */
-export function Table({ className, caption, children, ...rest }: HTMLAttributes<HTMLTableElement> & { caption?: string }) {
+/**
+ * Plain semantic table pieces with our spacing. Below tablet width each row becomes a card
+ * (styles.css, `.lf-cards`): the header row hides, and every cell with a `label` shows that label
+ * above its value, so nothing is pushed off a phone's screen. `cards={false}` keeps a real grid
+ * (scrolling sideways inside its box) where columns must line up, e.g. readings.
+ */
+export function Table({ className, caption, cards = true, children, ...rest }: HTMLAttributes<HTMLTableElement> & { caption?: string; cards?: boolean }) {
   return (
     <div className="overflow-x-auto">
-      <table className={cn("w-full border-collapse text-left text-sm", className)} {...rest}>
+      <table className={cn("w-full border-collapse text-left text-sm", cards && "lf-cards", className)} {...rest}>
         {caption && <caption className="sr-only">{caption}</caption>}
         {children}
       </table>
@@ -29,6 +34,13 @@ export const Th = ({ className, scope = "col", ...rest }: ThHTMLAttributes<HTMLT
   <th scope={scope} className={cn("px-5 py-2.5 font-semibold first:pl-5 last:pr-5", className)} {...rest} />
 );
 
-export const Td = ({ className, ...rest }: TdHTMLAttributes<HTMLTableCellElement>) => (
-  <td className={cn("px-5 py-3 text-ink", className)} {...rest} />
+interface TdProps extends TdHTMLAttributes<HTMLTableCellElement> {
+  /** The column's name, shown above the value when the row is a card (phones). */
+  label?: string;
+  /** The row's title cell: a full-width line at the top of the card. */
+  primary?: boolean;
+}
+
+export const Td = ({ className, label, primary, ...rest }: TdProps) => (
+  <td data-label={label} data-primary={primary || undefined} className={cn("px-5 py-3 text-ink", className)} {...rest} />
 );

@@ -9,6 +9,8 @@ import { formatCount, formatFps, sessionLabel } from "../format";
 import { ProgressBar } from "./ProgressBar";
 
 const col = createColumnHelper<ClipSummary>();
+/** Column names shown in each card on phones (the thumbnail and the title need none). */
+const cardLabels: Record<string, string | undefined> = { player: "Player", session: "Session", shotType: "Shot type", captureFps: "Capture rate", frames: "Frames", status: "Status" };
 
 interface Props {
   teamId: string;
@@ -111,7 +113,7 @@ export function ClipsTable({ teamId, clips, sort, dir, onSort, canEdit }: Props)
         {table.getRowModel().rows.map((r) => (
           <Tr key={r.id} data-testid={`clip-row-${r.id}`}>
             {r.getVisibleCells().map((c) => (
-              <Td key={c.id} className={cn(c.column.id === "thumbnail" && "py-2 pr-0")}>{flexRender(c.column.columnDef.cell, c.getContext())}</Td>
+              <Td key={c.id} primary={c.column.id === "title"} label={cardLabels[c.column.id]} className={cn(c.column.id === "thumbnail" && "py-2 pr-0")}>{flexRender(c.column.columnDef.cell, c.getContext())}</Td>
             ))}
           </Tr>
         ))}

@@ -1,4 +1,4 @@
-import { useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import { useNavigate, useParams, useSearchParams } from "react-router-dom";
 import { Alert, Button, ButtonLink, Card, ConfirmDialog, EmptyState, PageHeader, PageSpinner, toast } from "@/components/ui";
 import { errorMessage, isApiError } from "@/lib/api";
@@ -11,6 +11,7 @@ import { CaptureRateConfirm } from "../components/CaptureRateConfirm";
 import { ClipFacts } from "../components/ClipFacts";
 import { EditClipDialog } from "../components/EditClipDialog";
 import { FrameStrip, FrameViewer } from "../components/FrameViewer";
+import { FrameStepper } from "@/components/shot/stepping/frame-stepper";
 import { ProgressBar } from "../components/ProgressBar";
 import { formatCount, sessionLabel } from "../format";
 import { cameraViewLabels, shotTypeLabels } from "@shared/schemas/clips";
@@ -29,8 +30,33 @@ function ClipView({ teamId, clipId, staff }: { teamId: string; clipId: string; s
   const retry = useRetryClip(teamId);
   const remove = useDeleteClip(teamId);
   const [params, setParams] = useSearchParams();
+  // The frame lives in the stepper (synchronous, so no key press is lost); the address follows it.
+  const [stepper] = useState(() => new FrameStepper(1, 1, Number(params.get("frame")) || 1));
+  // The frame the address asked for, gone to once it exists (a clip may still be extracting).
+  const pendingOpen = useRef(Number(params.get("frame")) || 1);
   const [editing, setEditing] = useState(false);
   const [confirmDelete, setConfirmDelete] = useState(false);
+
+  const liveStatus = live?.status ?? clip.data?.status;
+  const frames = liveStatus === "ready" ? clip.data?.frameCount ?? 0 : live?.framesDone ?? clip.data?.framesDone ?? 0;
+  useEffect(() => {
+    stepper.setRange(1, Math.max(1, frames));
+    if (pendingOpen.current > 1 && (frames >= pendingOpen.current || liveStatus === "ready")) {
+      stepper.goto(pendingOpen.current);
+      pendingOpen.current = 0;
+    }
+  }, [stepper, frames, liveStatus]);
+  useEffect(() => {
+    let timer = 0;
+    const off = stepper.subscribe(() => {
+      clearTimeout(timer);
+      timer = window.setTimeout(() => setParams((p) => { p.set("frame", String(stepper.getState().frame)); return p; }, { replace: true }), 250);
+    });
+    return () => {
+      off();
+      clearTimeout(timer);
+    };
+  }, [stepper, setParams]);
 
   if (clip.isPending) return <PageSpinner label="Loading the clip…" />;
   if (clip.isError)
@@ -44,10 +70,8 @@ function ClipView({ teamId, clipId, staff }: { teamId: string; clipId: string; s
   const status = live?.status ?? c.status;
   const framesDone = live?.framesDone ?? c.framesDone;
   const available = status === "ready" ? c.frameCount ?? 0 : framesDone;
-  const frame = Math.min(Math.max(1, Number(params.get("frame")) || 1), Math.max(1, available));
-  const setFrame = (n: number) => setParams((p) => { p.set("frame", String(n)); return p; }, { replace: true });
   const openFrame1 = () => {
-    setFrame(1);
+    stepper.goto(1);
     document.getElementById("frame-viewer")?.focus();
   };
 
@@ -88,11 +112,11 @@ function ClipView({ teamId, clipId, staff }: { teamId: string; clipId: string; s
         {c.needsCaptureRateConfirmation && !staff && (
           <Alert tone="warn">The capture rate of this clip has not been confirmed yet, so speeds from it may be wrong.</Alert>
         )}
-        <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,1fr)_22rem]">
+        <div className="grid grid-cols-1 items-start gap-6 xl:grid-cols-[minmax(0,1fr)_22rem]">
           <Card title="Frames" description="Step through the clip frame by frame; the time shown is real time from the capture rate.">
             <div className="flex flex-col gap-4">
-              <FrameViewer clip={c} frame={frame} onFrame={setFrame} available={available} />
-              <FrameStrip clip={c} onFrame={setFrame} />
+              <FrameViewer clip={c} stepper={stepper} available={available} />
+              <FrameStrip clip={c} onFrame={(n) => stepper.goto(n)} />
             </div>
           </Card>
           <ClipFacts clip={c} />

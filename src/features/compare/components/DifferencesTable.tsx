@@ -26,12 +26,12 @@ export function DifferencesTable({ diffs, names, colors, units }: { diffs: Diffe
             return (
               <Tr key={d.key} data-testid={`diff-${d.key}`}>
                 <Th scope="row" className="font-medium text-ink normal-case">{d.label}</Th>
-                <Td className="text-right tabular-nums">{d.a ? formatWithU(m.kind, d.a.value, d.a.u, units) : "—"}</Td>
-                <Td className="text-right tabular-nums">{d.b ? formatWithU(m.kind, d.b.value, d.b.u, units) : "—"}</Td>
-                <Td className="text-right font-medium tabular-nums">
+                <Td label={names.a} className="text-right tabular-nums">{d.a ? formatWithU(m.kind, d.a.value, d.a.u, units) : "—"}</Td>
+                <Td label={names.b} className="text-right tabular-nums">{d.b ? formatWithU(m.kind, d.b.value, d.b.u, units) : "—"}</Td>
+                <Td label="B − A" className="text-right font-medium tabular-nums">
                   {d.diff === null ? "—" : `${signed(convert(m.kind, d.diff, units), digitsOf(m.kind, units))}${unit === "°" ? "°" : ` ${unit}`}`}
                 </Td>
-                <Td>
+                <Td label="What it means" className="max-md:basis-full">
                   <span className="flex items-center gap-2">
                     {d.winner && <span aria-hidden className="size-2.5 shrink-0 rounded-full" style={{ background: colors[d.winner] }} />}
                     <span className={d.clear ? "font-medium text-ink" : "text-ink-muted"}>{d.sentence}</span>

@@ -84,7 +84,7 @@ export function SyncedFrames({ teamId, shots, clocks, plan, names, colors, step,
         </div>
 
         <div className="mt-4 flex flex-wrap items-center gap-2">
-          <Button variant="secondary" size="sm" onClick={() => go(step - 10)} aria-label="Back ten steps">
+          <Button variant="secondary" size="sm" onClick={() => go(step - 10)} aria-label="−10, back ten steps">
             ◀◀ 10
           </Button>
           <Button variant="secondary" size="sm" onClick={() => go(step - 1)} aria-label="Back one step" data-testid="step-back">
@@ -93,7 +93,7 @@ export function SyncedFrames({ teamId, shots, clocks, plan, names, colors, step,
           <Button variant="secondary" size="sm" onClick={() => go(step + 1)} aria-label="Forward one step" data-testid="step-forward">
             Step ▶
           </Button>
-          <Button variant="secondary" size="sm" onClick={() => go(step + 10)} aria-label="Forward ten steps">
+          <Button variant="secondary" size="sm" onClick={() => go(step + 10)} aria-label="+10, forward ten steps">
             10 ▶▶
           </Button>
           <span className="ml-2 min-w-40 text-sm font-semibold text-ink tabular-nums" aria-live="polite">

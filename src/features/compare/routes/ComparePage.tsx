@@ -89,10 +89,10 @@ function Comparison({ teamId, shots }: { teamId: string; shots: Record<Side, Sho
   const missing = (["a", "b"] as const).filter((s) => !shots[s].results);
   return (
     <div className="flex flex-col gap-6">
-      <ul className="grid gap-3 md:grid-cols-2">
+      <ul className="grid grid-cols-1 gap-3 md:grid-cols-2">
         {(["a", "b"] as const).map((s) => (
           <li key={s} className="flex items-center gap-3 rounded-lg border border-line bg-surface px-4 py-3" style={{ borderLeft: `6px solid ${COLORS[s]}` }}>
-            <span className="text-lg font-semibold" style={{ color: COLORS[s] }}>
+            <span className="shrink-0 text-lg font-semibold whitespace-nowrap" style={{ color: COLORS[s] }}>
               {NAMES[s]}
             </span>
             <span className="min-w-0">

@@ -1,4 +1,4 @@
-import { useEffect, useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import { PUCK_DIAMETER_MM } from "@shared/schemas/shots";
 import { cn } from "@/lib/cn";
 import { checkDraft, newPlane, newScaleBar, scaleOf, type CalDraft, type LengthUnit } from "../model/calibration-draft";
@@ -11,53 +11,66 @@ export function CalibrationPanel({ store, status }: { store: DigitiseStore; stat
   const s = useDigitise(store, (st) => ({ cal: st.doc.calibration, tool: st.tool, readOnly: st.readOnly, frameSize: st.frameSize }));
   const check = checkDraft(s.cal, s.frameSize);
   const set = (c: CalDraft | null) => store.setCalibration(c);
+  const box = useRef<HTMLDivElement>(null);
+  const clicked = s.cal?.type === "scaleBar" ? (s.cal.a ? 1 : 0) + (s.cal.b ? 1 : 0) : (s.cal?.points.length ?? 0);
+  const complete = s.cal?.type === "scaleBar" && clicked === 2;
+  // Once points are clicked on the picture, the fields they need (the length, each point's
+  // position) come into view. With the panels beside the picture only the panel column scrolls;
+  // below it (phones) the page scrolls, so that waits until the scale bar's two ends are in.
+  useEffect(() => {
+    if (s.tool === "mark" || clicked === 0) return;
+    const beside = window.matchMedia("(min-width: 64rem)").matches;
+    if (beside || complete) box.current?.scrollIntoView({ block: "nearest", behavior: "smooth" });
+  }, [clicked, complete, s.tool]);
 
   return (
-    <Panel title="Calibration" aside={status && <span className="text-xs text-ink-faint">{status}</span>}>
-      {!s.readOnly && (
-        <div className="mb-2 flex gap-1.5" role="group" aria-label="Calibration tool">
-          <ToolButton active={s.tool === "scaleBar"} onClick={() => store.setTool(s.tool === "scaleBar" ? "mark" : "scaleBar")} keyName="S">
-            Scale bar
-          </ToolButton>
-          <ToolButton active={s.tool === "plane"} onClick={() => store.setTool(s.tool === "plane" ? "mark" : "plane")} keyName="L">
-            Plane layout
-          </ToolButton>
-          {s.tool !== "mark" && (
-            <button type="button" className="ml-auto h-8 rounded-md px-2 text-sm text-accent-strong hover:bg-accent-soft" onClick={() => store.setTool("mark")}>
-              Done <Kbd>Esc</Kbd>
+    <div ref={box} className="scroll-mb-4">
+      <Panel title="Calibration" aside={status && <span className="text-xs text-ink-faint">{status}</span>}>
+        {!s.readOnly && (
+          <div className="mb-2 flex gap-1.5" role="group" aria-label="Calibration tool">
+            <ToolButton active={s.tool === "scaleBar"} onClick={() => store.setTool(s.tool === "scaleBar" ? "mark" : "scaleBar")} keyName="S">
+              Scale bar
+            </ToolButton>
+            <ToolButton active={s.tool === "plane"} onClick={() => store.setTool(s.tool === "plane" ? "mark" : "plane")} keyName="L">
+              Plane layout
+            </ToolButton>
+            {s.tool !== "mark" && (
+              <button type="button" className="ml-auto h-8 rounded-md px-2 text-sm text-accent-strong hover:bg-accent-soft" onClick={() => store.setTool("mark")}>
+                Done <Kbd>Esc</Kbd>
+              </button>
+            )}
+          </div>
+        )}
+
+        {!s.cal && <p className="text-sm text-ink-muted">None set for this clip. {s.readOnly ? "" : "Pick a tool, then click on the frame."}</p>}
+
+        {s.cal?.type === "scaleBar" && <ScaleBarEditor cal={s.cal} readOnly={s.readOnly} onChange={set} />}
+        {s.cal?.type === "plane" && <PlaneEditor cal={s.cal} readOnly={s.readOnly} onChange={set} />}
+
+        {check.state === "incomplete" && <p className="mt-2 text-sm text-warn">{check.message}</p>}
+        {check.state === "invalid" && (
+          <p className="mt-2 text-sm text-danger" role="alert">
+            Not saved: {check.message}
+          </p>
+        )}
+        {check.state === "ready" && check.calibration.type === "scaleBar" && (
+          <p className="mt-2 text-xs text-ink-muted">
+            {scaleOf(check.calibration)!.toFixed(3)} mm per pixel, for every shot in this clip.
+          </p>
+        )}
+        {check.state === "ready" && check.calibration.type === "plane" && <p className="mt-2 text-xs text-ink-muted">{check.calibration.points.length} points map the frame onto the plane of the shot.</p>}
+        {s.cal && !s.readOnly && (
+          <div className="mt-2 flex gap-2">
+            <button type="button" className="text-xs text-danger hover:underline" onClick={() => set(null)}>
+              Clear calibration
             </button>
-          )}
-        </div>
-      )}
-
-      {!s.cal && <p className="text-sm text-ink-muted">None set for this clip. {s.readOnly ? "" : "Pick a tool, then click on the frame."}</p>}
-
-      {s.cal?.type === "scaleBar" && <ScaleBarEditor cal={s.cal} readOnly={s.readOnly} onChange={set} />}
-      {s.cal?.type === "plane" && <PlaneEditor cal={s.cal} readOnly={s.readOnly} onChange={set} />}
-
-      {check.state === "incomplete" && <p className="mt-2 text-sm text-warn">{check.message}</p>}
-      {check.state === "invalid" && (
-        <p className="mt-2 text-sm text-danger" role="alert">
-          Not saved: {check.message}
-        </p>
-      )}
-      {check.state === "ready" && check.calibration.type === "scaleBar" && (
-        <p className="mt-2 text-xs text-ink-muted">
-          {scaleOf(check.calibration)!.toFixed(3)} mm per pixel, for every shot in this clip.
-        </p>
-      )}
-      {check.state === "ready" && check.calibration.type === "plane" && <p className="mt-2 text-xs text-ink-muted">{check.calibration.points.length} points map the frame onto the plane of the shot.</p>}
-      {s.cal && !s.readOnly && (
-        <div className="mt-2 flex gap-2">
-          <button type="button" className="text-xs text-danger hover:underline" onClick={() => set(null)}>
-            Clear calibration
-          </button>
-          <button type="button" className="text-xs text-ink-muted hover:underline" onClick={() => set(s.cal!.type === "scaleBar" ? newPlane() : newScaleBar())}>
-            Use a {s.cal.type === "scaleBar" ? "plane" : "scale bar"} instead
-          </button>
-        </div>
-      )}
-    </Panel>
+            <button type="button" className="text-xs text-ink-muted hover:underline" onClick={() => set(s.cal!.type === "scaleBar" ? newPlane() : newScaleBar())}>
+              Use a {s.cal.type === "scaleBar" ? "plane" : "scale bar"} instead
+            </button>
+          </div>
+        )}
+      </Panel>
+    </div>
   );
 }
 

@@ -1,7 +1,8 @@
 import { useEffect, useReducer, useRef } from "react";
 import { Image as KImage, Layer, Rect, Stage } from "react-konva";
-import type { FrameCache } from "../model/frame-cache";
+import type { FrameCache } from "@/components/shot/stepping/frame-cache";
 import type { DigitiseStore } from "../model/store";
+import { pinchView, type Pinch } from "../model/pinch";
 import type { Vec2 } from "../model/viewport";
 import { CalibrationOverlay } from "./CalibrationOverlay";
 import { MarksOverlay } from "./MarksOverlay";
@@ -45,25 +46,67 @@ export function FrameViewer({ store, cache, extraOverlay }: { store: DigitiseSto
   const current = shown.current;
   const stale = !current || current.frame !== s.frame;
 
-  // Native listeners: pointer capture while dragging, and a non-passive wheel so the page does not scroll.
+  // Native listeners: pointer capture while dragging, a non-passive wheel so the page does not
+  // scroll, and two fingers for pinch zoom (a tap places, a drag of a mark moves it, as with a mouse).
   useEffect(() => {
     const el = box.current!;
     const at = (e: { clientX: number; clientY: number }): Vec2 => {
       const r = el.getBoundingClientRect();
       return [e.clientX - r.left, e.clientY - r.top];
     };
+    const fingers = new Map<number, Vec2>();
+    let pinch: Pinch | null = null;
+    /** After a pinch, the finger left on the picture does nothing until it lifts too. */
+    let spent = false;
     const down = (e: PointerEvent) => {
       if (e.target instanceof HTMLElement && e.target.closest("[data-hud]")) return;
       el.setPointerCapture(e.pointerId);
       el.focus({ preventScroll: true });
-      store.pointer({ type: "down", screen: at(e), button: e.button, panKey: e.altKey });
+      if (e.pointerType === "touch") {
+        fingers.set(e.pointerId, at(e));
+        if (fingers.size === 2) {
+          const [a, b] = [...fingers.values()];
+          store.cancelPointer();
+          pinch = { view: store.getState().view, a, b };
+          return;
+        }
+        if (fingers.size > 2 || spent) return;
+      }
+      store.pointer({ type: "down", screen: at(e), button: e.button, panKey: e.altKey, touch: e.pointerType === "touch" });
     };
-    const move = (e: PointerEvent) => store.pointer({ type: "move", screen: at(e) });
+    const move = (e: PointerEvent) => {
+      if (e.pointerType === "touch" && fingers.has(e.pointerId)) {
+        fingers.set(e.pointerId, at(e));
+        if (pinch && fingers.size >= 2) {
+          const [a, b] = [...fingers.values()];
+          store.setView(pinchView(pinch, a, b));
+          return;
+        }
+        if (spent) return;
+      }
+      store.pointer({ type: "move", screen: at(e), touch: e.pointerType === "touch" });
+    };
     const up = (e: PointerEvent) => {
       if (el.hasPointerCapture(e.pointerId)) el.releasePointerCapture(e.pointerId);
-      store.pointer({ type: "up", screen: at(e) });
+      if (e.pointerType === "touch") {
+        fingers.delete(e.pointerId);
+        if (pinch) {
+          pinch = null;
+          spent = fingers.size > 0;
+          return;
+        }
+        if (spent) {
+          spent = fingers.size > 0;
+          return;
+        }
+      }
+      store.pointer({ type: "up", screen: at(e), touch: e.pointerType === "touch" });
     };
-    const cancel = (e: PointerEvent) => store.pointer({ type: "cancel", screen: at(e) });
+    const cancel = (e: PointerEvent) => {
+      fingers.delete(e.pointerId);
+      pinch = null;
+      store.pointer({ type: "cancel", screen: at(e) });
+    };
     const wheel = (e: WheelEvent) => {
       e.preventDefault();
       store.wheel(at(e), e.deltaMode === 1 ? e.deltaY * 33 : e.deltaY);

@@ -13,23 +13,23 @@ export function LandmarkPanel({ store, tracking }: { store: DigitiseStore; track
   }));
   return (
     <Panel title="Landmarks" aside={<span className="text-xs text-ink-faint">frame {s.frame}</span>}>
-      <ul className="flex flex-col gap-0.5" role="listbox" aria-label="Landmark to place">
+      {/* Each row: one button that picks the landmark (pressed = active) and one that hides or shows it. */}
+      <ul className="flex flex-col gap-0.5" aria-label="Landmark to place">
         {LANDMARKS.map((l, i) => {
           const here = markAt(s.marks[l], s.frame);
           const active = l === s.active && s.tool === "mark";
           return (
-            <li key={l} role="option" aria-selected={active}>
-              <div
-                className={cn(
-                  "group flex h-9 cursor-pointer items-center gap-2 rounded-md pr-1 pl-2 text-sm",
-                  active ? "bg-accent-soft ring-1 ring-accent/40" : "hover:bg-sunken",
-                )}
+            <li key={l} className={cn("flex items-center gap-1 rounded-md pr-1 text-sm", active ? "bg-accent-soft ring-1 ring-accent/40" : "hover:bg-sunken")}>
+              <button
+                type="button"
+                aria-pressed={active}
+                className="flex h-9 min-w-0 flex-1 cursor-pointer items-center gap-2 rounded-md pl-2 text-left"
                 onClick={() => store.setActiveLandmark(l)}
                 data-testid={`landmark-${l}`}
                 data-count={s.marks[l]?.length ?? 0}
               >
                 <Kbd>{i + 1}</Kbd>
-                <span className="size-3 shrink-0 rounded-full ring-1 ring-black/20" style={{ background: landmarkColour[l] }} />
+                <span aria-hidden className="size-3 shrink-0 rounded-full ring-1 ring-black/20" style={{ background: landmarkColour[l] }} />
                 <span className={cn("flex-1 truncate", active ? "font-semibold text-ink" : "text-ink")}>{landmarkLabels[l]}</span>
                 <span className="w-16 text-right text-xs text-ink-muted tabular-nums" title={`${s.marks[l]?.length ?? 0} frames marked`}>
                   {here ? (
@@ -40,20 +40,17 @@ export function LandmarkPanel({ store, tracking }: { store: DigitiseStore; track
                     <span>{s.marks[l]?.length ? `○ ${s.marks[l]!.length}` : "—"}</span>
                   )}
                 </span>
-                <button
-                  type="button"
-                  className="rounded p-1 text-ink-faint hover:bg-surface hover:text-ink"
-                  aria-label={`${s.visible[l] ? "Hide" : "Show"} ${landmarkLabels[l]}`}
-                  title={`${s.visible[l] ? "Hide" : "Show"} (H for the active one)`}
-                  aria-pressed={!s.visible[l]}
-                  onClick={(e) => {
-                    e.stopPropagation();
-                    store.toggleVisible(l);
-                  }}
-                >
-                  <Eye open={s.visible[l]} />
-                </button>
-              </div>
+              </button>
+              <button
+                type="button"
+                className="rounded p-1 text-ink-faint hover:bg-surface hover:text-ink"
+                aria-label={`${s.visible[l] ? "Hide" : "Show"} ${landmarkLabels[l]}`}
+                title={`${s.visible[l] ? "Hide" : "Show"} (H for the active one)`}
+                aria-pressed={!s.visible[l]}
+                onClick={() => store.toggleVisible(l)}
+              >
+                <Eye open={s.visible[l]} />
+              </button>
             </li>
           );
         })}

@@ -31,16 +31,16 @@ export function Transport({ store, playback, jumpRequest }: { store: DigitiseSto
     <div className="flex flex-wrap items-center gap-x-3 gap-y-2 border-t border-[#263034] bg-[#161d20] px-3 py-2 text-[13px] text-[#dfe6e3]">
       <div className="flex items-center gap-0.5" role="group" aria-label="Step through frames">
         <TButton label="First frame (Home)" onClick={() => store.goto(s.start)}>⇤</TButton>
-        <TButton label="Back 10 frames (Shift + ←)" onClick={() => store.stepBy(-10)}>−10</TButton>
-        <TButton label="Previous frame (←)" onClick={() => store.stepBy(-1)}>−1</TButton>
+        <TButton label="−10, back 10 frames (Shift + ←)" onClick={() => store.stepBy(-10)}>−10</TButton>
+        <TButton label="−1, previous frame (←)" onClick={() => store.stepBy(-1)}>−1</TButton>
         <TButton label="Play backward (Shift + Space)" pressed={playback.dir === -1} onClick={() => playback.toggle(-1)}>
           {playback.dir === -1 ? "❚❚" : "◀"}
         </TButton>
         <TButton label="Play forward (Space)" pressed={playback.dir === 1} onClick={() => playback.toggle(1)}>
           {playback.dir === 1 ? "❚❚" : "▶"}
         </TButton>
-        <TButton label="Next frame (→)" onClick={() => store.stepBy(1)}>+1</TButton>
-        <TButton label="Forward 10 frames (Shift + →)" onClick={() => store.stepBy(10)}>+10</TButton>
+        <TButton label="+1, next frame (→)" onClick={() => store.stepBy(1)}>+1</TButton>
+        <TButton label="+10, forward 10 frames (Shift + →)" onClick={() => store.stepBy(10)}>+10</TButton>
         <TButton label="Last frame (End)" onClick={() => store.goto(s.end)}>⇥</TButton>
       </div>
       <label className="flex items-center gap-1.5 text-[#9aa6a4]">

@@ -21,12 +21,12 @@ export function ViewerHud({ store, loading }: { store: DigitiseStore; loading: b
           <span className="text-[15px] font-semibold tabular-nums" data-testid="hud-frame">
             Frame {s.frame}
           </span>
-          <span className="ml-2 text-[#9aa6a4]">
+          <span className="ml-2 text-[#9aa6a4] max-sm:hidden">
             of {s.frameStart}–{s.frameEnd}
           </span>
           <div className="mt-0.5 tabular-nums">
             <span title="Time since the clip's first frame, from the capture rate">{formatMs(msSinceFirst(s.frame, s.fps), s.fps)}</span>
-            <span className="ml-3 text-[#f3c969]" title="Time since puck strike">
+            <span className="ml-3 text-[#f3c969] max-sm:ml-0 max-sm:block" title="Time since puck strike">
               {s.strike === undefined ? "puck strike not set" : `${formatMs(msSince(s.frame, s.strike, s.fps), s.fps)} from strike`}
             </span>
           </div>
@@ -47,7 +47,7 @@ export function ViewerHud({ store, loading }: { store: DigitiseStore; loading: b
         <HudButton onClick={() => store.fit()} label="Fit the frame to the view (F)">
           Fit
         </HudButton>
-        <HudButton onClick={() => store.originalPixels()} label="Original pixels (O)">
+        <HudButton onClick={() => store.originalPixels()} label="1:1, original pixels (O)">
           1:1
         </HudButton>
       </div>

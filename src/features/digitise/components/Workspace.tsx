@@ -3,9 +3,11 @@ import { Link, useSearchParams } from "react-router-dom";
 import type { ShotDetail } from "@shared/schemas/shots";
 import { Button } from "@/components/ui";
 import { formatDateTime } from "@/lib/format";
-import { createFrameLoader, frameUrl } from "../api/frames";
+import { frameUrl } from "@/components/shot/frames";
+import { capacityFor, FrameCache } from "@/components/shot/stepping/frame-cache";
+import { createFrameLoader } from "@/components/shot/stepping/frame-loader";
+import { isFrameCommand, runFrameCommand } from "@/components/shot/stepping/frame-keys";
 import { checkDraft } from "../model/calibration-draft";
-import { capacityFor, FrameCache } from "../model/frame-cache";
 import { commandFor, isTypingTarget, type Command } from "../model/keymap";
 import { DigitiseStore } from "../model/store";
 import { usePreview } from "../preview/usePreview";
@@ -87,13 +89,8 @@ export function Workspace({ teamId, shot }: { teamId: string; shot: ShotDetail }
       if (c.startsWith("event:")) return void store.toggleEvent(c.slice(6) as Parameters<DigitiseStore["toggleEvent"]>[0]);
       if (c.startsWith("gotoEvent:")) return store.gotoEvent(c.slice(10) as Parameters<DigitiseStore["gotoEvent"]>[0]);
       const st = store.getState();
+      if (isFrameCommand(c)) return runFrameCommand(c, store, { first: st.frameStart, last: st.frameEnd });
       const actions: Partial<Record<Command, () => void>> = {
-        prev: () => store.stepBy(-1),
-        next: () => store.stepBy(1),
-        prev10: () => store.stepBy(-10),
-        next10: () => store.stepBy(10),
-        first: () => store.goto(st.frameStart),
-        last: () => store.goto(st.frameEnd),
         jump: () => setJumpRequest((n) => n + 1),
         prevMark: () => store.gotoNeighbourMark(-1),
         nextMark: () => store.gotoNeighbourMark(1),
@@ -193,16 +190,20 @@ export function Workspace({ teamId, shot }: { teamId: string; shot: ShotDetail }
         </div>
       )}
 
-      <div className="grid h-[max(34rem,calc(100dvh-13rem))] grid-cols-[minmax(0,1fr)_21rem] overflow-hidden rounded-[var(--radius-card)] border border-line bg-surface shadow-[var(--shadow-card)]">
+      {/* From 1024 px wide the panels sit beside the picture; narrower, below it, so they never cover it. */}
+      <div className="flex flex-col overflow-hidden rounded-[var(--radius-card)] border border-line bg-surface shadow-[var(--shadow-card)] lg:grid lg:h-[max(34rem,calc(100dvh-13rem))] lg:grid-cols-[minmax(0,1fr)_21rem]">
         <div className="flex min-h-0 min-w-0 flex-col bg-[#101517]">
-          <div className="relative min-h-0 flex-1">
+          <div className="relative h-[max(16rem,75vw)] max-h-[70dvh] min-h-0 lg:h-auto lg:max-h-none lg:flex-1">
             {frames && <FrameViewer store={store} cache={frames} extraOverlay={<TrackingOverlay store={store} tracking={tracking} />} />}
+            {/* Laid over the picture's foot, so the picture keeps its size (and place) when the bar comes and goes. */}
+            <div className="absolute inset-x-0 bottom-0 z-10">
+              <TrackingBar store={store} tracking={tracking} />
+            </div>
           </div>
-          <TrackingBar store={store} tracking={tracking} />
           <Transport store={store} playback={playback} jumpRequest={jumpRequest} />
           <FrameStrip store={store} thumbUrl={url} />
         </div>
-        <aside className="min-h-0 overflow-y-auto border-l border-line" aria-label="Digitise panels">
+        <aside className="min-h-0 border-t border-line lg:overflow-y-auto lg:border-t-0 lg:border-l" aria-label="Digitise panels">
           <LandmarkPanel store={store} tracking={<TrackingButton tracking={tracking} />} />
           <EventsPanel store={store} />
           <CalibrationPanel store={store} status={saving.calStatus.kind === "saving" ? "saving…" : saving.calStatus.kind === "offline" ? "offline" : null} />

@@ -1,25 +1,18 @@
 import { LANDMARKS, type Landmark, type ShotEventKey } from "@shared/schemas/shots";
+import { frameBindings, plainKey, type FrameCommand, type KeyLike } from "@/components/shot/stepping/frame-keys";
 
 // Loadframe's own key map for the Digitise page. One table drives both the key handler and the
 // help overlay, so the overlay can never list a key that does nothing (or miss one that does).
 
+export type { KeyLike };
 export type Command =
-  | "prev" | "next" | "prev10" | "next10" | "first" | "last" | "jump" | "prevMark" | "nextMark"
+  | FrameCommand | "jump" | "prevMark" | "nextMark"
   | "play" | "playBack" | "slower" | "faster"
   | `landmark:${Landmark}` | "nextLandmark" | "prevLandmark" | "deleteMark" | "toggleVisible" | "showAll" | "trail" | "autoAdvance" | "track"
   | `event:${ShotEventKey}` | `gotoEvent:${ShotEventKey}`
   | "zoomIn" | "zoomOut" | "fit" | "original"
   | "toolMark" | "toolScaleBar" | "toolPlane" | "escape"
   | "undo" | "redo" | "help";
-
-export interface KeyLike {
-  key: string;
-  code?: string;
-  shiftKey?: boolean;
-  ctrlKey?: boolean;
-  metaKey?: boolean;
-  altKey?: boolean;
-}
 
 export interface Binding {
   command: Command;
@@ -33,7 +26,7 @@ export interface Binding {
 }
 
 const mod = (e: KeyLike) => !!(e.ctrlKey || e.metaKey);
-const plain = (e: KeyLike) => !mod(e) && !e.altKey;
+const plain = plainKey;
 const letter = (e: KeyLike, l: string) => e.key.toLowerCase() === l && plain(e);
 const only = (e: KeyLike, l: string) => letter(e, l) && !e.shiftKey;
 const shifted = (e: KeyLike, l: string) => letter(e, l) && !!e.shiftKey;
@@ -46,12 +39,8 @@ const EVENT_KEYS: [ShotEventKey, string, string][] = [
 ];
 
 export const bindings: Binding[] = [
-  { command: "prev", keys: ["←"], group: "Frames", description: "Previous frame", viewing: true, match: (e) => e.key === "ArrowLeft" && !e.shiftKey && plain(e) },
-  { command: "next", keys: ["→"], group: "Frames", description: "Next frame", viewing: true, match: (e) => e.key === "ArrowRight" && !e.shiftKey && plain(e) },
-  { command: "prev10", keys: ["Shift", "←"], group: "Frames", description: "Back 10 frames", viewing: true, match: (e) => e.key === "ArrowLeft" && !!e.shiftKey && plain(e) },
-  { command: "next10", keys: ["Shift", "→"], group: "Frames", description: "Forward 10 frames", viewing: true, match: (e) => e.key === "ArrowRight" && !!e.shiftKey && plain(e) },
-  { command: "first", keys: ["Home"], group: "Frames", description: "First frame of the shot", viewing: true, match: (e) => e.key === "Home" && plain(e) },
-  { command: "last", keys: ["End"], group: "Frames", description: "Last frame of the shot", viewing: true, match: (e) => e.key === "End" && plain(e) },
+  // Stepping keys are shared with the Clip page (the same table drives both).
+  ...frameBindings.map((b): Binding => ({ ...b, group: "Frames", viewing: true, description: b.command === "first" || b.command === "last" ? `${b.description} of the shot` : b.description })),
   { command: "jump", keys: ["G"], group: "Frames", description: "Go to a frame number", viewing: true, match: (e) => only(e, "g") },
   { command: "prevMark", keys: ["["], group: "Frames", description: "Previous frame marked for the active landmark", viewing: true, match: (e) => e.key === "[" && plain(e) },
   { command: "nextMark", keys: ["]"], group: "Frames", description: "Next frame marked for the active landmark", viewing: true, match: (e) => e.key === "]" && plain(e) },

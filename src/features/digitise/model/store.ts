@@ -2,6 +2,7 @@ import { eventLabels, eventOrderProblem, LANDMARKS, landmarkLabels, outsideFrame
 import { newScaleBar, type CalDraft } from "./calibration-draft";
 import { handlePosition, hitTest, type ToolName } from "./tools/hit";
 import { cursorFor, idle, step as toolStep, type Handle, type PointerInput, type ToolEffect, type ToolState } from "./tools/pointer-tool";
+import { clampFrame } from "@/components/shot/stepping/frame-stepper";
 import { markAt, neighbourFrame, withMark, withoutMark } from "./tracks";
 import { actualPixels, fitView, insideFrame, panBy, wheelFactor, zoomAt, type Vec2, type View } from "./viewport";
 
@@ -111,7 +112,7 @@ export class DigitiseStore {
   }
 
   private clampFrame(f: number, s: { frameStart: number; frameEnd: number } = this.state) {
-    return Math.min(s.frameEnd, Math.max(s.frameStart, Math.round(f)));
+    return clampFrame(f, s.frameStart, s.frameEnd);
   }
 
   notify(text: string, tone: Notice["tone"] = "warn") {
@@ -274,6 +275,10 @@ export class DigitiseStore {
   setView(view: View) {
     this.set({ view, fitted: false });
   }
+  /** A second finger landed: whatever the first one started (a tap, a drag) is called off. */
+  cancelPointer() {
+    this.set({ pointer: idle, preview: null });
+  }
 
   // ---- tools and pointer ---------------------------------------------------------------------
   /** Picking a tool never changes the calibration: its first click does (one undoable edit). */
@@ -318,7 +323,7 @@ export class DigitiseStore {
       view: s.view,
       frameSize: s.frameSize,
       readOnly: s.readOnly,
-      hit: (p) => hitTest(scene, p),
+      hit: (p, touch) => hitTest(scene, p, touch),
       handlePosition: (h) => handlePosition(scene, h),
     });
     const hover = ev.type === "move" && state.mode === "idle" && !s.readOnly ? hitTest(scene, ev.screen) : s.hover;

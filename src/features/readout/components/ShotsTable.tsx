@@ -46,7 +46,7 @@ export function ShotsTable({ shots, units, showPlayer, selected, onToggle }: Pro
                   onChange={() => onToggle(s.id)}
                 />
               </Td>
-              <Td>
+              <Td primary>
                 <Link to={`/readout/${s.id}`} className="font-medium text-ink hover:text-accent hover:underline">
                   {title}
                 </Link>
@@ -55,12 +55,12 @@ export function ShotsTable({ shots, units, showPlayer, selected, onToggle }: Pro
                   {s.venue ? ` · ${s.venue}` : ""} · {s.captureFps.toLocaleString()} fps
                 </span>
               </Td>
-              {showPlayer && <Td>{s.playerName ?? <span className="text-ink-faint">No player</span>}</Td>}
-              <Td>{s.stickLabel ?? <span className="text-ink-faint">—</span>}</Td>
-              <Td className="text-right font-medium tabular-nums">{formatValue("speed", s.puckExitSpeedMps, units)}</Td>
-              <Td className="text-right tabular-nums">{formatValue("time", s.loadTimeMs, units)}</Td>
-              <Td className="text-right tabular-nums">{formatValue("time", s.contactTimeMs, units)}</Td>
-              <Td>
+              {showPlayer && <Td label="Player">{s.playerName ?? <span className="text-ink-faint">No player</span>}</Td>}
+              <Td label="Stick">{s.stickLabel ?? <span className="text-ink-faint">—</span>}</Td>
+              <Td label="Puck exit speed" className="text-right font-medium tabular-nums">{formatValue("speed", s.puckExitSpeedMps, units)}</Td>
+              <Td label="Load" className="text-right tabular-nums">{formatValue("time", s.loadTimeMs, units)}</Td>
+              <Td label="Contact" className="text-right tabular-nums">{formatValue("time", s.contactTimeMs, units)}</Td>
+              <Td label="Status">
                 <span className="flex flex-wrap gap-1">
                   {s.hasResults ? <Badge tone="ok">Results</Badge> : <Badge tone="warn">Needs digitising</Badge>}
                   {s.sharedWithMe && <Badge tone="accent">Shared with you</Badge>}

@@ -35,10 +35,10 @@ export function InvitationsTable({ teamId, invitations }: { teamId: string; invi
               const expired = isExpired(inv);
               return (
                 <Tr key={inv.id}>
-                  <Td className="font-medium break-all">{inv.email}</Td>
-                  <Td>{roleLabel[inv.role] ?? inv.role}</Td>
+                  <Td primary className="font-medium break-all">{inv.email}</Td>
+                  <Td label="Role">{roleLabel[inv.role] ?? inv.role}</Td>
                   <Td className="hidden text-ink-muted md:table-cell">{inv.invitedBy}</Td>
-                  <Td>
+                  <Td label="Expires">
                     {expired ? (
                       <Badge tone="danger">Expired</Badge>
                     ) : (
@@ -47,7 +47,7 @@ export function InvitationsTable({ teamId, invitations }: { teamId: string; invi
                       </span>
                     )}
                   </Td>
-                  <Td className="text-right whitespace-nowrap">
+                  <Td data-actions className="text-right whitespace-nowrap">
                     <Button
                       variant="ghost"
                       size="sm"

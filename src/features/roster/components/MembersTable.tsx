@@ -58,14 +58,14 @@ export function MembersTable({ teamId, teamName, members, myUserId }: Props) {
             const busy = changeRole.isPending && changeRole.variables?.memberId === m.id;
             return (
               <Tr key={m.id}>
-                <Td>
+                <Td primary>
                   <div className="flex items-center gap-2 font-medium">
                     {m.name}
                     {me && <Badge tone="accent">You</Badge>}
                   </div>
                   <div className="text-ink-muted">{m.email}</div>
                 </Td>
-                <Td>
+                <Td label="Role">
                   <RoleSelect
                     compact
                     className="min-w-36"

@@ -28,19 +28,19 @@ export function BenchTestsTable({ tests, alertPercent, action }: { tests: readon
               const below = t.fit.percentOfRated !== null && t.fit.percentOfRated < alertPercent;
               return (
                 <Tr key={t.id} className="hover:bg-sunken/40">
-                  <Td>
+                  <Td primary>
                     <Link to={`bench-tests/${t.id}`} className="font-medium text-accent-strong hover:underline">
                       {formatDay(t.testedOn)}
                     </Link>
                   </Td>
-                  <Td className="text-right font-medium tabular-nums">{formatFlex(t.fit.measuredFlex)}</Td>
-                  <Td className={below ? "text-right font-medium text-warn tabular-nums" : "text-right tabular-nums"}>{formatPercent(t.fit.percentOfRated)}</Td>
-                  <Td className="hidden text-right tabular-nums sm:table-cell">{formatNumber(t.fit.r2, 4)}</Td>
+                  <Td label="Measured flex" className="text-right font-medium tabular-nums">{formatFlex(t.fit.measuredFlex)}</Td>
+                  <Td label="% of rated" className={below ? "text-right font-medium text-warn tabular-nums" : "text-right tabular-nums"}>{formatPercent(t.fit.percentOfRated)}</Td>
+                  <Td label="R²" className="hidden text-right tabular-nums sm:table-cell">{formatNumber(t.fit.r2, 4)}</Td>
                   <Td className="hidden text-ink-muted md:table-cell">
                     {format("length", t.spanMm, { digits: system === "imperial" ? 1 : 0 })}
                     {t.loadPointMm !== t.spanMm / 2 && <> · off-centre</>}
                   </Td>
-                  <Td>{t.fit.flags.length === 0 ? <Badge tone="ok">Straight line</Badge> : <Badge tone="warn">{t.fit.flags.length} to check</Badge>}</Td>
+                  <Td label="Checks">{t.fit.flags.length === 0 ? <Badge tone="ok">Straight line</Badge> : <Badge tone="warn">{t.fit.flags.length} to check</Badge>}</Td>
                 </Tr>
               );
             })}

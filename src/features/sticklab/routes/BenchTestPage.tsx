@@ -53,7 +53,7 @@ function BenchTestView({ teamId, detail, test }: { teamId: string; detail: Stick
           <BenchResult fit={test.fit} readings={test.readings} units={units} alertPercent={detail.flexAlertPercent} />
         </Card>
         <Card title="Readings" flush>
-          <Table caption="Readings">
+          <Table caption="Readings" cards={false}>
             <THead>
               <Tr>
                 <Th>#</Th>

@@ -4,8 +4,9 @@ import { markAt } from "../tracks";
 import { dist, toScreen, type Vec2, type View } from "../viewport";
 import type { Handle } from "./pointer-tool";
 
-/** Grab radius in screen px, whatever the zoom. */
+/** Grab radius in screen px, whatever the zoom; a fingertip covers about 7 mm, so touch grabs from farther. */
 export const HIT_RADIUS_PX = 10;
+export const TOUCH_HIT_RADIUS_PX = 22;
 
 export type ToolName = "mark" | "scaleBar" | "plane";
 
@@ -42,9 +43,9 @@ export function handlesOf(scene: HitScene): Handle[] {
 }
 
 /** The nearest offered handle within the grab radius of a stage position, or null. */
-export function hitTest(scene: HitScene, screen: Vec2): Handle | null {
+export function hitTest(scene: HitScene, screen: Vec2, touch = false): Handle | null {
   let best: Handle | null = null;
-  let bestD = HIT_RADIUS_PX;
+  let bestD = touch ? TOUCH_HIT_RADIUS_PX : HIT_RADIUS_PX;
   for (const h of handlesOf(scene)) {
     const p = handlePosition(scene, h);
     if (!p) continue;

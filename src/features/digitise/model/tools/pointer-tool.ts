@@ -26,13 +26,15 @@ export interface PointerInput {
   button?: number;
   /** Space held: drag pans whatever is under the pointer. */
   panKey?: boolean;
+  /** A finger rather than a mouse or pen: a tap wobbles more before it counts as a drag. */
+  touch?: boolean;
 }
 
 export interface ToolContext {
   view: View;
   frameSize: { width: number; height: number };
-  /** The handle under a stage position (the tool decides which handles it offers). */
-  hit(screen: Vec2): Handle | null;
+  /** The handle under a stage position (the tool decides which handles it offers); a finger grabs from farther. */
+  hit(screen: Vec2, touch?: boolean): Handle | null;
   /** Where the handle is now, in frame px. */
   handlePosition(h: Handle): Vec2 | null;
   readOnly: boolean;
@@ -53,8 +55,10 @@ export type ToolState =
   | { mode: "holding"; handle: Handle; start: Vec2; grab: Vec2; origin: Vec2 }
   | { mode: "dragging"; handle: Handle; grab: Vec2; origin: Vec2; at: Vec2 };
 
-/** Screen px a press may wander and still count as a click. */
+/** Screen px a press may wander and still count as a click (a finger wobbles more than a mouse). */
 export const CLICK_SLOP_PX = 4;
+export const TOUCH_SLOP_PX = 10;
+const slop = (ev: PointerInput) => (ev.touch ? TOUCH_SLOP_PX : CLICK_SLOP_PX);
 
 export const idle: ToolState = { mode: "idle" };
 
@@ -75,7 +79,7 @@ export function step(s: ToolState, ev: PointerInput, ctx: ToolContext): { state:
     case "idle": {
       if (ev.type !== "down") return none(s);
       if (ev.button === 1 || ev.button === 2 || ev.panKey) return none({ mode: "panning", last: ev.screen });
-      const h = ctx.readOnly ? null : ctx.hit(ev.screen);
+      const h = ctx.readOnly ? null : ctx.hit(ev.screen, ev.touch);
       const origin = h ? ctx.handlePosition(h) : null;
       if (h && origin) {
         const grab = toFrame(ctx.view, ev.screen);
@@ -85,7 +89,7 @@ export function step(s: ToolState, ev: PointerInput, ctx: ToolContext): { state:
     }
     case "pressing": {
       if (ev.type === "move") {
-        if (dist(ev.screen, s.start) <= CLICK_SLOP_PX) return none({ ...s, last: ev.screen });
+        if (dist(ev.screen, s.start) <= slop(ev)) return none({ ...s, last: ev.screen });
         return { state: { mode: "panning", last: ev.screen }, effects: [{ type: "pan", dx: ev.screen[0] - s.start[0], dy: ev.screen[1] - s.start[1] }] };
       }
       if (ev.type === "up") {
@@ -101,7 +105,7 @@ export function step(s: ToolState, ev: PointerInput, ctx: ToolContext): { state:
     }
     case "holding": {
       if (ev.type === "move") {
-        if (dist(ev.screen, s.start) <= CLICK_SLOP_PX) return none(s);
+        if (dist(ev.screen, s.start) <= slop(ev)) return none(s);
         const at = grabbed(ctx.view, ev.screen, s.grab);
         return { state: { mode: "dragging", handle: s.handle, grab: s.grab, origin: s.origin, at }, effects: [{ type: "preview", handle: s.handle, at }] };
       }

@@ -1,6 +1,6 @@
 // Frame prefetch policy with a fake loader: order, window, cancellation, eviction.
 import { describe, expect, it } from "vitest";
-import { capacityFor, FrameCache } from "@/features/digitise/model/frame-cache";
+import { capacityFor, FrameCache } from "@/components/shot/stepping/frame-cache";
 
 function fakeLoader() {
   const started: number[] = [];

@@ -1,9 +1,3 @@
-import { env } from "@/lib/env";
-
-/** A frame image of a clip (served by clip ingest, cached as immutable). Frames count from 1. */
-export const frameUrl = (teamId: string, clipId: string, n: number) =>
-  `${env.apiBase}/teams/${encodeURIComponent(teamId)}/clips/${encodeURIComponent(clipId)}/frames/${n}`;
-
 import type { LoaderReply } from "./frame-loader.worker";
 
 /**
