@@ -12,6 +12,7 @@ import { mountRawRoutes } from "./raw-routes";
 import { applyRateLimits } from "./security/rate-limits";
 import { sameOriginWrites } from "./security/same-origin";
 import { trustedOrigins } from "./security/origins";
+import { refuseWritesWhenUnpaid } from "./billing/read-only-guard";
 
 export const TRACKING_WORKER_CSP =
   "default-src 'self'; script-src 'self' 'unsafe-eval' 'wasm-unsafe-eval'; connect-src 'self'; img-src 'self' data: blob:; object-src 'none'";
@@ -45,6 +46,8 @@ export function createApp() {
   // Cross-site writes refused on every API route, better-auth's included.
   app.use("/api", sameOriginWrites(() => trustedOrigins()));
   applyRateLimits(app, e.RATE_LIMIT);
+  // A club whose payment is overdue past its grace: its teams take no writes (reads always work).
+  app.use(refuseWritesWhenUnpaid());
 
   // better-auth reads its own body: mount before express.json().
   const authHandler = toNodeHandler(auth());

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { DEFAULT_PRICE_IDS } from "../shared/billing/plans";
 
 // The whole server configuration, validated once at start-up. A bad or missing value stops the
 // process with one readable line per problem rather than failing later in a request.
@@ -33,11 +34,22 @@ const EnvSchema = z.object({
   FRAME_QUALITY: z.coerce.number().int().min(1).max(31).default(3),
   MAX_UPLOAD_BYTES: z.coerce.number().int().positive().default(4 * 1024 ** 3),
   MAX_PIXELS: z.coerce.number().int().positive().default(3840 * 2160),
-  TEAM_QUOTA_BYTES: z.coerce.number().int().positive().default(200 * 1024 ** 3),
   EMBEDDED_WORKER: bool.default(true),
   /** Web processes sharing PORT (node:cluster); 1 = this process serves requests itself. */
   WEB_PROCESSES: z.coerce.number().int().min(1).max(64).default(1),
   RATE_LIMIT: bool.default(true),
+  // The payment service, through its SDK (server/billing/payments.ts). Without a secret key, plans
+  // still apply but checkout is off. Host/port/protocol point the SDK at the local fake; unset,
+  // the SDK's own address is used (a real account).
+  PAYMENTS_SECRET_KEY: z.string().min(1).optional(),
+  PAYMENTS_WEBHOOK_SECRET: z.string().min(1).optional(),
+  PAYMENTS_API_HOST: z.string().min(1).optional(),
+  PAYMENTS_API_PORT: z.coerce.number().int().min(1).max(65535).optional(),
+  PAYMENTS_API_PROTOCOL: z.enum(["http", "https"]).optional(),
+  PAYMENTS_PRICE_RINK: z.string().min(1).default(DEFAULT_PRICE_IDS.rink),
+  PAYMENTS_PRICE_ARENA: z.string().min(1).default(DEFAULT_PRICE_IDS.arena),
+  /** Days a club keeps full use after a failed renewal before its teams turn read-only. */
+  BILLING_GRACE_DAYS: z.coerce.number().min(0).max(90).default(14),
   LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).default("info"),
 });
 

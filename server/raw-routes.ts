@@ -1,5 +1,6 @@
 import type { Express } from "express";
 import { mountUploads } from "./clips/uploads";
+import { mountBillingWebhook } from "./billing/webhook";
 import { ensureClipSweepScheduled } from "./jobs/clip-queue";
 import { queue } from "./jobs/runtime";
 
@@ -9,6 +10,7 @@ import { queue } from "./jobs/runtime";
  */
 export function mountRawRoutes(app: Express) {
   mountUploads(app);
+  mountBillingWebhook(app);
   // Once this process has started the queue, make sure the clip repair sweep is scheduled.
   setTimeout(() => {
     try {

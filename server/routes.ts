@@ -8,6 +8,8 @@ import { clipsRouter } from "./clips/routes";
 import { shotsRouter } from "./shots/routes";
 import { sticksRouter } from "./sticks/routes";
 import { readoutRouter } from "./readout/routes";
+import { billingRouter } from "./billing/routes";
+import { signupRouter } from "./signup/routes";
 
 // Every API router, in one list. Team-scoped features mount on `team` and find the caller's
 // role in req.actor (set by requireTeamMember: non-members get 404, so nothing leaks).
@@ -16,6 +18,7 @@ export function apiRouter() {
   api.use(healthRouter);
   api.use("/me", meRouter);
   api.use("/invitations", invitationRouter);
+  api.use("/signup", signupRouter);
 
   const team = Router({ mergeParams: true });
   team.use(requireTeamMember);
@@ -25,6 +28,7 @@ export function apiRouter() {
   team.use(shotsRouter);
   team.use(sticksRouter);
   team.use(readoutRouter);
+  team.use(billingRouter);
   api.use("/teams/:teamId", team);
   return api;
 }

@@ -5,7 +5,9 @@ import { auditLog, user } from "../db/schema";
 export type AuditAction =
   | "member.role_changed" | "member.removed" | "member.joined"
   | "invitation.created" | "invitation.resent" | "invitation.cancelled"
-  | "clip.deleted" | "shot.deleted" | "shot.shared" | "shot.unshared" | "stick.deleted" | "bench_test.deleted";
+  | "clip.deleted" | "shot.deleted" | "shot.shared" | "shot.unshared" | "stick.deleted" | "bench_test.deleted"
+  | "plan.changed" | "plan.cancel_scheduled" | "plan.cancel_withdrawn" | "billing.payment_failed" | "billing.read_only" | "billing.restored"
+  | "team.created";
 
 export async function recordAudit(e: { teamId: string; actorId: string | null; action: AuditAction; targetType: string; targetId?: string; detail?: Record<string, unknown> }) {
   await db().insert(auditLog).values({ ...e, detail: e.detail ?? {} });

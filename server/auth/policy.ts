@@ -15,6 +15,8 @@ export const policy = {
   manageRoster: (a: Actor) => a.role === "admin",
   viewAuditLog: (a: Actor) => a.role === "admin",
   manageTeamSettings: (a: Actor) => a.role === "admin",
+  /** The club's plan, payments and invoices, and new teams in the club. */
+  manageBilling: (a: Actor) => a.role === "admin",
   viewMembers: (a: Actor) => isStaff(a),
 
   uploadClip: (a: Actor) => isStaff(a),

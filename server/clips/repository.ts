@@ -3,7 +3,7 @@ import { and, asc, desc, eq, getTableColumns, inArray, isNotNull, lt, sql, type 
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
 import { preparedBy } from "../db/prepared";
-import { clip, shot, shotShare, stick, teamSettings, trainingSession, user } from "../db/schema";
+import { clip, shot, shotShare, stick, trainingSession, user } from "../db/schema";
 import type { ClipSort, ShotType } from "../../shared/schemas/clips";
 
 export type ClipRow = typeof clip.$inferSelect;
@@ -124,10 +124,6 @@ export async function teamUsageBytes(teamId: string): Promise<number> {
   return Number(row?.n ?? 0);
 }
 
-export async function teamQuotaBytes(teamId: string): Promise<number | null> {
-  const [row] = await db().select({ q: teamSettings.quotaBytes }).from(teamSettings).where(eq(teamSettings.teamId, teamId));
-  return row?.q ?? null;
-}
 
 
 export async function sessionsOf(teamId: string) {

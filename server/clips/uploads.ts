@@ -17,7 +17,9 @@ import { StorageError } from "../storage/types";
 import { ClipMetaSchema, type ClipMeta } from "../../shared/schemas/clips";
 import { checkMetaRefs, ClipProblem, ingestUpload } from "./ingest";
 import { tusDir } from "./deps";
-import { clipInTeam, teamQuotaBytes, teamUsageBytes } from "./repository";
+import { clipInTeam, teamUsageBytes } from "./repository";
+import { storageAllowance, storageRefusal } from "../billing/limits";
+import { storageText } from "../../shared/billing/plans";
 import { toSummary } from "./present";
 import { PgUploadLocker } from "./upload-lock";
 
@@ -27,8 +29,7 @@ export const STALE_UPLOAD_MS = 24 * 3600_000;
 
 type TusRequest = Parameters<NonNullable<ConstructorParameters<typeof Server>[0]["onIncomingRequest"]>>[0];
 
-const gb = (n: number) => `${(n / 1024 ** 3).toFixed(n < 10 * 1024 ** 3 ? 2 : 1)} GB`;
-const sizeText = (n: number) => (n >= 1024 ** 3 ? gb(n) : `${(n / 1024 ** 2).toFixed(1)} MB`);
+const sizeText = storageText;
 
 /** tus hooks answer by throwing { status_code, body }; our bodies are problem+json documents. */
 function tusProblem(status: number, code: string, detail: string, extra: Record<string, unknown> = {}) {
@@ -154,10 +155,12 @@ export function uploadServer(): Server {
           throw new ClipProblem(413, "too_large", `The file is ${sizeText(size)}; one clip can be at most ${sizeText(e.MAX_UPLOAD_BYTES)}. Trim the clip around the shot, or export it at a smaller size.`, { maxBytes: e.MAX_UPLOAD_BYTES });
         const meta = parseMeta(upload.metadata?.meta);
         await checkMetaRefs(actor.teamId, meta);
-        const quota = (await teamQuotaBytes(actor.teamId)) ?? e.TEAM_QUOTA_BYTES;
-        const used = (await teamUsageBytes(actor.teamId)) + (await pendingBytes(store, actor.teamId));
-        if (used + size > quota)
-          throw new ClipProblem(413, "quota_exceeded", `This upload (${sizeText(size)}) would take the team over its storage quota: ${sizeText(used)} of ${sizeText(quota)} are in use. Delete clips you no longer need, or ask your team admin for more space.`, { quotaBytes: quota, usedBytes: used });
+        // The club's plan sets the storage its teams share (server/billing/limits.ts).
+        const allowance = await storageAllowance(actor.teamId);
+        let used = 0;
+        for (const teamId of allowance.teamIds) used += (await teamUsageBytes(teamId)) + (await pendingBytes(store, teamId));
+        if (used + size > allowance.limitBytes)
+          throw new ClipProblem(413, "quota_exceeded", storageRefusal(allowance, size, used), { quotaBytes: allowance.limitBytes, usedBytes: used, plan: allowance.plan.id });
         const free = await statfs(tusDir()).then((s) => s.bavail * s.bsize).catch(() => Infinity);
         if (free < size * 2 + 512 * 1024 ** 2)
           throw new ClipProblem(507, "disk_full", "The server is short of disk space for this file right now. Try again later, or tell your team admin.");

@@ -5,6 +5,7 @@ import { sql } from "drizzle-orm";
 import { bigint, boolean, date, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { organization, user } from "./auth-schema";
 import type { ClipTiming } from "../../shared/schemas/clips";
+import { PLAN_IDS } from "../../shared/billing/plans";
 
 export * from "./auth-schema";
 
@@ -15,7 +16,6 @@ export const teamSettings = pgTable("team_settings", {
   teamId: text("team_id").primaryKey().references(() => organization.id, { onDelete: "cascade" }),
   /** Warn when a stick measures below this share of its rated flex. */
   flexAlertPercent: integer("flex_alert_percent").notNull().default(85),
-  quotaBytes: bigint("quota_bytes", { mode: "number" }),
 });
 
 export const userPrefs = pgTable("user_prefs", {
@@ -200,3 +200,59 @@ export const auditLog = pgTable(
   (t) => [index("audit_team_idx").on(t.teamId, t.createdAt)],
 );
 
+
+/**
+ * The paying unit: a club owns one or more teams and is on one plan. Its plan and subscription
+ * state change only from the payment service's webhooks (server/billing/sync.ts).
+ */
+export const club = pgTable("club", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  name: text("name").notNull(),
+  plan: text("plan", { enum: PLAN_IDS }).notNull().default("pond"),
+  /** The payment service's customer, made at the club's first checkout. */
+  customerId: text("customer_id").unique(),
+  subscriptionId: text("subscription_id"),
+  /** As the payment service says: active, past_due, unpaid, canceled … */
+  subscriptionStatus: text("subscription_status"),
+  currentPeriodEnd: timestamp("current_period_end", { withTimezone: true }),
+  cancelAtPeriodEnd: boolean("cancel_at_period_end").notNull().default(false),
+  /** When a renewal first failed; the grace period runs from here. Cleared once paid. */
+  pastDueSince: timestamp("past_due_since", { withTimezone: true }),
+  syncedAt: timestamp("synced_at", { withTimezone: true }),
+  createdAt: createdAt(),
+});
+
+export const clubTeam = pgTable(
+  "club_team",
+  {
+    teamId: text("team_id").primaryKey().references(() => organization.id, { onDelete: "cascade" }),
+    clubId: uuid("club_id").notNull().references(() => club.id, { onDelete: "cascade" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("club_team_club_idx").on(t.clubId)],
+);
+
+/** Every webhook event applied, by the service's event id: a second delivery is not applied again. */
+export const billingEvent = pgTable("billing_event", {
+  id: text("id").primaryKey(),
+  type: text("type").notNull(),
+  clubId: uuid("club_id").references(() => club.id, { onDelete: "set null" }),
+  /** The event's own creation time at the payment service. */
+  createdAtService: timestamp("created_at_service", { withTimezone: true }).notNull(),
+  receivedAt: timestamp("received_at", { withTimezone: true }).defaultNow().notNull(),
+});
+
+/** A pending club sign-up: the e-mail must be proven (a link with this token) before anything else. */
+export const signupRequest = pgTable(
+  "signup_request",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    email: text("email").notNull(),
+    /** SHA-256 of the token in the link; the token itself is only in the mail. */
+    tokenHash: text("token_hash").notNull().unique(),
+    expiresAt: timestamp("expires_at", { withTimezone: true }).notNull(),
+    usedAt: timestamp("used_at", { withTimezone: true }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("signup_request_email_idx").on(t.email)],
+);

@@ -15,7 +15,7 @@ export class HttpError extends Error {
 }
 
 const titles: Record<number, string> = {
-  400: "Bad request", 401: "Sign-in needed", 403: "Not allowed", 404: "Not found", 409: "Conflict",
+  400: "Bad request", 401: "Sign-in needed", 402: "Payment required", 403: "Not allowed", 404: "Not found", 409: "Conflict",
   410: "Gone", 413: "Too large", 415: "Unsupported media type", 422: "Invalid input", 429: "Too many requests",
   500: "Server error", 503: "Unavailable",
 };

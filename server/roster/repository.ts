@@ -67,3 +67,8 @@ export async function userExists(email: string) {
   const [row] = await db().select({ id: user.id }).from(user).where(eq(sql`lower(${user.email})`, email.toLowerCase()));
   return !!row;
 }
+
+export async function emailOfUser(userId: string): Promise<string> {
+  const [row] = await db().select({ email: user.email }).from(user).where(eq(user.id, userId));
+  return row?.email ?? "";
+}

@@ -7,6 +7,7 @@ import { forbidden, HttpError, notFound } from "../http/problem";
 import { type InvitationPublic, type Role, type RosterResponse } from "../../shared/schemas/roster";
 import { roleForList } from "../entities/member/role";
 import * as repo from "./repository";
+import { assertStaffSeat } from "../billing/limits";
 
 const asRole = roleForList;
 
@@ -26,6 +27,7 @@ export async function roster(a: Actor): Promise<RosterResponse> {
 export async function invite(a: Actor, headers: Headers, email: string, role: Role, resend = false) {
   requireAdmin(a);
   if (await repo.memberByEmail(a.teamId, email)) throw new HttpError(409, "already_member", `${email} is already a member of this team.`);
+  await assertStaffSeat(a.teamId, email, role);
   if (!resend && (await repo.pendingInvitationFor(a.teamId, email)))
     throw new HttpError(409, "already_invited", `${email} already has a pending invitation. Use "Resend" to send it again.`);
   const inv = await viaAuth(() => auth().api.createInvitation({ headers, body: { email, role, organizationId: a.teamId, resend } }));
@@ -64,6 +66,7 @@ async function guardLastAdmin(a: Actor, memberId: string, nextRole: Role | null)
 export async function changeRole(a: Actor, headers: Headers, memberId: string, role: Role) {
   requireAdmin(a);
   const m = await guardLastAdmin(a, memberId, role);
+  await assertStaffSeat(a.teamId, await repo.emailOfUser(m.userId), role);
   await viaAuth(() => auth().api.updateMemberRole({ headers, body: { memberId, role, organizationId: a.teamId } }));
   await recordAudit({ teamId: a.teamId, actorId: a.userId, action: "member.role_changed", targetType: "member", targetId: memberId, detail: { from: m.role, to: role, userId: m.userId } });
   return { id: memberId, role };

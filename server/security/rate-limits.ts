@@ -11,6 +11,8 @@ export const RATE_LIMITS = {
   signIn: 10,
   /** Invitations sent, re-sent or cancelled per address per minute. */
   invitations: 30,
+  /** Sign-up links asked for per address per minute (each sends a mail). */
+  signups: 5,
   /** Uploads started per address per minute (a resumable upload's chunks are not counted). */
   uploads: 60,
 } as const;
@@ -33,6 +35,7 @@ const postsOnly = (h: RequestHandler): RequestHandler => (req, res, next) => (re
 export function applyRateLimits(app: Express, enabled: boolean) {
   app.use("/api/auth/sign-in", limiter(RATE_LIMITS.signIn, "sign-in attempts", enabled));
   app.use("/api/teams/:teamId/invitations", writesOnly(limiter(RATE_LIMITS.invitations, "invitation changes", enabled)));
+  app.use("/api/signup", postsOnly(limiter(RATE_LIMITS.signups, "sign-up requests", enabled)));
   // tus: POST creates an upload; its PATCH chunks and HEAD resumes are not counted.
   app.use("/api/uploads", postsOnly(limiter(RATE_LIMITS.uploads, "uploads", enabled)));
 }

@@ -1,12 +1,13 @@
 import { eq } from "drizzle-orm";
 import { auth } from "../auth/auth";
 import { db } from "../db/client";
-import { member, organization, user } from "../db/schema";
+import { club, clubTeam, member, organization, user } from "../db/schema";
 import type { Role } from "../../shared/schemas/roster";
 
 // A made-up club for the demo: no real team, person or brand.
 export const DEMO_TEAM = { name: "Lakeport Ravens", slug: "lakeport-ravens" };
 export const DEMO_SECOND_TEAM = { name: "Lakeport Ravens U16", slug: "lakeport-ravens-u16" };
+export const DEMO_CLUB = "Lakeport Ravens";
 export const DEMO_PASSWORD = "ravens-demo-2026";
 
 export const demoPeople: { email: string; name: string; role: Role; alsoU16?: Role }[] = [
@@ -45,9 +46,17 @@ export interface DemoIds {
   users: Record<string, string>;
 }
 
+/** Both demo teams in one club, on the largest plan, granted (no subscription). */
+async function ensureDemoClub(teamIds: string[]) {
+  const [linked] = await db().select({ clubId: clubTeam.clubId }).from(clubTeam).where(eq(clubTeam.teamId, teamIds[0]!));
+  const clubId = linked?.clubId ?? (await db().insert(club).values({ name: DEMO_CLUB, plan: "arena" }).returning())[0]!.id;
+  for (const teamId of teamIds) await db().insert(clubTeam).values({ teamId, clubId }).onConflictDoNothing();
+}
+
 export async function seedPeople(): Promise<DemoIds> {
   const teamId = await ensureTeam(DEMO_TEAM);
   const secondTeamId = await ensureTeam(DEMO_SECOND_TEAM);
+  await ensureDemoClub([teamId, secondTeamId]);
   const users: Record<string, string> = {};
   for (const p of demoPeople) {
     const id = await ensureUser(p.email, p.name);

@@ -134,16 +134,26 @@ describe("unusable files are refused with their reason", () => {
     expect(tusLeftovers()).toEqual([]);
   });
 
-  it("an upload that would take the team over its quota, before any byte arrives", async () => {
+  it("an upload that would take the club over its plan's storage, before any byte arrives; nothing stored is touched", async () => {
     const { db } = await import("../../server/db/client");
-    const { teamSettings } = await import("../../server/db/schema");
-    await db().insert(teamSettings).values({ teamId: world.teamId, quotaBytes: 1000 }).onConflictDoUpdate({ target: teamSettings.teamId, set: { quotaBytes: 1000 } });
+    const { club, clip } = await import("../../server/db/schema");
+    const { clubOfTeam } = await import("../../server/billing/repository");
+    const { PLANS } = await import("../../shared/billing/plans");
+    const { eq } = await import("drizzle-orm");
+    const c = (await clubOfTeam(world.teamId))!;
+    await db().update(club).set({ plan: "pond" }).where(eq(club.id, c.id));
+    // The U16 side shares the club's storage: its clip counts too.
+    const [big] = await db().insert(clip).values({ teamId: world.secondTeamId, captureFps: 240, status: "ready", sizeBytes: PLANS.pond.storageBytes - 1000, title: "big" }).returning();
     try {
       const f = makeClip("quota.mp4", { frames: 30 });
-      const r = await expectRejected(f, "quota.mp4", 413, "quota_exceeded", /storage quota/);
+      const r = await expectRejected(f, "quota.mp4", 413, "quota_exceeded", /over the Pond plan's storage: 5\.00 GB of 5\.00 GB are in use/);
       expect(r.url).toBeNull(); // refused at creation: no upload URL was ever handed out
+      expect(r.body.plan).toBe("pond");
+      const [still] = await db().select({ id: clip.id }).from(clip).where(eq(clip.id, big!.id));
+      expect(still).toBeTruthy();
     } finally {
-      await db().update(teamSettings).set({ quotaBytes: null });
+      await db().delete(clip).where(eq(clip.id, big!.id));
+      await db().update(club).set({ plan: c.plan }).where(eq(club.id, c.id));
     }
   });
 

@@ -50,6 +50,7 @@ import { clipsRoutes } from "./routes/clips";
 import { shotsRoutes } from "./routes/shots";
 import { sticksRoutes } from "./routes/sticks";
 import { readoutRoutes } from "./routes/readout";
+import { billingRoutes } from "./routes/billing";
 
 export const ALL_ROLES = ALL, STAFF_ROLES = STAFF, ADMIN_ONLY = ADMIN;
 
@@ -66,4 +67,4 @@ const coreRoutes: RouteCase[] = [
   { name: "audit log", method: "GET", path: (c) => `/api/teams/${c.teamId}/audit`, allowed: ADMIN, teamScoped: true },
 ];
 
-export const routeTable: RouteCase[] = [...coreRoutes, ...clipsRoutes, ...shotsRoutes, ...sticksRoutes, ...readoutRoutes];
+export const routeTable: RouteCase[] = [...coreRoutes, ...clipsRoutes, ...shotsRoutes, ...sticksRoutes, ...readoutRoutes, ...billingRoutes];

@@ -3,8 +3,14 @@
 import { parseRole, roleLabels } from "@shared/schemas/roster";
 import type { AuditEntry } from "./api/auditLog";
 
-export type AuditGroup = "people" | "deletions" | "shares";
-export const groupLabels: Record<AuditGroup, string> = { people: "Members and invitations", deletions: "Deletions", shares: "Shares" };
+export type AuditGroup = "people" | "deletions" | "shares" | "plan";
+export const groupLabels: Record<AuditGroup, string> = { people: "Members and invitations", deletions: "Deletions", shares: "Shares", plan: "Plan and payments" };
+
+const planNames: Record<string, string> = { pond: "Pond", rink: "Rink", arena: "Arena" };
+const planName = (v: unknown) => (typeof v === "string" && planNames[v]) || "another plan";
+const dateOf = (v: unknown) => (typeof v === "string" ? new Date(v).toLocaleDateString(undefined, { dateStyle: "medium" }) : "the period's end");
+/** Plan changes come from the payment service, not from a person. */
+const SERVICE = "Payments";
 
 const str = (v: unknown) => (typeof v === "string" && v.trim() ? v : null);
 const role = (v: unknown) => {
@@ -66,6 +72,20 @@ export function describeAudit(e: AuditEntry, names: ReadonlyMap<string, string>)
       const who = (typeof d.userId === "string" && names.get(d.userId)) || str(d.name) || "a former member";
       return { group: "shares", actor, text: `stopped sharing ${quoted(d.title, "a shot")} with ${who}` };
     }
+    case "plan.changed":
+      return { group: "plan", actor: SERVICE, text: `moved the club from ${planName(d.from)} to ${planName(d.to)}` };
+    case "plan.cancel_scheduled":
+      return { group: "plan", actor: SERVICE, text: `recorded that ${planName(d.plan)} ends on ${dateOf(d.endsAt)} (cancelled by a team admin)` };
+    case "plan.cancel_withdrawn":
+      return { group: "plan", actor: SERVICE, text: `recorded that ${planName(d.plan)} goes on (the cancellation was withdrawn)` };
+    case "billing.payment_failed":
+      return { group: "plan", actor: SERVICE, text: `reported a failed renewal payment; everything keeps working until ${dateOf(d.graceEndsAt)}` };
+    case "billing.read_only":
+      return { group: "plan", actor: SERVICE, text: "made the club's teams read-only until the open invoice is paid (nothing deleted)" };
+    case "billing.restored":
+      return { group: "plan", actor: SERVICE, text: "recorded the payment: the club's teams are fully usable again" };
+    case "team.created":
+      return { group: "people", actor, text: `added the team ${quoted(d.name, "(unnamed)")} to the club` };
     default:
       return { group: e.targetType === "shot" ? "shares" : "people", actor, text: `${e.action.replace(/[._]/g, " ")} (${e.targetType})` };
   }
