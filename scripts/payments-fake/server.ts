@@ -10,6 +10,7 @@ import { readFileSync, writeFileSync } from "node:fs";
 import type { AddressInfo } from "node:net";
 import type { Server } from "node:http";
 import express, { type Request, type Response } from "express";
+import type Stripe from "stripe";
 import { chargesLater, digitsOf, outcomeOf } from "./cards";
 import { authenticatePage, cardPage, messagePage } from "./pages";
 
@@ -29,17 +30,19 @@ export interface FakeOptions {
   prices: Record<string, { unitAmount: number; currency?: string; product?: string }>;
 }
 
-type Obj = Record<string, any>;
+// The service's own types: the fake fills the fields Loadframe and the SDK read, and says so with
+// one cast where each object is made.
+type Session = Stripe.Checkout.Session & { price_id: string; pending_card?: string; subscription_data_metadata: Stripe.Metadata };
 interface Delivery { eventId: string; type: string; payload: string; signature: string; status: number | null; attempts: number }
 interface State {
   clockOffset: number;
-  customers: Record<string, Obj>;
-  sessions: Record<string, Obj>;
-  subscriptions: Record<string, Obj>;
-  invoices: Record<string, Obj>;
+  customers: Record<string, Stripe.Customer>;
+  sessions: Record<string, Session>;
+  subscriptions: Record<string, Stripe.Subscription>;
+  invoices: Record<string, Stripe.Invoice>;
   /** The card on file per customer (digits; the fake keeps no other card data). */
   cards: Record<string, string>;
-  events: Obj[];
+  events: Stripe.Event[];
   invoiceSeq: number;
 }
 
@@ -74,11 +77,11 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
   const now = () => Math.floor(Date.now() / 1000) + st.clockOffset;
   let publicUrl = opts.publicUrl ?? "";
 
-  const priceObj = (id: string): Obj | null => {
+  const priceObj = (id: string): Stripe.Price | null => {
     const p = opts.prices[id];
     if (!p) return null;
     return { id, object: "price", active: true, currency: p.currency ?? "usd", unit_amount: p.unitAmount, recurring: { interval: "month", interval_count: 1 },
-      product: p.product ?? `prod_${id}`, type: "recurring", livemode: false, lookup_key: null, metadata: {} };
+      product: p.product ?? `prod_${id}`, type: "recurring", livemode: false, lookup_key: null, metadata: {} } as unknown as Stripe.Price;
   };
 
   // --- webhooks: one queue, in order, retried; can be held and released (reversed) by tests ---
@@ -103,9 +106,9 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
       }
     });
   };
-  function emit(type: string, object: Obj, previous?: Obj) {
+  function emit(type: string, object: object, previous?: object) {
     const event = { id: newId("evt"), object: "event", api_version: "2026-10-28.endive", created: now(), livemode: false, pending_webhooks: 1,
-      request: { id: null, idempotency_key: null }, type, data: { object: structuredClone(object), ...(previous ? { previous_attributes: previous } : {}) } };
+      request: { id: null, idempotency_key: null }, type, data: { object: structuredClone(object), ...(previous ? { previous_attributes: previous } : {}) } } as unknown as Stripe.Event;
     st.events.push(event);
     const d: Delivery = { eventId: event.id, type, payload: JSON.stringify(event, null, 2), signature: "", status: null, attempts: 0 };
     deliveries.push(d);
@@ -114,8 +117,9 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
   }
 
   // --- money ---
-  function newInvoice(sub: Obj, amount: number, reason: string, description: string): Obj {
-    const cust = st.customers[sub.customer];
+  const customerOf = (x: { customer: string | Stripe.Customer | Stripe.DeletedCustomer | null }) => st.customers[x.customer as string]!;
+  function newInvoice(sub: Stripe.Subscription, amount: number, reason: Stripe.Invoice.BillingReason, description: string): Stripe.Invoice {
+    const cust = customerOf(sub);
     // A credit left by a downgrade is used first.
     const credit = Math.min(Math.max(-cust.balance, 0), Math.max(amount, 0));
     cust.balance += credit;
@@ -123,7 +127,7 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
     if (amount < 0) cust.balance += amount;
     const id = newId("in");
     const item = sub.items.data[0];
-    const inv: Obj = {
+    const inv = {
       id, object: "invoice", customer: sub.customer, livemode: false, created: now(), currency: item.price.currency,
       number: `LFK-${String(++st.invoiceSeq).padStart(4, "0")}`, billing_reason: reason, collection_method: "charge_automatically",
       status: "open", amount_due: due, amount_paid: 0, amount_remaining: due, subtotal: amount, total: amount, attempt_count: 0, attempted: false,
@@ -133,12 +137,12 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
       lines: { object: "list", data: [{ id: newId("il"), object: "line_item", amount, currency: item.price.currency, description,
         period: { start: item.current_period_start, end: item.current_period_end }, pricing: { price_details: { price: item.price.id } } }], has_more: false, url: `/v1/invoices/${id}/lines` },
       status_transitions: { finalized_at: now(), paid_at: null, voided_at: null, marked_uncollectible_at: null }, metadata: {},
-    };
+    } as unknown as Stripe.Invoice;
     st.invoices[id] = inv;
     sub.latest_invoice = id;
     return inv;
   }
-  function markPaid(inv: Obj) {
+  function markPaid(inv: Stripe.Invoice) {
     inv.status = "paid";
     inv.amount_paid = inv.amount_due;
     inv.amount_remaining = 0;
@@ -148,8 +152,8 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
     inv.next_payment_attempt = null;
   }
   /** Charge the card on file without the cardholder (renewals, prorations). */
-  function chargeOffSession(inv: Obj): boolean {
-    if (inv.amount_due === 0 || chargesLater(st.cards[inv.customer])) {
+  function chargeOffSession(inv: Stripe.Invoice): boolean {
+    if (inv.amount_due === 0 || chargesLater(st.cards[inv.customer as string])) {
       markPaid(inv);
       emit("invoice.paid", inv);
       return true;
@@ -160,7 +164,7 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
     emit("invoice.payment_failed", inv);
     return false;
   }
-  function setStatus(sub: Obj, status: string) {
+  function setStatus(sub: Stripe.Subscription, status: Stripe.Subscription.Status) {
     if (sub.status === status) return;
     const previous = { status: sub.status };
     sub.status = status;
@@ -193,16 +197,16 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
     };
     next();
   });
-  const list = (url: string, data: Obj[], limit: unknown) => {
+  const list = <T>(url: string, data: T[], limit: unknown) => {
     const n = Math.min(Math.max(Number(limit ?? 10) || 10, 1), 100);
     return { object: "list", url, has_more: data.length > n, data: data.slice(0, n) };
   };
-  const newestFirst = (a: Obj, b: Obj) => b.created - a.created || (b.id < a.id ? -1 : 1);
+  const newestFirst = (a: { created: number; id?: string }, b: { created: number; id?: string }) => b.created - a.created || ((b.id ?? "") < (a.id ?? "") ? -1 : 1);
 
   api.post("/customers", (req, res) => {
     const id = newId("cus");
     const c = { id, object: "customer", created: now(), email: req.body.email ?? null, name: req.body.name ?? null, metadata: req.body.metadata ?? {},
-      balance: 0, currency: "usd", delinquent: false, livemode: false, invoice_settings: { default_payment_method: null } };
+      balance: 0, currency: "usd", delinquent: false, livemode: false, invoice_settings: { default_payment_method: null } } as unknown as Stripe.Customer;
     st.customers[id] = c;
     res.json(c);
   });
@@ -226,11 +230,11 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
       client_reference_id: b.client_reference_id ?? null, metadata: b.metadata ?? {}, success_url: b.success_url, cancel_url: b.cancel_url,
       url: `${publicUrl}/pay/${id}`, subscription: null, invoice: null, created: now(), expires_at: now() + 24 * 3600, livemode: false,
       amount_total: price.unit_amount * Number(item.quantity ?? 1), currency: price.currency,
-      subscription_data_metadata: b.subscription_data?.metadata ?? {}, price_id: price.id };
+      subscription_data_metadata: b.subscription_data?.metadata ?? {}, price_id: price.id } as unknown as Session;
     st.sessions[id] = s;
     res.json(publicSession(s));
   });
-  const publicSession = (s: Obj) => {
+  const publicSession = (s: Session) => {
     const { subscription_data_metadata: _m, price_id: _p, pending_card: _c, ...rest } = s;
     return rest;
   };
@@ -256,7 +260,7 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
     if (!sub) return void fail(res, 404, `No such subscription: '${req.params.id}'`, "id");
     if (sub.status === "canceled") return void fail(res, 400, "A canceled subscription can only update its cancellation_details and metadata.");
     const b = req.body;
-    const previous: Obj = {};
+    const previous: Record<string, unknown> = {};
     const newItem = b.items?.[0];
     let proration: number | null = null;
     if (newItem) {
@@ -268,7 +272,6 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
         proration = prorationOf(sub, price);
         previous.items = structuredClone(sub.items);
         item.price = price;
-        sub.plan = price;
       }
     }
     if (b.cancel_at_period_end !== undefined) {
@@ -287,21 +290,21 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
         const inv = newInvoice(sub, proration, "subscription_update", `Change to ${sub.items.data[0].price.id} for the rest of the period`);
         if (!chargeOffSession(inv)) setStatus(sub, "past_due");
       } else {
-        st.customers[sub.customer].balance += proration; // billed (or credited) with the next renewal
+        customerOf(sub).balance += proration; // billed (or credited) with the next renewal
       }
     }
     res.json(sub);
   });
-  function prorationOf(sub: Obj, price: Obj, at = now()) {
+  function prorationOf(sub: Stripe.Subscription, price: Stripe.Price, at = now()) {
     const item = sub.items.data[0];
     const span = item.current_period_end - item.current_period_start;
     const left = Math.min(Math.max(item.current_period_end - at, 0), span) / span;
-    return Math.round((price.unit_amount - item.price.unit_amount) * left);
+    return Math.round(((price.unit_amount ?? 0) - (item.price.unit_amount ?? 0)) * left);
   }
 
   api.get("/invoices", (req, res) => {
     const invs = Object.values(st.invoices).filter((i) => (!req.query.customer || i.customer === req.query.customer)
-      && (!req.query.subscription || i.parent.subscription_details.subscription === req.query.subscription));
+      && (!req.query.subscription || i.parent?.subscription_details?.subscription === req.query.subscription));
     res.json(list("/v1/invoices", invs.sort(newestFirst), req.query.limit));
   });
   api.post("/invoices/create_preview", (req, res) => {
@@ -312,7 +315,7 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
     const price = it && priceObj(it.price);
     if (!price) return void fail(res, 400, "Preview needs subscription_details[items][0][price].", "subscription_details");
     const amount = prorationOf(sub, price, Number(b.subscription_details?.proration_date) || now());
-    const credit = Math.max(-st.customers[sub.customer].balance, 0);
+    const credit = Math.max(-customerOf(sub).balance, 0);
     res.json({ id: `upcoming_${newId("in")}`, object: "invoice", customer: sub.customer, currency: price.currency, livemode: false, created: now(),
       subtotal: amount, total: amount, amount_due: Math.max(amount - credit, 0), amount_paid: 0, amount_remaining: Math.max(amount - credit, 0), status: "draft",
       lines: { object: "list", data: [], has_more: false, url: "/v1/invoices/upcoming/lines" } });
@@ -327,15 +330,15 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
     if (!s) res.status(404).send(messagePage("Not found", "This payment page does not exist."));
     return s;
   };
-  const checkoutForm = (s: Obj, error?: string) =>
-    cardPage({ title: "Subscribe", lineItem: `Monthly plan (${s.price_id})`, amountCents: s.amount_total, currency: s.currency, action: `/pay/${s.id}`, error, cancelUrl: s.cancel_url, email: s.customer_email });
-  const successUrl = (s: Obj) => s.success_url.replace("{CHECKOUT_SESSION_ID}", s.id);
+  const checkoutForm = (s: Session, error?: string) =>
+    cardPage({ title: "Subscribe", lineItem: `Monthly plan (${s.price_id})`, amountCents: s.amount_total ?? 0, currency: s.currency ?? "usd", action: `/pay/${s.id}`, error, cancelUrl: s.cancel_url, email: s.customer_email });
+  const successUrl = (s: Session) => (s.success_url ?? "/").replace("{CHECKOUT_SESSION_ID}", s.id);
 
   pages.get("/pay/:id", (req, res) => {
     const s = sessionOr404(req, res);
     if (!s) return;
     if (s.status === "complete") return void res.redirect(303, successUrl(s));
-    if (s.expires_at < now()) return void res.send(messagePage("This page has expired", "Start the checkout again from the app.", { url: s.cancel_url, label: "Go back" }));
+    if (s.expires_at < now()) return void res.send(messagePage("This page has expired", "Start the checkout again from the app.", { url: s.cancel_url ?? "/", label: "Go back" }));
     res.send(checkoutForm(s));
   });
   pages.post("/pay/:id", (req, res) => {
@@ -357,7 +360,7 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
     const s = sessionOr404(req, res);
     if (!s) return;
     if (!s.pending_card) return void res.redirect(303, `/pay/${s.id}`);
-    res.send(authenticatePage({ action: `/pay/${s.id}/authenticate`, amountCents: s.amount_total, currency: s.currency }));
+    res.send(authenticatePage({ action: `/pay/${s.id}/authenticate`, amountCents: s.amount_total ?? 0, currency: s.currency ?? "usd" }));
   });
   pages.post("/pay/:id/authenticate", (req, res) => {
     const s = sessionOr404(req, res);
@@ -372,7 +375,7 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
     completeCheckout(s, card);
     res.redirect(303, successUrl(s));
   });
-  function cardProblem(card: string, body: Obj): string | null {
+  function cardProblem(card: string, body: Record<string, unknown>): string | null {
     const o = outcomeOf(card);
     if (o === "invalid") return "Your card number is incomplete or not a number.";
     if (o === "not_test_card") return "Your card was declined. This is a test page: use one of the test card numbers below.";
@@ -381,20 +384,20 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
     if (o === "declined") return "Your card was declined.";
     return null;
   }
-  function completeCheckout(s: Obj, card: string) {
+  function completeCheckout(s: Session, card: string) {
     const price = priceObj(s.price_id)!;
     const t = now();
     const subId = newId("sub");
-    const sub: Obj = {
+    const sub = {
       id: subId, object: "subscription", customer: s.customer, status: "active", created: t, start_date: t, livemode: false,
       cancel_at_period_end: false, cancel_at: null, canceled_at: null, ended_at: null, collection_method: "charge_automatically", currency: price.currency,
       metadata: s.subscription_data_metadata ?? {}, latest_invoice: null, default_payment_method: null,
       items: { object: "list", has_more: false, url: `/v1/subscription_items?subscription=${subId}`,
         data: [{ id: newId("si"), object: "subscription_item", price, quantity: 1, subscription: subId, created: t, current_period_start: t, current_period_end: t + PERIOD_S }] },
-    };
+    } as unknown as Stripe.Subscription;
     st.subscriptions[subId] = sub;
-    st.cards[s.customer] = card;
-    const inv = newInvoice(sub, price.unit_amount, "subscription_create", `1 × ${price.id}`);
+    st.cards[s.customer as string] = card;
+    const inv = newInvoice(sub, price.unit_amount ?? 0, "subscription_create", `1 × ${price.id}`);
     markPaid(inv);
     Object.assign(s, { status: "complete", payment_status: "paid", subscription: subId, invoice: inv.id });
     emit("customer.subscription.created", sub);
@@ -403,8 +406,8 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
     save();
   }
 
-  const invoiceForm = (inv: Obj, error?: string) =>
-    cardPage({ title: `Invoice ${inv.number}`, lineItem: inv.description, amountCents: inv.amount_remaining, currency: inv.currency, action: `/invoice/${inv.id}`, error });
+  const invoiceForm = (inv: Stripe.Invoice, error?: string) =>
+    cardPage({ title: `Invoice ${inv.number}`, lineItem: inv.description ?? "", amountCents: inv.amount_remaining, currency: inv.currency, action: `/invoice/${inv.id}`, error });
   pages.get("/invoice/:id", (req, res) => {
     const inv = st.invoices[String(req.params.id)];
     if (!inv) return void res.status(404).send(messagePage("Not found", "This invoice does not exist."));
@@ -418,10 +421,10 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
     const card = digitsOf(String(req.body.card ?? ""));
     const problem = cardProblem(card, req.body);
     if (problem) return void res.status(402).send(invoiceForm(inv, problem));
-    st.cards[inv.customer] = card; // paying with a card makes it the card on file
+    st.cards[inv.customer as string] = card; // paying with a card makes it the card on file
     markPaid(inv);
     emit("invoice.paid", inv);
-    const sub = st.subscriptions[inv.parent.subscription_details.subscription];
+    const sub = st.subscriptions[inv.parent?.subscription_details?.subscription as string];
     if (sub && sub.latest_invoice === inv.id && (sub.status === "past_due" || sub.status === "unpaid")) setStatus(sub, "active");
     save();
     res.send(messagePage("Paid, thank you", `Invoice ${inv.number} is paid.`));
@@ -437,10 +440,10 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
   ctl.post("/subscriptions/:id/renew", (req, res) => {
     const sub = st.subscriptions[String(req.params.id)];
     if (!sub) return void res.status(404).json({ error: "no such subscription" });
-    if (req.body?.card) st.cards[sub.customer] = digitsOf(String(req.body.card));
+    if (req.body?.card) st.cards[sub.customer as string] = digitsOf(String(req.body.card));
     const item = sub.items.data[0];
     if (sub.status === "past_due" || sub.status === "unpaid") {
-      const inv = st.invoices[sub.latest_invoice];
+      const inv = st.invoices[sub.latest_invoice as string];
       if (inv?.status === "open") {
         if (chargeOffSession(inv)) setStatus(sub, "active");
         else setStatus(sub, "unpaid");
@@ -456,7 +459,7 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
         item.current_period_start = item.current_period_end;
         item.current_period_end = item.current_period_start + PERIOD_S;
         emit("customer.subscription.updated", sub, previous);
-        const inv = newInvoice(sub, item.price.unit_amount, "subscription_cycle", `1 × ${item.price.id}`);
+        const inv = newInvoice(sub, item.price.unit_amount ?? 0, "subscription_cycle", `1 × ${item.price.id}`);
         if (!chargeOffSession(inv)) setStatus(sub, "past_due");
       }
     }

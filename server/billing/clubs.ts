@@ -1,9 +1,6 @@
 // Clubs and the teams they own: finding a team's club (making one for a team that has none) and
 // adding a team to a club. Used by billing, by the plan limits and by the new club's sign-up.
-import { eq } from "drizzle-orm";
 import { randomBytes } from "node:crypto";
-import { db } from "../db/client";
-import { club, member, organization } from "../db/schema";
 import { FREE_PLAN, type PlanId } from "../../shared/billing/plans";
 import * as repo from "./repository";
 
@@ -11,12 +8,11 @@ import * as repo from "./repository";
 export async function clubFor(teamId: string): Promise<repo.ClubRow> {
   const found = await repo.clubOfTeam(teamId);
   if (found) return found;
-  const [team] = await db().select({ name: organization.name }).from(organization).where(eq(organization.id, teamId));
-  const made = await repo.createClub({ name: team?.name ?? "Club", plan: FREE_PLAN });
+  const made = await repo.createClub({ name: (await repo.teamName(teamId)) ?? "Club", plan: FREE_PLAN });
   await repo.addTeamToClub(made.id, teamId);
   const mine = await repo.clubOfTeam(teamId);
   // Two requests raced: keep the club that won, drop ours.
-  if (mine && mine.id !== made.id) await db().delete(club).where(eq(club.id, made.id));
+  if (mine && mine.id !== made.id) await repo.deleteClub(made.id);
   return mine ?? made;
 }
 
@@ -25,10 +21,8 @@ const slugOf = (name: string) =>
 
 /** A new team in the club with `adminId` as its team admin, inside `tx` (or a transaction of its own). */
 export async function createTeamInClub(clubId: string, name: string, adminId: string, tx?: repo.Tx): Promise<{ id: string; name: string }> {
-  if (!tx) return db().transaction((t) => createTeamInClub(clubId, name, adminId, t));
-  const id = crypto.randomUUID();
-  await tx.insert(organization).values({ id, name, slug: slugOf(name), createdAt: new Date() });
-  await tx.insert(member).values({ id: crypto.randomUUID(), organizationId: id, userId: adminId, role: "admin", createdAt: new Date() });
+  if (!tx) return repo.inTransaction((t) => createTeamInClub(clubId, name, adminId, t));
+  const id = await repo.insertTeamWithAdmin(tx, { name, slug: slugOf(name), adminId });
   await repo.addTeamToClub(clubId, id, tx);
   return { id, name };
 }

@@ -99,3 +99,22 @@ export async function isClubAdmin(clubId: string, userId: string) {
     .where(and(eq(clubTeam.clubId, clubId), eq(member.userId, userId), sql`${firstRole} = 'admin'`)).limit(1);
   return !!row;
 }
+
+export async function teamName(teamId: string) {
+  const [row] = await db().select({ name: organization.name }).from(organization).where(eq(organization.id, teamId));
+  return row?.name ?? null;
+}
+
+export async function deleteClub(id: string) {
+  await db().delete(club).where(eq(club.id, id));
+}
+
+export const inTransaction = <T>(fn: (tx: Tx) => Promise<T>) => db().transaction(fn);
+
+/** A team (better-auth's organization row) with its first member, a team admin. */
+export async function insertTeamWithAdmin(tx: Tx, t: { name: string; slug: string; adminId: string }) {
+  const id = crypto.randomUUID();
+  await tx.insert(organization).values({ id, name: t.name, slug: t.slug, createdAt: new Date() });
+  await tx.insert(member).values({ id: crypto.randomUUID(), organizationId: id, userId: t.adminId, role: "admin", createdAt: new Date() });
+  return id;
+}
