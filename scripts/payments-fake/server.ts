@@ -201,7 +201,8 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
     const n = Math.min(Math.max(Number(limit ?? 10) || 10, 1), 100);
     return { object: "list", url, has_more: data.length > n, data: data.slice(0, n) };
   };
-  const newestFirst = (a: { created: number; id?: string }, b: { created: number; id?: string }) => b.created - a.created || ((b.id ?? "") < (a.id ?? "") ? -1 : 1);
+  /** Newest first; within one second, the later made first (the store keeps the order they were made in). */
+  const newestFirst = <T extends { created: number }>(made: T[]) => [...made].reverse().sort((a, b) => b.created - a.created);
 
   api.post("/customers", (req, res) => {
     const id = newId("cus");
@@ -248,7 +249,7 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
     const status = String(req.query.status ?? "");
     let subs = Object.values(st.subscriptions).filter((s) => !req.query.customer || s.customer === req.query.customer);
     if (status !== "all") subs = subs.filter((s) => (status ? s.status === status : s.status !== "canceled"));
-    res.json(list("/v1/subscriptions", subs.sort(newestFirst), req.query.limit));
+    res.json(list("/v1/subscriptions", newestFirst(subs), req.query.limit));
   });
   api.get("/subscriptions/:id", (req, res) => {
     const s = st.subscriptions[String(req.params.id)];
@@ -305,7 +306,7 @@ export async function startPaymentsFake(opts: FakeOptions): Promise<PaymentsFake
   api.get("/invoices", (req, res) => {
     const invs = Object.values(st.invoices).filter((i) => (!req.query.customer || i.customer === req.query.customer)
       && (!req.query.subscription || i.parent?.subscription_details?.subscription === req.query.subscription));
-    res.json(list("/v1/invoices", invs.sort(newestFirst), req.query.limit));
+    res.json(list("/v1/invoices", newestFirst(invs), req.query.limit));
   });
   api.post("/invoices/create_preview", (req, res) => {
     const b = req.body;
