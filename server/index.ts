@@ -8,6 +8,7 @@ import { db } from "./db/client";
 import { startDraining } from "./health/draining";
 import { onShutdown } from "./shutdown";
 import { closeUploads } from "./clips/uploads";
+import { closeCpuPool, startCpuPool } from "./cpu/pool";
 import { superviseWebProcesses } from "./web-processes";
 
 async function main() {
@@ -28,6 +29,7 @@ async function main() {
     process.exit(1);
   });
   await startJobs({ work: e.EMBEDDED_WORKER });
+  startCpuPool();
   server.listen(e.PORT, e.HOST, () => log.info({ url: `http://${e.HOST}:${e.PORT}` }, "Loadframe is listening"));
 
   // Graceful shutdown: /api/ready turns 503, no new connections, running requests get a grace
@@ -39,7 +41,7 @@ async function main() {
     server.closeIdleConnections();
     setTimeout(() => server.closeAllConnections(), 10_000).unref();
     await Promise.all([closed, stopJobs()]);
-    await Promise.all([db().pool.end(), closeUploads()]);
+    await Promise.all([db().pool.end(), closeUploads(), closeCpuPool()]);
   });
 }
 

@@ -40,7 +40,10 @@ export function zodToHttp(err: ZodError): HttpError {
 /** Last middleware: every thrown error becomes problem+json; unknown ones are logged, not shown. */
 export const problemHandler: ErrorRequestHandler = (err, req, res, _next) => {
   if (res.headersSent) return;
-  if (err instanceof HttpError) return sendProblem(res, err.status, err.code, err.message, err.errors);
+  if (err instanceof HttpError) {
+    if (err.status === 503) res.setHeader("Retry-After", "5");
+    return sendProblem(res, err.status, err.code, err.message, err.errors);
+  }
   if (err instanceof ZodError) {
     const h = zodToHttp(err);
     return sendProblem(res, h.status, h.code, h.message, h.errors);

@@ -1,7 +1,8 @@
 import { sql } from "drizzle-orm";
 import { db } from "../db/client";
 import { log } from "../log";
-import { computeShot, ENGINE_VERSION, isMechanicsInputError } from "../../shared/mechanics/index";
+import { ENGINE_VERSION } from "../../shared/mechanics/index";
+import { offLoop } from "../cpu/pool";
 import { DEFAULT_BENCH_SPAN_MM } from "../../shared/schemas/shot-document";
 import { shotFrameTimes } from "../../shared/schemas/clips";
 import { toShotDocument, type ShotStickInfo, type StoredResult } from "../../shared/schemas/shots";
@@ -50,10 +51,13 @@ export async function recomputeShot(shotId: string): Promise<StoredResult | null
     let error: string | null = built.missing;
     if (built.doc) {
       try {
-        results = computeShot(built.doc);
+        // In a worker thread: the engine's Monte Carlo takes tens of milliseconds of CPU.
+        const out = await offLoop("computeShot", built.doc);
+        if ("results" in out) results = out.results;
+        else error = `The marks cannot give results yet: ${out.inputError}`;
       } catch (e) {
-        if (!isMechanicsInputError(e)) log.error({ err: e, shotId }, "mechanics engine failed");
-        error = isMechanicsInputError(e) ? `The marks cannot give results yet: ${e.message}` : `The mechanics engine failed on this shot: ${(e as Error).message}`;
+        log.error({ err: e, shotId }, "mechanics engine failed");
+        error = `The mechanics engine failed on this shot: ${(e as Error).message}`;
       }
     }
     const row = await repo.upsertResult(tx, { shotId, teamId: shot.teamId, engineVersion: ENGINE_VERSION, results, error, shotVersion: shot.version });

@@ -9,6 +9,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { Client, EMAILS, seedWorld, startServer, type TestServer } from "./helpers";
 import { insertShotWithResults } from "./routes/readout";
 import { DEMO_PASSWORD } from "../../server/seed/demo-people";
+import { MAX_REPORTS_AT_ONCE, renderShotReport } from "../../server/readout/pdf/render";
+import { HttpError } from "../../server/http/problem";
 
 let srv: TestServer;
 let world: Awaited<ReturnType<typeof seedWorld>>;
@@ -136,6 +138,19 @@ describe("PDF report", () => {
     expect(imp).toContain(`${(s.results!.puckExitSpeed.valueMps / 0.44704).toFixed(1)}`);
     expect(imp).toContain("mph");
     expect(imp).not.toContain("km/h");
+  });
+
+  it("more reports at once than a process makes: the extra ones are refused at once as busy, the rest are made (in worker threads)", async () => {
+    const s = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Many reports" });
+    const readout = (await coach.get(`${R()}/shots/${s.shotId}`)).json;
+    const input = { readout, units: "metric" as const, teamName: "Lakeport Ravens", url: "http://127.0.0.1:3000/x", generatedAt: new Date(), thumbs: {} };
+    const out = await Promise.all(Array.from({ length: MAX_REPORTS_AT_ONCE + 2 }, () => renderShotReport(input).catch((e: unknown) => e)));
+    const busy = out.filter((o) => o instanceof HttpError);
+    expect(busy.map((e) => [(e as HttpError).status, (e as HttpError).code])).toEqual([[503, "busy"], [503, "busy"]]);
+    const pdfs = out.filter((o): o is Buffer => Buffer.isBuffer(o));
+    expect(pdfs).toHaveLength(MAX_REPORTS_AT_ONCE);
+    for (const pdf of pdfs) expect(pdf.subarray(0, 5).toString()).toBe("%PDF-");
+    expect(pdfText(pdfs[0]).text).toContain("Many reports");
   });
 
   it("a shot one may not see: 404 for every export, nothing of it in the answer", async () => {

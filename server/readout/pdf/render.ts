@@ -1,14 +1,12 @@
-import { createElement } from "react";
-import { renderToBuffer, type DocumentProps } from "@react-pdf/renderer";
-import type { ReactElement } from "react";
 import sharp from "sharp";
 import { storage } from "../../clips/deps";
 import { clipKeys } from "../../storage";
 import { log } from "../../log";
 import type { ShotEventKey } from "../../../shared/schemas/shots";
 import type { ShotReadout } from "../../../shared/schemas/readout";
-import { registerFonts } from "./fonts";
-import { ShotReport, type ReportInput } from "./report";
+import { offLoop } from "../../cpu/pool";
+import { HttpError } from "../../http/problem";
+import type { ReportInput } from "./report";
 
 async function readAll(body: NodeJS.ReadableStream): Promise<Buffer> {
   const chunks: Buffer[] = [];
@@ -35,7 +33,19 @@ export async function eventThumbs(r: ShotReadout): Promise<Partial<Record<ShotEv
   return out;
 }
 
+/** Reports being made by this process at most; more answer 503 at once instead of queueing. */
+export const MAX_REPORTS_AT_ONCE = 16;
+let rendering = 0;
+
+/** The report's PDF, laid out in a worker thread so requests keep being answered meanwhile. */
 export async function renderShotReport(input: ReportInput): Promise<Buffer> {
-  registerFonts();
-  return renderToBuffer(createElement(ShotReport, input) as unknown as ReactElement<DocumentProps>);
+  if (rendering >= MAX_REPORTS_AT_ONCE)
+    throw new HttpError(503, "busy", "The server is making many reports right now. Try again in a few seconds.");
+  rendering++;
+  try {
+    const pdf = await offLoop("shotReportPdf", input);
+    return Buffer.from(pdf.buffer, pdf.byteOffset, pdf.byteLength);
+  } finally {
+    rendering--;
+  }
 }
