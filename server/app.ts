@@ -7,6 +7,9 @@ import { auth } from "./auth/auth";
 import { env } from "./env";
 import { requestLog } from "./log";
 import { problemHandler, sendProblem } from "./http/problem";
+import { refuseControlCharactersInUrl } from "./http/request-guards";
+import { asProblemResponse } from "./http/better-auth-errors";
+import { authRouteGuard } from "./auth/http-routes";
 import { apiRouter } from "./routes";
 import { mountRawRoutes } from "./raw-routes";
 import { applyRateLimits } from "./security/rate-limits";
@@ -43,14 +46,17 @@ export function createApp() {
     }),
   );
 
+  app.use("/api", refuseControlCharactersInUrl);
   // Cross-site writes refused on every API route, better-auth's included.
   app.use("/api", sameOriginWrites(() => trustedOrigins()));
   applyRateLimits(app, e.RATE_LIMIT);
   // A club whose payment is overdue past its grace: its teams take no writes (reads always work).
   app.use(refuseWritesWhenUnpaid());
 
-  // better-auth reads its own body: mount before express.json().
-  const authHandler = toNodeHandler(auth());
+  // better-auth: only the routes the product uses, with a small checked body (mounted before
+  // express.json()); its error answers rewritten as problem+json.
+  app.use("/api/auth", authRouteGuard);
+  const authHandler = toNodeHandler(async (request: Request) => asProblemResponse(await auth().handler(request)));
   app.all("/api/auth/*splat", (req, res) => void authHandler(req, res));
 
   mountRawRoutes(app);

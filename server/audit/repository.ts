@@ -9,8 +9,11 @@ export type AuditAction =
   | "plan.changed" | "plan.cancel_scheduled" | "plan.cancel_withdrawn" | "billing.payment_failed" | "billing.read_only" | "billing.restored"
   | "team.created";
 
-export async function recordAudit(e: { teamId: string; actorId: string | null; action: AuditAction; targetType: string; targetId?: string; detail?: Record<string, unknown> }) {
-  await db().insert(auditLog).values({ ...e, detail: e.detail ?? {} });
+type Executor = Pick<ReturnType<typeof db>, "insert">;
+
+/** Pass the transaction as `executor` when the change and its entry must land together. */
+export async function recordAudit(e: { teamId: string; actorId: string | null; action: AuditAction; targetType: string; targetId?: string; detail?: Record<string, unknown> }, executor: Executor = db()) {
+  await executor.insert(auditLog).values({ ...e, detail: e.detail ?? {} });
 }
 
 export async function listAudit(teamId: string, limit = 200) {

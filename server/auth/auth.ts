@@ -1,4 +1,5 @@
 import { betterAuth } from "better-auth";
+import { APIError } from "better-auth/api";
 import { drizzleAdapter } from "better-auth/adapters/drizzle";
 import { organization } from "better-auth/plugins";
 import { ac, roles } from "./roles";
@@ -7,10 +8,27 @@ import * as schema from "../db/schema";
 import { env } from "../env";
 import { sendMail } from "../mail/mailer";
 import { inviteMail, resetPasswordMail } from "../mail/templates";
+import { unsafeTextProblem, TEXT_LIMITS } from "../../shared/schemas/text";
+import { CLIENT_ADDRESS_HEADER } from "./http-routes";
+import { claimUnverifiedAccount } from "./repository";
+import { isProductSignUp } from "./sign-up-gate";
 
 const INVITATION_TTL_S = 7 * 24 * 3600;
 /** How long a signed-out or revoked session can still be honoured by another browser tab or device. */
 export const SESSION_CACHE_S = 60;
+
+/** Origins allowed to send writes: the public address, plus the local ones while developing. */
+export function trustedOriginsFor(e: { PUBLIC_URL: string; NODE_ENV: string }): string[] {
+  const dev = ["http://127.0.0.1:3000", "http://localhost:3000", "http://127.0.0.1:5173", "http://localhost:5173"];
+  return e.NODE_ENV === "production" ? [new URL(e.PUBLIC_URL).origin] : [...new Set([new URL(e.PUBLIC_URL).origin, ...dev])];
+}
+
+/** Whatever route of the library writes a user, the name obeys the same rules as everywhere. */
+function checkName(name: unknown) {
+  if (name === undefined) return;
+  const problem = typeof name !== "string" ? "must be text" : name.trim().length > TEXT_LIMITS.name ? `can be at most ${TEXT_LIMITS.name} characters` : unsafeTextProblem(name);
+  if (problem) throw new APIError("UNPROCESSABLE_ENTITY", { code: "VALIDATION_FAILED", message: `Name ${problem}` });
+}
 
 function makeAuth() {
   const e = env();
@@ -19,19 +37,42 @@ function makeAuth() {
     basePath: "/api/auth",
     secret: e.AUTH_SECRET,
     database: drizzleAdapter(db(), { provider: "pg", schema }),
-    trustedOrigins: [e.PUBLIC_URL, "http://127.0.0.1:3000", "http://localhost:3000", "http://127.0.0.1:5173", "http://localhost:5173"],
+    trustedOrigins: trustedOriginsFor(e),
     emailAndPassword: {
       enabled: true,
       minPasswordLength: 10,
+      maxPasswordLength: 128,
       resetPasswordTokenExpiresIn: 3600,
+      // The mail names nobody: the account's name may be whatever its maker typed.
       sendResetPassword: async ({ user, url }) => {
-        await sendMail(resetPasswordMail({ to: user.email, name: user.name, url }));
+        await sendMail(resetPasswordMail({ to: user.email, url }));
+      },
+      // A reset proves the address: every session of the account ends (the stranger who made it
+      // or stole a cookie is out), and an account nobody had proved is claimed by its owner.
+      revokeSessionsOnPasswordReset: true,
+      onPasswordReset: async ({ user }) => {
+        if (!user.emailVerified) await claimUnverifiedAccount(user.id, user.email);
+      },
+    },
+    databaseHooks: {
+      user: {
+        create: {
+          before: async (u) => {
+            // Accounts come only through server/auth/accounts.ts (docs/decisions/110).
+            if (!isProductSignUp()) throw new APIError("FORBIDDEN", { code: "SIGN_UP_CLOSED", message: "Accounts are created by invitation only." });
+            checkName(u.name);
+          },
+        },
+        update: { before: async (u) => void checkName(u.name) },
       },
     },
     // A signed, short-lived copy of the session in a cookie spares a database read on every
     // request (docs/decisions/105-session-cookie-cache.md). Team membership is still read each time.
     session: { expiresIn: 14 * 24 * 3600, updateAge: 24 * 3600, cookieCache: { enabled: true, maxAge: SESSION_CACHE_S } },
     advanced: {
+      // The client's address as our trust-proxy setting resolved it (http-routes.ts), never a
+      // forwarded header taken from whoever sent the request.
+      ipAddress: { ipAddressHeaders: [CLIENT_ADDRESS_HEADER] },
       useSecureCookies: e.PUBLIC_URL.startsWith("https://"),
       defaultCookieAttributes: { httpOnly: true, sameSite: "lax" },
     },

@@ -4,6 +4,7 @@ import { auth } from "./auth";
 import { HttpError, notFound, unauthenticated } from "../http/problem";
 import { roleIn } from "../entities/member/repository";
 import type { Actor } from "./policy";
+import { CLIENT_ADDRESS_HEADER } from "./http-routes";
 
 export { roleIn };
 
@@ -22,8 +23,15 @@ declare global {
   }
 }
 
+const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
+
+/**
+ * The signed-in person, or null. Reads trust better-auth's signed 60 s cookie copy of the session
+ * (docs/decisions/105); a write asks the database, so a session that was signed out, revoked by a
+ * password reset or removed can never change anything, even from a copied cookie.
+ */
 export async function readSession(req: Request): Promise<SignedIn | null> {
-  const s = await auth().api.getSession({ headers: fromNodeHeaders(req.headers) });
+  const s = await auth().api.getSession({ headers: headersOf(req), query: { disableCookieCache: !SAFE_METHODS.has(req.method) } });
   if (!s) return null;
   return {
     user: { id: s.user.id, name: s.user.name, email: s.user.email },
@@ -62,4 +70,9 @@ export function signedInOf(req: Request): SignedIn {
   return req.signedIn;
 }
 
-export const headersOf = (req: Request) => fromNodeHeaders(req.headers);
+/** Request headers for a server-side better-auth call, with the client's address as we resolved it. */
+export function headersOf(req: Request): Headers {
+  const h = fromNodeHeaders(req.headers);
+  h.set(CLIENT_ADDRESS_HEADER, req.ip ?? "");
+  return h;
+}

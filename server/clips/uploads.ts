@@ -6,13 +6,15 @@ import { readdir, rm, stat, statfs } from "node:fs/promises";
 import path from "node:path";
 import type { Express, Request as ExpressRequest, Response as ExpressResponse } from "express";
 import { Server, Metadata, type Upload } from "@tus/server";
+import { NodeRequest, sendNodeResponse } from "srvx/node";
 import { FileStore } from "@tus/file-store";
 import { auth } from "../auth/auth";
 import { roleIn } from "../auth/context";
 import { policy, type Actor } from "../auth/policy";
 import { env } from "../env";
 import { log } from "../log";
-import { HttpError, zodToHttp } from "../http/problem";
+import { HttpError, PROBLEM_TYPE, problemJson, zodToHttp } from "../http/problem";
+import { asUploadProblem } from "../http/upload-problems";
 import { StorageError } from "../storage/types";
 import { ClipMetaSchema, type ClipMeta } from "../../shared/schemas/clips";
 import { checkMetaRefs, ClipProblem, ingestUpload } from "./ingest";
@@ -33,7 +35,7 @@ const sizeText = storageText;
 
 /** tus hooks answer by throwing { status_code, body }; our bodies are problem+json documents. */
 function tusProblem(status: number, code: string, detail: string, extra: Record<string, unknown> = {}) {
-  return { status_code: status, body: JSON.stringify({ type: "about:blank", status, code, detail, ...extra }) };
+  return { status_code: status, body: problemJson(status, code, detail, extra) };
 }
 
 function toTusError(err: unknown) {
@@ -53,7 +55,8 @@ function toTusError(err: unknown) {
 const notFound = () => tusProblem(404, "not_found", "That upload was not found, or you do not have access to it.");
 
 async function actorFor(req: TusRequest, teamId: string): Promise<Actor> {
-  const s = await auth().api.getSession({ headers: req.headers });
+  // Writes (create, chunks, cancel) ask the database, so a signed-out session cannot add bytes.
+  const s = await auth().api.getSession({ headers: req.headers, query: { disableCookieCache: req.method !== "HEAD" && req.method !== "GET" } });
   if (!s) throw tusProblem(401, "unauthenticated", "Please sign in to continue.");
   const role = teamId ? await roleIn(s.user.id, teamId) : null;
   if (!role) throw tusProblem(404, "not_found", "That team was not found, or you do not have access to it.");
@@ -154,6 +157,7 @@ export function uploadServer(): Server {
         if (size > e.MAX_UPLOAD_BYTES)
           throw new ClipProblem(413, "too_large", `The file is ${sizeText(size)}; one clip can be at most ${sizeText(e.MAX_UPLOAD_BYTES)}. Trim the clip around the shot, or export it at a smaller size.`, { maxBytes: e.MAX_UPLOAD_BYTES });
         const meta = parseMeta(upload.metadata?.meta);
+        const filename = upload.metadata?.filename ?? "";
         await checkMetaRefs(actor.teamId, meta);
         // The club's plan sets the storage its teams share (server/billing/limits.ts).
         const allowance = await storageAllowance(actor.teamId);
@@ -164,7 +168,6 @@ export function uploadServer(): Server {
         const free = await statfs(tusDir()).then((s) => s.bavail * s.bsize).catch(() => Infinity);
         if (free < size * 2 + 512 * 1024 ** 2)
           throw new ClipProblem(507, "disk_full", "The server is short of disk space for this file right now. Try again later, or tell your team admin.");
-        const filename = upload.metadata?.filename ?? "";
         return { metadata: { teamId: actor.teamId, userId: actor.userId, filename, meta: JSON.stringify(meta) } };
       } catch (err) {
         throw toTusError(err);
@@ -189,11 +192,10 @@ export function uploadServer(): Server {
         await discardUpload(upload.id);
       }
     },
+    // tus's own plain-text errors pass through and become problem+json in asUploadProblem.
     onResponseError: (_req, err) => {
-      const e = err as { status_code?: number; body?: string; message?: string };
-      if (e.body?.startsWith("{")) return { status_code: e.status_code ?? 500, body: e.body };
-      if (e.status_code) return tusProblem(e.status_code, "upload_error", (e.body ?? "").trim() || "The upload was refused.");
-      return toTusError(err);
+      const e = err as { status_code?: number; body?: string };
+      return e.status_code ? { status_code: e.status_code, body: e.body ?? "" } : toTusError(err);
     },
   });
   return tus;
@@ -208,12 +210,14 @@ export async function closeUploads() {
 
 /** Mount on the app before any body parser (tus reads the raw stream). */
 export function mountUploads(app: Express) {
-  const handle = (req: ExpressRequest, res: ExpressResponse) => {
+  const handle = async (req: ExpressRequest, res: ExpressResponse) => {
     if (req.method === "GET") {
-      res.status(405).type("application/problem+json").send(JSON.stringify({ status: 405, code: "method_not_allowed", detail: "Uploads cannot be downloaded; open the clip instead." }));
+      res.status(405).type(PROBLEM_TYPE).send(problemJson(405, "method_not_allowed", "Uploads cannot be downloaded; open the clip instead."));
       return;
     }
-    void uploadServer().handle(req, res);
+    // Server.handle() with the answer rewritten on its way out: every error is problem+json.
+    const answer = await uploadServer().handleWeb(new NodeRequest({ req, res }));
+    await sendNodeResponse(res, await asUploadProblem(answer));
   };
   app.all(UPLOAD_PATH, handle);
   app.all(`${UPLOAD_PATH}/*splat`, handle);

@@ -1,5 +1,27 @@
 import { APIError } from "better-auth/api";
-import { HttpError } from "./problem";
+import { HttpError, PROBLEM_TYPE, problemJson } from "./problem";
+
+/**
+ * better-auth answers its own errors as `{ code, message }` JSON (or plain text); the API speaks
+ * problem+json everywhere, so its answers are rewritten here with the code in lower case.
+ * Headers other than the body's type and length (cookies, Retry-After) are kept.
+ */
+export async function asProblemResponse(res: globalThis.Response): Promise<globalThis.Response> {
+  if (res.status < 400 || (res.headers.get("content-type") ?? "").includes(PROBLEM_TYPE)) return res;
+  const text = await res.text();
+  let body: { code?: unknown; message?: unknown } = {};
+  try {
+    body = JSON.parse(text) as typeof body;
+  } catch {
+    body = { message: text };
+  }
+  const code = typeof body.code === "string" && body.code ? body.code.toLowerCase() : res.status === 404 ? "not_found" : "auth_error";
+  const detail = typeof body.message === "string" && body.message.trim() ? body.message.trim() : res.statusText || "The request was refused.";
+  const headers = new Headers(res.headers);
+  headers.delete("content-length");
+  headers.set("content-type", PROBLEM_TYPE);
+  return new Response(problemJson(res.status, code, detail), { status: res.status, headers });
+}
 
 /** Run a better-auth server call and turn its APIError into our problem+json error. */
 export async function viaAuth<T>(fn: () => Promise<T>, fallbackCode = "auth_error"): Promise<T> {

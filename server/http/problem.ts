@@ -15,20 +15,24 @@ export class HttpError extends Error {
 }
 
 const titles: Record<number, string> = {
-  400: "Bad request", 401: "Sign-in needed", 402: "Payment required", 403: "Not allowed", 404: "Not found", 409: "Conflict",
-  410: "Gone", 413: "Too large", 415: "Unsupported media type", 422: "Invalid input", 429: "Too many requests",
-  500: "Server error", 503: "Unavailable",
+  400: "Bad request", 401: "Sign-in needed", 402: "Payment required", 403: "Not allowed", 404: "Not found", 405: "Method not allowed", 409: "Conflict",
+  410: "Gone", 412: "Precondition failed", 413: "Too large", 415: "Unsupported media type", 416: "Range not satisfiable",
+  422: "Invalid input", 429: "Too many requests", 460: "Checksum mismatch", 500: "Server error", 503: "Unavailable", 507: "Storage full",
 };
 
 export const notFound = (what = "That item") => new HttpError(404, "not_found", `${what} was not found, or you do not have access to it.`);
 export const forbidden = (detail = "Your role in this team does not allow this.") => new HttpError(403, "forbidden", detail);
 export const unauthenticated = () => new HttpError(401, "unauthenticated", "Please sign in to continue.");
 
+export const PROBLEM_TYPE = "application/problem+json";
+
+/** The problem+json document (RFC 9457) every error answer carries, upload and auth routes included. */
+export function problemJson(status: number, code: string, detail: string, extra: Record<string, unknown> = {}): string {
+  return JSON.stringify({ type: "about:blank", title: titles[status] ?? "Error", status, code, detail, ...extra });
+}
+
 export function sendProblem(res: Response, status: number, code: string, detail: string, errors?: HttpError["errors"]) {
-  res
-    .status(status)
-    .type("application/problem+json")
-    .send(JSON.stringify({ type: "about:blank", title: titles[status] ?? "Error", status, code, detail, ...(errors ? { errors } : {}) }));
+  res.status(status).type(PROBLEM_TYPE).send(problemJson(status, code, detail, errors ? { errors } : {}));
 }
 
 export function zodToHttp(err: ZodError): HttpError {

@@ -24,11 +24,11 @@ export function inviteMail(p: { to: string; teamName: string; inviterName: strin
   );
 }
 
-export function resetPasswordMail(p: { to: string; name: string; url: string }): Mail {
+export function resetPasswordMail(p: { to: string; url: string }): Mail {
   return layout(
     p.to,
     "Reset your Loadframe password",
-    [`Hello ${p.name},`, "Someone asked to reset the password of this account. If it was not you, ignore this message.", "The link is valid for one hour."],
+    ["Hello,", "Someone asked to reset the password of this account. If it was not you, ignore this message.", "The link is valid for one hour."],
     { url: p.url, label: "Choose a new password" },
   );
 }

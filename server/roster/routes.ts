@@ -20,10 +20,10 @@ rosterRouter.delete("/invitations/:invitationId", async (req, res) => {
 });
 rosterRouter.patch("/members/:memberId", async (req, res) => {
   const { role } = parse(RoleChangeBodySchema, req.body);
-  res.json(await svc.changeRole(actorOf(req), headersOf(req), req.params.memberId, role));
+  res.json(await svc.changeRole(actorOf(req), req.params.memberId, role));
 });
 rosterRouter.delete("/members/:memberId", async (req, res) => {
-  await svc.removeMember(actorOf(req), headersOf(req), req.params.memberId);
+  await svc.removeMember(actorOf(req), req.params.memberId);
   res.status(204).end();
 });
 

@@ -2,10 +2,12 @@ import { auth } from "../auth/auth";
 import type { SignedIn } from "../auth/context";
 import { policy, type Actor } from "../auth/policy";
 import { recordAudit } from "../audit/repository";
+import { createAccount } from "../auth/accounts";
+import { deleteUser, markEmailVerified } from "../auth/repository";
 import { mergeSetCookies, viaAuth } from "../http/better-auth-errors";
 import { forbidden, HttpError, notFound } from "../http/problem";
 import { type InvitationPublic, type Role, type RosterResponse } from "../../shared/schemas/roster";
-import { roleForList } from "../entities/member/role";
+import { parseRole, roleForList } from "../entities/member/role";
 import * as repo from "./repository";
 import { assertStaffSeat } from "../billing/limits";
 
@@ -55,28 +57,36 @@ export async function cancelInvitation(a: Actor, headers: Headers, invitationId:
   await recordAudit({ teamId: a.teamId, actorId: a.userId, action: "invitation.cancelled", targetType: "invitation", targetId: invitationId, detail: { email: inv.email } });
 }
 
-async function guardLastAdmin(a: Actor, memberId: string, nextRole: Role | null) {
-  const m = await repo.memberById(a.teamId, memberId);
+/** The member, or 404; refuses to leave the team without an admin. Runs inside changeMembership. */
+function guardLastAdmin(members: repo.MemberRow[], memberId: string, nextRole: Role | null) {
+  const m = members.find((x) => x.id === memberId);
   if (!m) throw notFound("That member");
-  if (asRole(m.role) === "admin" && nextRole !== "admin" && (await repo.adminCount(a.teamId)) <= 1)
+  const admins = members.filter((x) => parseRole(x.role) === "admin");
+  if (parseRole(m.role) === "admin" && nextRole !== "admin" && admins.length <= 1)
     throw new HttpError(409, "last_admin", "A team needs at least one team admin. Make someone else team admin first.");
   return m;
 }
 
-export async function changeRole(a: Actor, headers: Headers, memberId: string, role: Role) {
+export async function changeRole(a: Actor, memberId: string, role: Role) {
   requireAdmin(a);
-  const m = await guardLastAdmin(a, memberId, role);
-  await assertStaffSeat(a.teamId, await repo.emailOfUser(m.userId), role);
-  await viaAuth(() => auth().api.updateMemberRole({ headers, body: { memberId, role, organizationId: a.teamId } }));
-  await recordAudit({ teamId: a.teamId, actorId: a.userId, action: "member.role_changed", targetType: "member", targetId: memberId, detail: { from: m.role, to: role, userId: m.userId } });
-  return { id: memberId, role };
+  return repo.changeMembership(a.teamId, async (members, tx) => {
+    const m = guardLastAdmin(members, memberId, role);
+    await assertStaffSeat(a.teamId, await repo.emailOfUser(m.userId), role);
+    await repo.setMemberRole(tx, memberId, role);
+    return {
+      result: { id: memberId, role },
+      audit: { actorId: a.userId, action: "member.role_changed", targetType: "member", targetId: memberId, detail: { from: m.role, to: role, userId: m.userId } },
+    };
+  });
 }
 
-export async function removeMember(a: Actor, headers: Headers, memberId: string) {
+export async function removeMember(a: Actor, memberId: string) {
   requireAdmin(a);
-  const m = await guardLastAdmin(a, memberId, null);
-  await viaAuth(() => auth().api.removeMember({ headers, body: { memberIdOrEmail: memberId, organizationId: a.teamId } }));
-  await recordAudit({ teamId: a.teamId, actorId: a.userId, action: "member.removed", targetType: "member", targetId: memberId, detail: { userId: m.userId } });
+  await repo.changeMembership(a.teamId, async (members, tx) => {
+    const m = guardLastAdmin(members, memberId, null);
+    await repo.deleteMember(tx, memberId);
+    return { result: undefined, audit: { actorId: a.userId, action: "member.removed", targetType: "member", targetId: memberId, detail: { userId: m.userId } } };
+  });
 }
 
 // --- the invitee's side ---------------------------------------------------------------------
@@ -98,14 +108,20 @@ export async function publicInvitation(id: string): Promise<InvitationPublic> {
   };
 }
 
-/** Accept as the signed-in user, or create the account first; returns cookies to set. */
+/**
+ * Accept as the signed-in user, or create the account first (the mailed link proves the address);
+ * returns cookies to set. A new account whose joining fails is removed again: nothing half-made.
+ */
 export async function acceptInvitation(id: string, signedIn: SignedIn | null, headers: Headers, body: { name?: string; password?: string }) {
   const inv = await openInvitation(id);
   let authHeaders = headers;
   let setCookies: string[] = [];
+  let userId: string;
+  let created = false;
   if (signedIn) {
     if (signedIn.user.email.toLowerCase() !== inv.email.toLowerCase())
       throw new HttpError(403, "wrong_account", `This invitation is for ${inv.email}. Sign out and open the link again.`);
+    userId = signedIn.user.id;
   } else {
     if (await repo.userExists(inv.email)) throw new HttpError(409, "account_exists", `An account for ${inv.email} exists. Sign in, then open the link again.`);
     if (!body.name || !body.password)
@@ -113,15 +129,21 @@ export async function acceptInvitation(id: string, signedIn: SignedIn | null, he
         ...(!body.name ? [{ path: "name", message: "Enter your name" }] : []),
         ...(!body.password ? [{ path: "password", message: "Choose a password" }] : []),
       ]);
-    const { headers: h } = await viaAuth(() =>
-      auth().api.signUpEmail({ body: { email: inv.email, password: body.password!, name: body.name! }, returnHeaders: true }),
-    );
-    setCookies = h.getSetCookie();
+    const account = await createAccount({ email: inv.email, name: body.name, password: body.password, emailVerified: true, signIn: true });
+    ({ userId, setCookies } = account);
+    created = true;
     authHeaders = new Headers({ cookie: setCookies.map((c) => c.split(";")[0]).join("; "), origin: headers.get("origin") ?? "" });
   }
-  await viaAuth(() => auth().api.acceptInvitation({ headers: authHeaders, body: { invitationId: id } }));
+  try {
+    const joined = await repo.joinByInvitation(id, userId, { email: inv.email });
+    if (!joined) throw new HttpError(410, "invitation_used", "This invitation has already been used. Sign in instead.");
+  } catch (err) {
+    if (created) await deleteUser(userId);
+    throw err;
+  }
+  // Opening the mailed link while signed in to that address proves it as well.
+  if (!created) await markEmailVerified(userId);
   const { headers: active } = await viaAuth(() => auth().api.setActiveOrganization({ headers: authHeaders, body: { organizationId: inv.teamId }, returnHeaders: true }));
   setCookies = mergeSetCookies(setCookies, active.getSetCookie());
-  await recordAudit({ teamId: inv.teamId, actorId: null, action: "member.joined", targetType: "invitation", targetId: id, detail: { email: inv.email, role: inv.role } });
   return { teamId: inv.teamId, setCookies };
 }

@@ -1,5 +1,5 @@
 import { eq } from "drizzle-orm";
-import { auth } from "../auth/auth";
+import { createAccount } from "../auth/accounts";
 import { db } from "../db/client";
 import { club, clubTeam, member, organization, user } from "../db/schema";
 import type { Role } from "../../shared/schemas/roster";
@@ -22,8 +22,7 @@ export const demoPeople: { email: string; name: string; role: Role; alsoU16?: Ro
 async function ensureUser(email: string, name: string) {
   const [found] = await db().select().from(user).where(eq(user.email, email));
   if (found) return found.id;
-  const r = await auth().api.signUpEmail({ body: { email, name, password: DEMO_PASSWORD } });
-  return r.user.id;
+  return (await createAccount({ email, name, password: DEMO_PASSWORD, emailVerified: true, signIn: false })).userId;
 }
 
 async function ensureTeam(t: { name: string; slug: string }) {

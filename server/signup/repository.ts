@@ -30,6 +30,3 @@ export async function userIdByEmail(email: string) {
   return row?.id ?? null;
 }
 
-export async function markEmailVerified(userId: string) {
-  await db().update(user).set({ emailVerified: true }).where(eq(user.id, userId));
-}

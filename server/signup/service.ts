@@ -9,6 +9,8 @@ import { log } from "../log";
 import { HttpError, notFound } from "../http/problem";
 import { mergeSetCookies, viaAuth } from "../http/better-auth-errors";
 import { sendMail } from "../mail/mailer";
+import { createAccount } from "../auth/accounts";
+import { deleteUser } from "../auth/repository";
 import { signupExistingMail, signupMail } from "../mail/templates";
 import { createClubWithTeam } from "../billing/clubs";
 import type { SignupComplete } from "../../shared/schemas/signup";
@@ -51,15 +53,13 @@ export async function signupLink(token: string) {
 export async function completeSignup(token: string, body: SignupComplete) {
   const r = await openRequest(token);
   if (await repo.userIdByEmail(r.email)) throw new HttpError(409, "account_exists", `An account for ${r.email} exists. Sign in instead.`);
-  const { headers: h, response } = await viaAuth(() =>
-    auth().api.signUpEmail({ body: { email: r.email, password: body.password, name: body.name }, returnHeaders: true }),
-  );
-  const userId = response.user.id;
-  // The link proved the address: the account starts verified.
-  await repo.markEmailVerified(userId);
-  if (!(await repo.consumeRequest(r.id))) throw new HttpError(410, "signup_link_used", "This link has already been used. Sign in instead.");
+  // The link proved the address: the account starts verified (the one door, server/auth/accounts.ts).
+  const { userId, setCookies } = await createAccount({ email: r.email, name: body.name, password: body.password, emailVerified: true, signIn: true });
+  if (!(await repo.consumeRequest(r.id))) {
+    await deleteUser(userId); // the other request that used the link keeps the address
+    throw new HttpError(410, "signup_link_used", "This link has already been used. Sign in instead.");
+  }
   const { club, team } = await createClubWithTeam({ clubName: body.clubName, teamName: body.teamName, adminId: userId });
-  const setCookies = h.getSetCookie();
   const authHeaders = new Headers({ cookie: setCookies.map((c) => c.split(";")[0]).join("; ") });
   const { headers: active } = await viaAuth(() => auth().api.setActiveOrganization({ headers: authHeaders, body: { organizationId: team.id }, returnHeaders: true }));
   log.info({ clubId: club.id, teamId: team.id, userId }, "new club signed up");

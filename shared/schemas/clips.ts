@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { humanText, opaqueId, TEXT_LIMITS } from "./text";
 
 // Clip metadata and the clip API's shapes, checked by the upload form and by the server.
 
@@ -78,12 +79,12 @@ export function shotFrameTimes(
 }
 
 const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date like 2026-03-14");
-const text = (max: number, what: string) => z.string().trim().max(max, `${what} can be at most ${max} characters`);
+const text = (max: number, field: string, multiline = false) => humanText({ field, max, multiline });
 
 export const NewSessionSchema = z.object({
   date: isoDate,
-  venue: text(120, "Venue").default(""),
-  drill: text(120, "Drill").default(""),
+  venue: text(TEXT_LIMITS.title, "Venue").default(""),
+  drill: text(TEXT_LIMITS.title, "Drill").default(""),
 });
 
 const captureFps = z
@@ -95,11 +96,11 @@ const exposureUs = z.number().positive("Exposure must be above 0 µs").max(10_00
 /** The form per file: sent as tus metadata `meta` (JSON) with the upload. */
 export const ClipMetaSchema = z
   .object({
-    title: text(120, "Title").default(""),
+    title: text(TEXT_LIMITS.title, "Title").default(""),
     /** An existing session of the team, or a new one (date, venue, drill). */
     sessionId: z.uuid("Pick a session").optional(),
     newSession: NewSessionSchema.optional(),
-    playerId: z.string({ message: "Pick the player who shoots" }).min(1, "Pick the player who shoots"),
+    playerId: opaqueId("playerId", "Pick the player who shoots"),
     shotType: z.enum(shotTypes, { message: "Shot type must be slap, wrist, snap or backhand" }),
     stickId: z.uuid("Pick a stick from the list").nullable().optional(),
     cameraView: z.enum(cameraViews, { message: "Camera view must be side, front, overhead or other" }),
@@ -108,7 +109,7 @@ export const ClipMetaSchema = z
     /** The person says captureFps is what the camera captured at. */
     captureFpsConfirmed: z.boolean().default(false),
     exposureUs: exposureUs.optional(),
-    notes: text(2000, "Notes").default(""),
+    notes: text(TEXT_LIMITS.notes, "Notes", true).default(""),
   })
   .strict()
   .superRefine((v, ctx) => {
@@ -123,17 +124,17 @@ export type ClipMeta = z.output<typeof ClipMetaSchema>;
 /** PATCH /clips/:id — edit metadata, confirm the capture rate. */
 export const ClipPatchSchema = z
   .object({
-    title: text(120, "Title"),
+    title: text(TEXT_LIMITS.title, "Title"),
     sessionId: z.uuid("Pick a session"),
     newSession: NewSessionSchema,
-    playerId: z.string().min(1, "Pick the player who shoots"),
+    playerId: opaqueId("playerId", "Pick the player who shoots"),
     shotType: z.enum(shotTypes, { message: "Shot type must be slap, wrist, snap or backhand" }),
     stickId: z.uuid("Pick a stick from the list").nullable(),
     cameraView: z.enum(cameraViews, { message: "Camera view must be side, front, overhead or other" }),
     captureFps,
     captureFpsConfirmed: z.boolean(),
     exposureUs,
-    notes: text(2000, "Notes"),
+    notes: text(TEXT_LIMITS.notes, "Notes", true),
   })
   .partial()
   .strict()
@@ -146,7 +147,7 @@ export const clipSorts = ["created", "title", "player", "session", "shotType", "
 export type ClipSort = (typeof clipSorts)[number];
 
 export const ClipListQuerySchema = z.object({
-  playerId: z.string().min(1).optional(),
+  playerId: opaqueId("playerId").optional(),
   sessionId: z.uuid("Unknown session").optional(),
   shotType: z.enum(shotTypes).optional(),
   status: z.enum(clipStatuses).optional(),

@@ -2,6 +2,7 @@
 // queries, bodies and answers both sides share, and the one list of results with their units,
 // digits and wording, so the page, the PDF, the CSV and the e-mail print the same numbers.
 import { z } from "zod";
+import { opaqueId } from "./text";
 import type { ShotResults } from "./shot-results";
 import type { DigitiseClip, ShotEventKey, ShotStickInfo } from "./shots";
 import { display, type UnitSystem } from "../units";
@@ -10,7 +11,7 @@ export const SHOT_TYPES = ["slap", "wrist", "snap", "backhand"] as const;
 export type ShotType = (typeof SHOT_TYPES)[number];
 export const shotTypeLabels: Record<ShotType, string> = { slap: "Slap shot", wrist: "Wrist shot", snap: "Snap shot", backhand: "Backhand" };
 
-const id = (what: string) => z.string({ error: `${what} is required` }).trim().min(1, { error: `${what} is required` }).max(100);
+const id = (what: string) => opaqueId(what);
 const uuid = (what: string) => z.uuid({ error: `${what} must be a shot id` });
 const units = z.enum(["metric", "imperial"], { error: 'units must be "metric" or "imperial"' });
 

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { humanText, opaqueId, TEXT_LIMITS } from "./text";
 
 export const roles = ["admin", "coach", "analyst", "player"] as const;
 export const RoleSchema = z.enum(roles, { message: "Role must be team admin, coach, analyst or player" });
@@ -22,14 +23,16 @@ export const roleDescriptions: Record<Role, string> = {
   player: "Sees own shots and those shared with them; compares own shots.",
 };
 
-const email = z.string().trim().toLowerCase().email("Enter a valid e-mail address").max(254);
+export const EmailSchema = z.string({ error: "Enter your e-mail address" }).trim().toLowerCase().max(254, "An e-mail address has at most 254 characters").email("Enter a valid e-mail address");
 
-export const InviteBodySchema = z.object({ email, role: RoleSchema });
+export const InviteBodySchema = z.object({ email: EmailSchema, role: RoleSchema });
 export const RoleChangeBodySchema = z.object({ role: RoleSchema });
-export const ActiveTeamBodySchema = z.object({ teamId: z.string().min(1, "Choose a team") });
+export const ActiveTeamBodySchema = z.object({ teamId: opaqueId("teamId", "Choose a team") });
+/** A person's name as shown on rosters, lists, mails and PDFs. */
+export const PersonNameSchema = humanText({ field: "Name", max: TEXT_LIMITS.name, min: 1, minMessage: "Enter your name" });
 export const PasswordSchema = z.string().min(10, "Use at least 10 characters").max(128, "Use at most 128 characters");
 export const AcceptInvitationBodySchema = z.object({
-  name: z.string().trim().min(1, "Enter your name").max(120).optional(),
+  name: PersonNameSchema.optional(),
   password: PasswordSchema.optional(),
 });
 export const PrefsBodySchema = z

@@ -3,6 +3,7 @@
 // clip's original frame pixels (x right, y down, sub-pixel); frames are the clip's frame numbers
 // (the first frame is 1). The mechanics engine's own schemas are reused wherever they fit.
 import { z } from "zod";
+import { humanText, opaqueId, TEXT_LIMITS } from "./text";
 import { PUCK_DIAMETER_MM, LANDMARKS, PlaneCalibration, ScaleBarCalibration, ShotEvents, Tracks, type Landmark, type Mark, type ShotDocumentInput } from "./shot-document";
 import type { ShotResults } from "./shot-results";
 import { MM_PER_IN } from "../units";
@@ -36,7 +37,7 @@ export type ShotMarks = Partial<Record<Landmark, Mark[]>>;
 export const ShotEventsDraft = ShotEvents.partial();
 export type ShotEventsDraft = Partial<Record<ShotEventKey, number>>;
 
-const label = z.string().trim().max(80, { error: "label: at most 80 characters" });
+const label = humanText({ field: "The label", max: TEXT_LIMITS.label });
 const frame = (what: string) =>
   z.number({ error: `${what} must be a frame number` }).int({ error: `${what} must be a whole frame number` }).min(1, { error: `${what} must be 1 or more (the first frame is 1)` });
 
@@ -46,7 +47,7 @@ export const CreateShotBody = z
     frameStart: frame("frameStart"),
     frameEnd: frame("frameEnd"),
     /** Defaults to the clip's player. */
-    playerId: z.string().min(1).nullable().optional(),
+    playerId: opaqueId("playerId").nullable().optional(),
     /** Defaults to the clip's stick. */
     stickId: z.uuid({ error: "stickId must be a stick id" }).nullable().optional(),
   })
@@ -58,7 +59,7 @@ export const UpdateShotBody = z
     label: label.optional(),
     frameStart: frame("frameStart").optional(),
     frameEnd: frame("frameEnd").optional(),
-    playerId: z.string().min(1).nullable().optional(),
+    playerId: opaqueId("playerId").nullable().optional(),
     stickId: z.uuid({ error: "stickId must be a stick id" }).nullable().optional(),
   })
   .refine((b) => Object.keys(b).length > 0, { error: "nothing to change" });

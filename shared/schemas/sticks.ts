@@ -3,6 +3,7 @@
 // inch at mid-span of the reference span (the rating's own test). Bench-test and beam inputs are
 // the engine's own schemas (./stick-lab), so every entry point refuses the same things.
 import { z } from "zod";
+import { humanText, opaqueId, TEXT_LIMITS } from "./text";
 import type { BenchFit } from "../mechanics/bench-fit";
 import type { BeamResult } from "../mechanics/beam";
 import type { ShotBeam } from "../mechanics/beam-from-shot";
@@ -16,13 +17,13 @@ export const FLEX_LIMITS = { min: 10, max: 200 } as const;
 export const STICK_LENGTH_LIMIT_MM = 2000;
 export const DEFAULT_FLEX_ALERT_PERCENT = 85;
 
-const text = (max: number, what: string) => z.string().trim().max(max, `${what} is at most ${max} characters`);
+const text = (max: number, field: string, multiline = false) => humanText({ field, max, multiline });
 
 /** The fields of a stick; PATCH sends any of them, POST needs at least a label. */
 const stickFields = {
-  label: z.string().trim().min(1, "Give the stick a label").max(80, "A label is at most 80 characters"),
+  label: humanText({ field: "The label", max: TEXT_LIMITS.label, min: 1, minMessage: "Give the stick a label" }),
   /** A player of the team; null = a team stick with no owner. */
-  ownerId: z.string().min(1).nullable(),
+  ownerId: opaqueId("ownerId").nullable(),
   ratedFlex: z
     .number({ error: "Rated flex must be a number" })
     .min(FLEX_LIMITS.min, `Rated flex is at least ${FLEX_LIMITS.min}`)
@@ -33,10 +34,10 @@ const stickFields = {
     .positive("Length must be greater than zero")
     .max(STICK_LENGTH_LIMIT_MM, `Length is at most ${STICK_LENGTH_LIMIT_MM} mm`)
     .nullable(),
-  bladeCurve: text(80, "The blade curve"),
-  lie: text(40, "The lie"),
+  bladeCurve: text(TEXT_LIMITS.label, "The blade curve"),
+  lie: text(TEXT_LIMITS.short, "The lie"),
   firstUseDate: z.iso.date("Enter a date as YYYY-MM-DD").nullable(),
-  notes: text(2000, "Notes"),
+  notes: text(TEXT_LIMITS.notes, "Notes", true),
 };
 
 export const StickCreateSchema = z.strictObject({

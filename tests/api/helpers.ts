@@ -70,12 +70,12 @@ export async function seedWorld(): Promise<DemoIds & { outsiderEmail: string; ot
   const ids = await seedPeople();
   const { db } = await import("../../server/db/client");
   const { organization, member } = await import("../../server/db/schema");
-  const { auth } = await import("../../server/auth/auth");
+  const { createAccount } = await import("../../server/auth/accounts");
   const outsiderEmail = "outsider@elsewhere.example";
-  const r = await auth().api.signUpEmail({ body: { email: outsiderEmail, password: DEMO_PASSWORD, name: "Casey Outsider" } });
+  const { userId } = await createAccount({ email: outsiderEmail, password: DEMO_PASSWORD, name: "Casey Outsider", emailVerified: true, signIn: false });
   const otherTeamId = crypto.randomUUID();
   await db().insert(organization).values({ id: otherTeamId, name: "Riverside Foxes", slug: "riverside-foxes", createdAt: new Date() });
-  await db().insert(member).values({ id: crypto.randomUUID(), organizationId: otherTeamId, userId: r.user.id, role: "admin", createdAt: new Date() });
+  await db().insert(member).values({ id: crypto.randomUUID(), organizationId: otherTeamId, userId, role: "admin", createdAt: new Date() });
   return { ...ids, outsiderEmail, otherTeamId };
 }
 

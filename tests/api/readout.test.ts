@@ -220,10 +220,9 @@ describe("progress", () => {
   it("best and typical (median) over the player's sessions, filtered by stick and shot type", async () => {
     const { db } = await import("../../server/db/client");
     const { member, stick } = await import("../../server/db/schema");
-    const { auth } = await import("../../server/auth/auth");
+    const { createAccount } = await import("../../server/auth/accounts");
     // A player of our own, so other tests' shots do not count here.
-    const signUp = await auth().api.signUpEmail({ body: { email: "progress@ravens.example", password: "ravens-demo-2026", name: "Pat Progress" } });
-    const pid = signUp.user.id;
+    const { userId: pid } = await createAccount({ email: "progress@ravens.example", password: "ravens-demo-2026", name: "Pat Progress", emailVerified: true, signIn: false });
     await db().insert(member).values({ id: crypto.randomUUID(), organizationId: world.teamId, userId: pid, role: "player", createdAt: new Date() });
     const pat = await new Client(srv.url).signIn("progress@ravens.example");
     const [st] = await db().insert(stick).values({ teamId: world.teamId, label: "Prog 85", ratedFlex: 85 }).returning();

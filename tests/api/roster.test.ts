@@ -19,7 +19,8 @@ describe("sign-in", () => {
     const c = new Client(srv.url);
     const wrong = await c.post("/api/auth/sign-in/email", { email: EMAILS.coach, password: "not-the-password" });
     expect(wrong.status).toBe(401);
-    expect(wrong.json.message).toMatch(/invalid/i);
+    expect(wrong.headers.get("content-type")).toMatch(/application\/problem\+json/);
+    expect(wrong.json.detail).toMatch(/invalid/i);
     const unknown = await c.post("/api/auth/sign-in/email", { email: "nobody@ravens.example", password: "whatever-123" });
     expect(unknown.status).toBe(401);
     expect((await c.get("/api/me")).status).toBe(401);

@@ -1,0 +1,13 @@
+// Cheap checks on every API request, before any route reads a parameter.
+import type { RequestHandler } from "express";
+import { sendProblem } from "./problem";
+
+// A percent-encoded C0 control or DEL (%00–%1F, %7F) in the path or query: no id or filter we
+// have can contain one, and PostgreSQL refuses NUL in text with an error rather than a miss.
+// (Raw control characters never get this far: Node's HTTP parser refuses them.)
+const ENCODED_CONTROL = /%(?:[01][0-9a-f]|7f)/i;
+
+export const refuseControlCharactersInUrl: RequestHandler = (req, res, next) => {
+  if (!ENCODED_CONTROL.test(req.originalUrl)) return next();
+  sendProblem(res, 400, "invalid_url", "The address contains a control character (such as %00), which no Loadframe address has.");
+};

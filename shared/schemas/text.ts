@@ -1,0 +1,71 @@
+// Text a person types (names, titles, labels, venues, notes), checked the same way at every entry
+// point: trimmed, capped in length, and refused when it carries characters no keyboard produces
+// that still travel into rosters, lists, mails and PDFs:
+//   - NUL and the other C0/C1 control characters (PostgreSQL refuses NUL in text outright; the
+//     others break CSV cells, mail headers and terminals). Tab and line breaks only where the
+//     field is multi-line.
+//   - bidirectional overrides and isolates, U+202A–U+202E and U+2066–U+2069, which reorder what is
+//     shown ("Trojan Source", CVE-2021-42574; Unicode Standard Annex #9, explicit directional
+//     formatting characters).
+//   - unpaired UTF-16 surrogates, which are not text at all (ECMAScript String.isWellFormed).
+// Each refusal names the field in its message; the API answers it 422 with the field's path.
+import { z } from "zod";
+
+const CONTROL_SINGLE_LINE = /[\u0000-\u001f\u007f-\u009f]/;
+const CONTROL_MULTI_LINE = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f-\u009f]/;
+const BIDI_OVERRIDE = /[\u202a-\u202e\u2066-\u2069]/;
+
+/** Sensible caps, so every form and route agrees. */
+export const TEXT_LIMITS = { name: 100, title: 120, label: 80, short: 40, notes: 2000 } as const;
+
+/** Why a string is not acceptable human text, or null when it is. */
+export function unsafeTextProblem(value: string, multiline = false): string | null {
+  const control = (multiline ? CONTROL_MULTI_LINE : CONTROL_SINGLE_LINE).exec(value);
+  if (control) return `contains a control character (U+${control[0].charCodeAt(0).toString(16).toUpperCase().padStart(4, "0")})`;
+  const bidi = BIDI_OVERRIDE.exec(value);
+  if (bidi) return `contains a text-direction override character (U+${bidi[0].charCodeAt(0).toString(16).toUpperCase()})`;
+  if (!isWellFormed(value)) return "contains a broken character (an unpaired surrogate)";
+  return null;
+}
+
+// String.prototype.isWellFormed is in Node 20 but not in every browser this client supports.
+function isWellFormed(s: string): boolean {
+  const w = s as string & { isWellFormed?: () => boolean };
+  if (typeof w.isWellFormed === "function") return w.isWellFormed();
+  return !/[\ud800-\udbff](?![\udc00-\udfff])|(?<![\ud800-\udbff])[\udc00-\udfff]/.test(s);
+}
+
+export interface HumanTextOptions {
+  /** How the field is called in messages: "Name", "Venue", "The lie". */
+  field: string;
+  max: number;
+  /** At least this many characters after trimming (default 0: may be empty). */
+  min?: number;
+  /** The message when shorter than `min`. */
+  minMessage?: string;
+  /** Tab and line breaks allowed (notes). */
+  multiline?: boolean;
+}
+
+/** The one zod schema for human-entered text; every shared schema builds its text fields with it. */
+export function humanText(o: HumanTextOptions) {
+  let s = z.string({ error: `${o.field} must be text` }).trim();
+  if (o.min) s = s.min(o.min, o.minMessage ?? `${o.field} must be at least ${o.min} character${o.min === 1 ? "" : "s"}`);
+  return s.max(o.max, `${o.field} can be at most ${o.max} characters`).superRefine((v, ctx) => {
+    const problem = unsafeTextProblem(v, o.multiline);
+    if (problem) ctx.addIssue({ code: "custom", message: `${o.field} ${problem}` });
+  });
+}
+
+/**
+ * An id a client sends back (a person's or a team's id from the auth library; our own rows use
+ * uuids): visible ASCII only, at most 100 characters, so a NUL or a megabyte never reaches a query.
+ */
+export function opaqueId(field: string, requiredMessage = `${field} is required`) {
+  return z
+    .string({ error: requiredMessage })
+    .trim()
+    .min(1, requiredMessage)
+    .max(100, `${field} is not a valid id`)
+    .regex(/^[\x21-\x7e]+$/, `${field} is not a valid id`);
+}
