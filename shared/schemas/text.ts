@@ -11,19 +11,28 @@
 // Each refusal names the field in its message; the API answers it 422 with the field's path.
 import { z } from "zod";
 
-const CONTROL_SINGLE_LINE = /[\u0000-\u001f\u007f-\u009f]/;
-const CONTROL_MULTI_LINE = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f-\u009f]/;
 const BIDI_OVERRIDE = /[\u202a-\u202e\u2066-\u2069]/;
+const LINE_BREAKS_AND_TAB = new Set([0x09, 0x0a, 0x0d]);
+
+/** The first C0/C1 control character (or DEL) in `value`, as a code, or -1. */
+function firstControl(value: string, multiline: boolean): number {
+  for (let i = 0; i < value.length; i++) {
+    const c = value.charCodeAt(i);
+    if ((c < 0x20 || (c >= 0x7f && c <= 0x9f)) && !(multiline && LINE_BREAKS_AND_TAB.has(c))) return c;
+  }
+  return -1;
+}
+const hex = (c: number) => c.toString(16).toUpperCase().padStart(4, "0");
 
 /** Sensible caps, so every form and route agrees. */
 export const TEXT_LIMITS = { name: 100, title: 120, label: 80, short: 40, notes: 2000 } as const;
 
 /** Why a string is not acceptable human text, or null when it is. */
 export function unsafeTextProblem(value: string, multiline = false): string | null {
-  const control = (multiline ? CONTROL_MULTI_LINE : CONTROL_SINGLE_LINE).exec(value);
-  if (control) return `contains a control character (U+${control[0].charCodeAt(0).toString(16).toUpperCase().padStart(4, "0")})`;
+  const control = firstControl(value, multiline);
+  if (control >= 0) return `contains a control character (U+${hex(control)})`;
   const bidi = BIDI_OVERRIDE.exec(value);
-  if (bidi) return `contains a text-direction override character (U+${bidi[0].charCodeAt(0).toString(16).toUpperCase()})`;
+  if (bidi) return `contains a text-direction override character (U+${hex(bidi[0].charCodeAt(0))})`;
   if (!isWellFormed(value)) return "contains a broken character (an unpaired surrogate)";
   return null;
 }
