@@ -63,12 +63,12 @@ export async function waitForBilling(who: Client, teamId: string, ok: (s: any) =
 let n = 0;
 /** A new club with its first team, and its team admin signed in (made directly, not through sign-up). */
 export async function newClub(base: string, label = "Harbour Otters") {
-  const { auth } = await import("../../server/auth/auth");
+  const { createAccount } = await import("../../server/auth/accounts");
   const { createClubWithTeam } = await import("../../server/billing/clubs");
   const email = `admin${++n}-${randomBytes(3).toString("hex")}@otters.example`;
   const password = "otters-test-2026";
-  const u = await auth().api.signUpEmail({ body: { email, password, name: `Rowan Admin ${n}` } });
-  const { club, team } = await createClubWithTeam({ clubName: `${label} ${n}`, teamName: `${label} ${n} U18`, adminId: u.user.id });
+  const { userId } = await createAccount({ email, password, name: `Rowan Admin ${n}`, emailVerified: true, signIn: false });
+  const { club, team } = await createClubWithTeam({ clubName: `${label} ${n}`, teamName: `${label} ${n} U18`, adminId: userId });
   const admin = await new Client(base).signIn(email, password);
-  return { clubId: club.id, teamId: team.id, email, admin, userId: u.user.id };
+  return { clubId: club.id, teamId: team.id, email, admin, userId };
 }

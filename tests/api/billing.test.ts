@@ -99,14 +99,14 @@ describe("a new club's plan", () => {
 
   it("a coach cannot buy or see invoices; a player sees the plan but may not manage it", async () => {
     const c = await newClub(w.srv.url);
-    const { auth } = await import("../../server/auth/auth");
+    const { createAccount } = await import("../../server/auth/accounts");
     const { db } = await import("../../server/db/client");
     const { member } = await import("../../server/db/schema");
     const made: Client[] = [];
     for (const role of ["coach", "player"] as const) {
       const email = `${role}-${c.teamId.slice(0, 6)}@otters.example`;
-      const u = await auth().api.signUpEmail({ body: { email, password: "otters-test-2026", name: `A ${role}` } });
-      await db().insert(member).values({ id: crypto.randomUUID(), organizationId: c.teamId, userId: u.user.id, role, createdAt: new Date() });
+      const { userId } = await createAccount({ email, password: "otters-test-2026", name: `A ${role}`, emailVerified: true, signIn: false });
+      await db().insert(member).values({ id: crypto.randomUUID(), organizationId: c.teamId, userId, role, createdAt: new Date() });
       made.push(await new Client(w.srv.url).signIn(email, "otters-test-2026"));
     }
     const [coach, player] = made;
