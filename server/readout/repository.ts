@@ -3,9 +3,9 @@ import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
 import { prepared, preparedBy } from "../db/prepared";
 import { auditLog, clip, member, organization, shot, shotResult, shotShare, stick, trainingSession, user } from "../db/schema";
-import { latestBenchTest } from "../shots/repository";
+import { benchTestInForce } from "../entities/stick/stiffness";
 import type { Actor } from "../entities/member/role";
-import { newestShotFirst } from "../entities/shot/date";
+import { newestShotFirst, shotDateSql } from "../entities/shot/date";
 import { shotVisibleWhere } from "../entities/shot/visibility";
 import { ShotResults } from "../../shared/schemas/shot-results";
 import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../shared/schemas/shots";
@@ -36,9 +36,9 @@ const withEverything = {
   ...withResultSummary,
   results: sql<unknown>`${shotResult.results}`,
   marks: sql<unknown>`${shot.marks}`,
-  // The stick's flex for the readout, in the same round trip (the latest bench test wins).
+  // The stick's stiffness in force on the shot's date, in the same round trip.
   stickRatedFlex: stick.ratedFlex,
-  stickLatestTest: latestBenchTest(shot.stickId),
+  stickTestInForce: benchTestInForce(shot.stickId, shotDateSql),
 };
 
 // The joins of every shot query: its clip, session, player, stick and stored result.
@@ -109,8 +109,8 @@ export async function listShots(a: Actor, f: ShotListQuery, page?: { limit: numb
       .where(where).orderBy(...newestFirst).limit(page.limit).offset(page.offset);
     where = inArray(shot.id, ids);
   }
-  const rows = await joined({ ...withEverything, results: sql<null>`null`, marks: sql<null>`null`, stickLatestTest: sql<null>`null` }).where(where).orderBy(...newestFirst);
-  return rows.map(({ results: _r, marks: _m, stickLatestTest: _t, ...r }) => ({ ...typed(r), summary: summaryResults(r.summary) }));
+  const rows = await joined({ ...withEverything, results: sql<null>`null`, marks: sql<null>`null`, stickTestInForce: sql<null>`null` }).where(where).orderBy(...newestFirst);
+  return rows.map(({ results: _r, marks: _m, stickTestInForce: _t, ...r }) => ({ ...typed(r), summary: summaryResults(r.summary) }));
 }
 
 /** How many shots the same filters find, for the pager. */

@@ -3,7 +3,7 @@
 import { isStaff, policy, type Actor } from "../auth/policy";
 import { roleForList } from "../entities/member/role";
 import { forbidden, HttpError } from "../http/problem";
-import { stickFlex } from "../shots/results";
+import { shotStickInfo } from "../entities/stick/stiffness";
 import type { z } from "zod";
 import type {
   CompareResponse, PlayersResponse, ProgressQuery, ProgressResponse, ShareRow, ShotListPageQuery, ShotListResponse, ShotReadout, ShotType,
@@ -42,11 +42,11 @@ export async function visibleShot(a: Actor, shotId: string, which = "That shot",
 
 async function toReadout(a: Actor, v: Awaited<ReturnType<typeof visibleShot>>): Promise<ShotReadout> {
   const r = v.row;
-  const st = r.stickId && r.stickLabel !== null ? { id: r.stickId, label: r.stickLabel, ratedFlex: r.stickRatedFlex, latestTest: r.stickLatestTest } : null;
+  const st = r.stickId && r.stickLabel !== null ? { id: r.stickId, label: r.stickLabel, ratedFlex: r.stickRatedFlex, testInForce: r.stickTestInForce } : null;
   return readout(v.row, {
     // A player learns only that the shot was shared with them, not with whom else.
     shares: isStaff(a) ? v.shares : v.shares.filter((s) => s.userId === a.userId),
-    stick: st ? stickFlex(st) : null,
+    stick: st ? shotStickInfo(st) : null,
     canEdit: policy.editShot(a, v.row),
     canShare: policy.shareShot(a, v.row),
   });

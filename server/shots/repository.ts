@@ -1,7 +1,9 @@
-import { and, asc, eq, getTableName, inArray, sql, type Column } from "drizzle-orm";
+import { and, asc, eq, inArray, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
-import { benchTest, clip, shot, shotResult, shotShare, stick, user } from "../db/schema";
+import { clip, shot, shotResult, shotShare, stick, trainingSession, user } from "../db/schema";
+import { shotDateSql } from "../entities/shot/date";
+import { benchTestInForce } from "../entities/stick/stiffness";
 import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../shared/schemas/shots";
 
 // Drizzle only: every query names the team, so a row of another team is simply not found.
@@ -31,6 +33,8 @@ const shotColumns = {
   id: shot.id, teamId: shot.teamId, clipId: shot.clipId, label: shot.label, playerId: shot.playerId, playerName: player.name, stickId: shot.stickId,
   stickLabel: stick.label, frameStart: shot.frameStart, frameEnd: shot.frameEnd, marks: shot.marks, events: shot.events, version: shot.version,
   updatedAt: shot.updatedAt, updatedByName: editor.name,
+  // The stick's stiffness in force on the shot's date, in the same round trip.
+  stickRatedFlex: stick.ratedFlex, stickTestInForce: benchTestInForce(shot.stickId, shotDateSql),
   resultEngine: shotResult.engineVersion, results: shotResult.results, resultError: shotResult.error, resultShotVersion: shotResult.shotVersion, computedAt: shotResult.computedAt,
 };
 
@@ -38,6 +42,8 @@ function shotQuery() {
   return db()
     .select(shotColumns)
     .from(shot)
+    .innerJoin(clip, eq(clip.id, shot.clipId))
+    .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
     .leftJoin(player, eq(player.id, shot.playerId))
     .leftJoin(editor, eq(editor.id, shot.updatedBy))
     .leftJoin(stick, eq(stick.id, shot.stickId))
@@ -75,32 +81,6 @@ export async function stickInTeam(teamId: string, stickId: string) {
   return !!row;
 }
 
-export interface StickWithTest {
-  id: string;
-  label: string;
-  ratedFlex: number | null;
-  latestTest: { measuredFlex: number; spanMm: number; testedOn: string } | null;
-}
-
-/**
- * A stick's latest bench test (by test date, then entry time) as one JSON value, or null: a
- * subquery, so the readout reads it in the shot's own query (server/readout/repository.ts).
- */
-export function latestBenchTest(stickId: Column) {
-  // Qualified by hand: Drizzle leaves a single-table select's columns bare, and a bare "id" here
-  // would be the bench test's own.
-  const outer = sql`${sql.identifier(getTableName(stickId.table))}.${sql.identifier(stickId.name)}`;
-  return sql<StickWithTest["latestTest"]>`(select json_build_object('measuredFlex', bt.measured_flex, 'spanMm', bt.span_mm, 'testedOn', bt.tested_on) from ${benchTest} bt where bt.stick_id = ${outer} order by bt.tested_on desc, bt.created_at desc limit 1)`;
-}
-
-/** A stick with its most recent bench test; inside a transaction when `q` is one. */
-export async function stickWithLatestTest(stickId: string, q: Tx | ReturnType<typeof db> = db()): Promise<StickWithTest | null> {
-  const [s] = await q
-    .select({ id: stick.id, label: stick.label, ratedFlex: stick.ratedFlex, latestTest: latestBenchTest(stick.id) })
-    .from(stick)
-    .where(eq(stick.id, stickId));
-  return s ?? null;
-}
 
 export async function insertShot(v: { teamId: string; clipId: string; label: string; frameStart: number; frameEnd: number; playerId: string | null; stickId: string | null; userId: string }) {
   const [row] = await db()
@@ -143,12 +123,23 @@ export async function shotIdsOfStick(stickId: string) {
 /** What recomputing needs, read inside the caller's transaction. */
 export async function recomputeInputs(tx: Tx, shotId: string) {
   const [s] = await tx
-    .select({ teamId: shot.teamId, clipId: shot.clipId, stickId: shot.stickId, marks: shot.marks, events: shot.events, version: shot.version, frameStart: shot.frameStart, frameEnd: shot.frameEnd })
+    .select({
+      teamId: shot.teamId, clipId: shot.clipId, stickId: shot.stickId, marks: shot.marks, events: shot.events, version: shot.version, frameStart: shot.frameStart, frameEnd: shot.frameEnd,
+      captureFps: clip.captureFps, storedFps: clip.storedFps, frameTimes: clip.frameTimes, frameCount: clip.frameCount, calibration: clip.calibration,
+      stickLabel: stick.label, stickRatedFlex: stick.ratedFlex, stickTestInForce: benchTestInForce(shot.stickId, shotDateSql),
+    })
     .from(shot)
+    .innerJoin(clip, eq(clip.id, shot.clipId))
+    .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
+    .leftJoin(stick, eq(stick.id, shot.stickId))
     .where(eq(shot.id, shotId));
   if (!s) return null;
-  const [c] = await tx.select({ captureFps: clip.captureFps, storedFps: clip.storedFps, frameTimes: clip.frameTimes, frameCount: clip.frameCount, calibration: clip.calibration }).from(clip).where(eq(clip.id, s.clipId));
-  return { shot: { ...s, marks: s.marks as ShotMarks, events: s.events as ShotEventsDraft }, clip: { ...c, calibration: c.calibration as ClipCalibration | null } };
+  return {
+    shot: { ...s, marks: s.marks as ShotMarks, events: s.events as ShotEventsDraft },
+    clip: { captureFps: s.captureFps, storedFps: s.storedFps, frameTimes: s.frameTimes, frameCount: s.frameCount, calibration: s.calibration as ClipCalibration | null },
+    // The stick and its stiffness in force on the shot's date (docs/decisions/122-stiffness-in-force.md).
+    stick: s.stickId && s.stickLabel !== null ? { id: s.stickId, label: s.stickLabel, ratedFlex: s.stickRatedFlex, testInForce: s.stickTestInForce } : null,
+  };
 }
 
 export type Tx = Parameters<Parameters<ReturnType<typeof db>["transaction"]>[0]>[0];

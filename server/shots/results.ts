@@ -3,21 +3,14 @@ import { db } from "../db/client";
 import { log } from "../log";
 import { ENGINE_VERSION } from "../../shared/mechanics/index";
 import { offLoop } from "../cpu/pool";
-import { DEFAULT_BENCH_SPAN_MM } from "../../shared/schemas/shot-document";
 import { shotFrameTimes } from "../../shared/schemas/clips";
-import { toShotDocument, type ShotStickInfo, type StoredResult } from "../../shared/schemas/shots";
+import { toShotDocument, type StoredResult } from "../../shared/schemas/shots";
+import { shotStickInfo } from "../entities/stick/stiffness";
 import * as repo from "./repository";
 
 // The stored, authoritative results of a shot. Called whenever marks, events, the clip's
 // calibration or the stick (or its bench tests) change. Each run re-reads the latest state under a
 // per-shot advisory lock, so overlapping saves cannot leave an older result on top of a newer one.
-
-/** Flex the engine should use: the latest bench test's measured flex, else the rated flex. */
-export function stickFlex(s: repo.StickWithTest): ShotStickInfo {
-  if (s.latestTest)
-    return { id: s.id, label: s.label, flex: s.latestTest.measuredFlex, flexSource: "measured", benchSpanMm: DEFAULT_BENCH_SPAN_MM, testedOn: s.latestTest.testedOn };
-  return { id: s.id, label: s.label, flex: s.ratedFlex, flexSource: s.ratedFlex ? "rated" : null, benchSpanMm: DEFAULT_BENCH_SPAN_MM, testedOn: null };
-}
 
 export function toStoredResult(r: { engineVersion: string; results: unknown; error: string | null; shotVersion: number; computedAt: Date }): StoredResult {
   return { engineVersion: r.engineVersion, results: r.results as StoredResult["results"], error: r.error, shotVersion: r.shotVersion, computedAt: r.computedAt.toISOString() };
@@ -34,8 +27,7 @@ export async function recomputeShot(shotId: string): Promise<StoredResult | null
     const inputs = await repo.recomputeInputs(tx, shotId);
     if (!inputs) return null;
     const { shot, clip } = inputs;
-    const s = shot.stickId ? await repo.stickWithLatestTest(shot.stickId, tx) : null;
-    const flex = s ? stickFlex(s) : null;
+    const flex = inputs.stick ? shotStickInfo(inputs.stick) : null;
     const frameEnd = shot.frameEnd ?? clip.frameCount ?? shot.frameStart;
     const built = toShotDocument({
       captureFps: clip.captureFps,

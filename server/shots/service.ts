@@ -10,7 +10,8 @@ import {
 import { VersionConflictError } from "./conflict";
 import * as memberRepo from "../entities/member/repository";
 import * as repo from "./repository";
-import { recomputeShot, recomputeShotsOfClip, stickFlex, toStoredResult } from "./results";
+import { recomputeShot, recomputeShotsOfClip, toStoredResult } from "./results";
+import { shotStickInfo } from "../entities/stick/stiffness";
 
 const invalid = (path: string, message: string) => new HttpError(422, "validation_failed", `${path}: ${message}`, [{ path, message }]);
 
@@ -63,13 +64,12 @@ function summary(s: repo.ShotRow): ShotSummary {
 
 async function detail(a: Actor, s: repo.ShotRow): Promise<ShotDetail> {
   const c = await clipOrThrow(a, s.clipId);
-  const st = s.stickId ? await repo.stickWithLatestTest(s.stickId) : null;
   const clock = await repo.clipClock(c.id);
   return {
     ...summary(s),
     marks: s.marks,
     clip: clipFor(c),
-    stick: st ? stickFlex(st) : null,
+    stick: s.stickId && s.stickLabel !== null ? shotStickInfo({ id: s.stickId, label: s.stickLabel, ratedFlex: s.stickRatedFlex, testInForce: s.stickTestInForce }) : null,
     storedResult: s.resultEngine
       ? toStoredResult({ engineVersion: s.resultEngine, results: s.results, error: s.resultError, shotVersion: s.resultShotVersion!, computedAt: s.computedAt! })
       : null,

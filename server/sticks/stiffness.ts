@@ -1,21 +1,18 @@
-// A stick's stiffness for the rest of the app (shot results, the beam model): the bench test
-// nearest before the day asked about, else the earliest one (a shaft only softens with use
-// [CP], so the first test is the closest guess for an earlier day), else the printed rating.
-import { eiFromFlex } from "../../shared/mechanics/sticklab";
+// A stick's stiffness on a day for the beam model: the one rule of
+// shared/mechanics/stiffness-in-force.ts (the bench test in force, else the rating).
+import { stiffnessInForce } from "../entities/stick/stiffness";
 import type { StickStiffness } from "../../shared/schemas/sticks";
 import { log } from "../log";
 import { recomputeShot } from "../shots/results";
 import * as repo from "./repository";
 
-export async function stickStiffness(teamId: string, stickId: string, onDate?: string): Promise<StickStiffness | null> {
+export async function stickStiffness(teamId: string, stickId: string, onDate: string): Promise<StickStiffness | null> {
   const row = await repo.stickById(teamId, stickId);
   if (!row) return null;
   const tests = (await repo.benchTestsOf(teamId, [stickId])).map((t) => t.test);
-  const before = onDate ? tests.filter((t) => t.testedOn <= onDate) : tests;
-  const test = before.at(-1) ?? tests[0];
-  if (test) return { eiNm2: test.eiNm2, source: "bench", measuredFlex: test.measuredFlex, testedOn: test.testedOn };
-  if (row.stick.ratedFlex) return { eiNm2: eiFromFlex(row.stick.ratedFlex), source: "rated", measuredFlex: null, testedOn: null };
-  return null;
+  const k = stiffnessInForce({ ratedFlex: row.stick.ratedFlex, tests }, onDate);
+  if (!k) return null;
+  return { eiNm2: k.eiNm2, source: k.source, measuredFlex: k.source === "bench" ? k.flex : null, testedOn: k.testedOn };
 }
 
 export interface StiffnessChange {

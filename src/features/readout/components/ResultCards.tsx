@@ -1,6 +1,16 @@
 import { METRICS, formatValue, metricText, noteMetric, type MetricKey, type ShotReadout } from "@shared/schemas/readout";
 import type { ShotResults } from "@shared/schemas/shot-results";
 import type { UnitSystem } from "@shared/units";
+import type { ShotStickInfo } from "@shared/schemas/shots";
+import { formatDate } from "@/lib/format";
+
+/** Which stiffness the stored energy used: the bench test in force on the shot's date, else the rating. */
+export function stiffnessWords(stick: ShotStickInfo): string {
+  const flex = stick.flex?.toFixed(0) ?? "—";
+  return stick.flexSource === "measured" && stick.testedOn
+    ? `measured flex ${flex}, bench test of ${formatDate(stick.testedOn)} (the one in force on the shot's date)`
+    : `rated flex ${flex} (no bench test by the shot's date)`;
+}
 
 // One card per result: the number large, its ± beside it, one line on what it is, and any
 // plausibility note the engine attached to it.
@@ -51,7 +61,7 @@ export function ResultCards({ results, units, stick }: { results: ShotResults; u
             )}
             {m.key === "storedEnergy" && t && stick?.flex && (
               <p className="mt-1 text-sm text-ink-muted">
-                From {stick.flexSource === "measured" ? `the measured flex ${stick.flex.toFixed(0)}` : `the rated flex ${stick.flex.toFixed(0)}`} of {stick.label}.
+                From {stick.label}&rsquo;s {stiffnessWords(stick)}.
               </p>
             )}
             {notes.map((n) => (

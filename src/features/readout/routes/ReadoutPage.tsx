@@ -17,6 +17,10 @@ import { ShareDialog } from "../components/ShareDialog";
 import { ShotCharts } from "../components/ShotCharts";
 
 /** /readout/:shotId — the numbers, charts and event frames of one shot. */
+/** The stiffness in force on the shot's date, short: "flex 80 from the bench test of 10 Jan 2026". */
+const stickFlexNote = (st: ShotReadout["stick"]) =>
+  !st?.flex ? "" : st.flexSource === "measured" && st.testedOn ? ` · flex ${st.flex.toFixed(0)} from the bench test of ${formatDate(st.testedOn)}` : ` · rated flex ${st.flex.toFixed(0)}`;
+
 export function Component() {
   const { shotId = "" } = useParams();
   const team = useActiveTeam();
@@ -56,7 +60,7 @@ function Readout({ teamId, teamName, r }: { teamId: string; teamName: string; r:
   const { system } = useUnits();
   const [sharing, setSharing] = useState(false);
   const title = shotTitle(r.shot);
-  const meta = [r.shot.playerName ?? "No player set", shotTypeLabels[r.shot.shotType], formatDate(r.shot.date), r.shot.venue, r.shot.stickLabel && `Stick ${r.shot.stickLabel}`]
+  const meta = [r.shot.playerName ?? "No player set", shotTypeLabels[r.shot.shotType], formatDate(r.shot.date), r.shot.venue, r.shot.stickLabel && `Stick ${r.shot.stickLabel}${stickFlexNote(r.stick)}`]
     .filter(Boolean)
     .join(" · ");
   const general = r.results?.notes.filter((n) => noteMetric(n.code) === null) ?? [];

@@ -1,8 +1,9 @@
 import { useState } from "react";
 import { useSearchParams } from "react-router-dom";
-import { BEAM_MODEL_NOTICE, StickLabInputError, beamInputProblem, eiFromFlex, solveBeam, type BeamInput, type BeamResult } from "@shared/mechanics/sticklab";
+import { BEAM_MODEL_NOTICE, StickLabInputError, beamInputProblem, solveBeam, type BeamInput, type BeamResult } from "@shared/mechanics/sticklab";
 import { lbfToN, nToLbf } from "@shared/units";
 import type { StickDetail } from "@shared/schemas/sticks";
+import { stiffnessInForce } from "@shared/mechanics/stiffness-in-force";
 import { Alert, Button, Card, Field, Input, PageHeader, Select, Spinner } from "@/components/ui";
 import { errorMessage } from "@/lib/api";
 import { useUnits } from "@/lib/units";
@@ -11,7 +12,7 @@ import { BeamDiagrams } from "../components/BeamDiagrams";
 import { BackToStick, StickLoadState } from "../components/StickLoadState";
 import { useStickRoute } from "../components/useStickRoute";
 import { lengthFromMm, lengthToMm } from "../lib/bench-units";
-import { formatDay, formatFlex, formatNumber } from "../lib/format";
+import { formatDay, formatFlex, formatNumber, todayIso } from "../lib/format";
 
 export function Component() {
   const { teamId, stickId, stick } = useStickRoute();
@@ -35,12 +36,12 @@ interface Manual {
 
 type Preset = "bench" | "hands";
 
-/** The stick's stiffness: its latest bench test, else its rating. */
+/** The stick's stiffness in force today (the one rule: its latest bench test by now, else its rating). */
 function stickEi(detail: StickDetail): { eiNm2: number; from: string } | null {
   const latest = detail.stick.latest;
-  if (latest) return { eiNm2: latest.eiNm2, from: `bench test of ${formatDay(latest.testedOn)} (${formatFlex(latest.measuredFlex)} flex)` };
-  if (detail.stick.ratedFlex) return { eiNm2: eiFromFlex(detail.stick.ratedFlex), from: `rated ${detail.stick.ratedFlex} flex (no bench test yet)` };
-  return null;
+  const k = stiffnessInForce({ ratedFlex: detail.stick.ratedFlex, tests: latest ? [latest] : [] }, todayIso());
+  if (!k) return null;
+  return { eiNm2: k.eiNm2, from: k.source === "bench" ? `bench test of ${formatDay(k.testedOn!)} (${formatFlex(k.flex)} flex)` : `rated ${k.flex} flex (no bench test yet)` };
 }
 
 function presetInput(preset: Preset, detail: StickDetail): BeamInput & { supportNames: [string, string]; loadNames: string[]; axisFrom: string } {
