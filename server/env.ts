@@ -33,7 +33,7 @@ const EnvSchema = z.object({
   FRAME_FORMAT: z.enum(["jpg", "webp"]).default("jpg"),
   FRAME_QUALITY: z.coerce.number().int().min(1).max(31).default(3),
   MAX_UPLOAD_BYTES: z.coerce.number().int().positive().default(4 * 1024 ** 3),
-  MAX_PIXELS: z.coerce.number().int().positive().default(3840 * 2160),
+  MAX_PIXELS: z.coerce.number().int().positive().default(4096 * 2160),
   EMBEDDED_WORKER: bool.default(true),
   /** Web processes sharing PORT (node:cluster); 1 = this process serves requests itself. */
   WEB_PROCESSES: z.coerce.number().int().min(1).max(64).default(1),

@@ -8,7 +8,7 @@ import { HttpError } from "../http/problem";
 import { MediaInputError } from "../media/errors";
 import { probe, withoutPlaceTags, type ProbeResult } from "../media/probe";
 import { clipKeys, displayFileName, sha256File } from "../storage";
-import { PLAYBACK_RATE_MAX_FPS, type ClipMeta } from "../../shared/schemas/clips";
+import { PLAYBACK_RATE_MAX_FPS, type ClipMeta, type ClipTiming } from "../../shared/schemas/clips";
 import { sendExtract } from "../jobs/clip-queue";
 import { mediaConfig, storage } from "./deps";
 import * as memberRepo from "../entities/member/repository";
@@ -30,13 +30,23 @@ export async function checkMetaRefs(teamId: string, m: Pick<ClipMeta, "playerId"
   if (m.stickId && !(await repo.stickInTeam(teamId, m.stickId))) throw fieldProblem("stickId", "That stick is not in this team");
 }
 
+/** What the probe says about the file's rates. */
+export interface RateFacts {
+  storedFps: number;
+  /** A capture rate the phone wrote into the file. */
+  taggedCaptureFps?: number | null;
+  /** "uneven": the stored rate is only the typical spacing of uneven times. */
+  clock?: ClipTiming["clock"];
+}
+
 /**
- * The capture rate to keep. A stored rate above the playback range is believable as it stands;
- * at or below it only the person's confirmation counts.
+ * The capture rate to keep: the person's, else the phone's tag, else the stored rate. A stored
+ * rate above the playback range on a regular clock is believable as it stands; the typical rate
+ * of an uneven clock, a rate below it, or a tag that differs from it waits for the person.
  */
-export function decideCaptureRate(meta: { captureFps?: number; captureFpsConfirmed: boolean }, storedFps: number) {
-  const captureFps = meta.captureFps ?? (storedFps > 0 ? storedFps : 30);
-  const believable = storedFps > PLAYBACK_RATE_MAX_FPS && Math.abs(captureFps - storedFps) < 0.01;
+export function decideCaptureRate(meta: { captureFps?: number; captureFpsConfirmed: boolean }, f: RateFacts) {
+  const captureFps = meta.captureFps ?? f.taggedCaptureFps ?? (f.storedFps > 0 ? f.storedFps : 30);
+  const believable = f.storedFps > PLAYBACK_RATE_MAX_FPS && f.clock !== "uneven" && Math.abs(captureFps - f.storedFps) < 0.01;
   return { captureFps, captureFpsConfirmed: meta.captureFps !== undefined && meta.captureFpsConfirmed ? true : believable };
 }
 
@@ -87,7 +97,7 @@ export async function ingestUpload(r: IngestRequest): Promise<repo.ClipRow> {
       title: r.meta.title || stripExtension(name),
       shotType: r.meta.shotType,
       cameraView: r.meta.cameraView,
-      ...decideCaptureRate(r.meta, facts.storedFps),
+      ...decideCaptureRate(r.meta, { storedFps: facts.storedFps, taggedCaptureFps: facts.taggedCaptureFps, clock: facts.timing.clock }),
       storedFps: facts.storedFps || null,
       exposureUs: r.meta.exposureUs ?? null,
       notes: r.meta.notes,
@@ -98,6 +108,7 @@ export async function ingestUpload(r: IngestRequest): Promise<repo.ClipRow> {
       durationS: facts.durationS,
       rotationDeg: facts.rotationDeg,
       variableFrameRate: facts.variableFrameRate,
+      timing: facts.timing,
       codec: facts.codec,
       probe: { ...facts, raw: withoutPlaceTags(facts.raw) },
       frameFormat: env().FRAME_FORMAT,

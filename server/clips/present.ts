@@ -36,6 +36,7 @@ export function toSummary(j: JoinedClipSummary): ClipSummary {
     durationS: c.durationS,
     rotationDeg: c.rotationDeg,
     variableFrameRate: c.variableFrameRate,
+    timing: c.timing ?? null,
     codec: c.codec,
     sizeBytes: c.sizeBytes,
     originalName: c.originalName,

@@ -102,7 +102,7 @@ async function extractInto(row: ClipRow, run: ExtractRun) {
     );
     await thumbnail;
     await writes;
-    if (!(await updateClip(row.id, { frameCount: result.frameCount, framesDone: result.frameCount, frameTimes: result.frameTimes }))) throw new ClipGone();
+    if (!(await updateClip(row.id, { frameCount: result.frameCount, framesDone: result.frameCount, frameTimes: result.frameTimes, timing: result.timing }))) throw new ClipGone();
   } catch (err) {
     await writes.catch(() => undefined);
     if (abort.signal.aborted && !run.signal?.aborted) throw new ClipGone();

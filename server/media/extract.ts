@@ -9,7 +9,9 @@ import { FfmpegError } from "./errors";
 import { runTool, type MediaConfig } from "./ffmpeg";
 import type { ProbeResult } from "./probe";
 import { percentOf } from "./progress";
-import { frameTimesFromDecodedCsv, frameTimesFromPackets, parsePacketCsv } from "./timestamps";
+import { analyseTiming } from "./timing";
+import { frameTimesFromDecodedCsv, frameTimesFromPackets, parsePacketCsv, parseTimeBase } from "./timestamps";
+import type { ClipTiming } from "../../shared/schemas/clips";
 
 export type FrameFormat = "jpg" | "webp";
 
@@ -20,7 +22,8 @@ export interface StripOptions {
   height?: number;
 }
 
-export type ExtractProbe = Pick<ProbeResult, "frameCount" | "videoStreamIndex" | "pixelFormat" | "colorRange" | "timeBase">;
+export type ExtractProbe = Pick<ProbeResult, "frameCount" | "videoStreamIndex" | "pixelFormat" | "colorRange" | "timeBase"> &
+  Partial<Pick<ProbeResult, "storedFps" | "expectedFrames">>;
 
 export interface ExtractProgress {
   framesDone: number;
@@ -50,8 +53,10 @@ export interface ExtractOptions {
 
 export interface ExtractResult {
   frameCount: number;
-  /** Seconds from the first frame, index 0 = frame 1. */
+  /** Seconds from the first frame, index 0 = frame 1, on the frame grid where the clock allows. */
   frameTimes: number[];
+  /** The frame clock of the frames written: gaps, repeats, frames the header promised that did not decode. */
+  timing: ClipTiming;
   timestampSource: "packets" | "decoded-frames";
   framesDir: string;
   stripPath: string | null;
@@ -84,25 +89,28 @@ export interface ExtractSpecInput {
 }
 
 export function buildExtractSpec(s: ExtractSpecInput): FfmpegSpec {
-  const chain: string[] = [];
+  // Images are named by index, so their timestamps only need to rise: numbering them 0, 1, 2 … µs
+  // (and encoding on a µs clock) keeps the encoder from refusing repeated times (Matroska at
+  // > 1,000 fps, damaged files).
+  const chain: string[] = ["settb=1/1000000", "setpts=N"];
   if (s.format === "jpg" && lutFormats.has(s.probe.pixelFormat ?? "") && s.probe.colorRange !== "pc") chain.push(toFullRange);
   const encoder =
     s.format === "jpg"
       ? ["-c:v", "mjpeg", "-q:v", String(s.quality), ...(s.quality < 2 ? ["-qmin", "1"] : [])]
       : ["-c:v", "libwebp", "-quality", String(webpQuality(s.quality)), "-compression_level", "0"];
   // passthrough: one image per decoded frame; image2 otherwise duplicates/drops to a constant rate.
-  const frameOut = ["-fps_mode", "passthrough", ...encoder, "-f", "image2", "-atomic_writing", "1", "-start_number", "1"];
+  const frameOut = ["-fps_mode", "passthrough", "-enc_time_base", "1/1000000", ...encoder, "-f", "image2", "-atomic_writing", "1", "-start_number", "1"];
   const src = `[0:${s.probe.videoStreamIndex}]`;
   const framesPattern = path.join(s.framesDir, `%06d.${s.format}`);
   const inputs = [{ path: s.input }];
 
   if (!s.stripPath) {
-    const vf = chain.length ? ["-vf", chain.join(",")] : [];
+    const vf = ["-vf", chain.join(",")];
     return { inputs, outputs: [{ path: framesPattern, options: ["-map", `0:${s.probe.videoStreamIndex}`, ...vf, ...frameOut] }] };
   }
   const tiles = Math.max(1, Math.min(s.strip.count, s.probe.frameCount || s.strip.count));
   const every = Math.max(1, Math.floor((s.probe.frameCount || tiles) / tiles));
-  const head = chain.length ? `${chain.join(",")},` : "";
+  const head = `${chain.join(",")},`;
   const filterComplex =
     `${src}${head}split=2[frames][thumbs];` +
     `[thumbs]select='not(mod(n,${every}))*lt(n,${every * tiles})',scale=-2:${s.strip.height},tile=${tiles}x1[strip]`;
@@ -248,10 +256,17 @@ export async function extractFrames(config: MediaConfig, o: ExtractOptions): Pro
     }
   }
 
+  const snapped = analyseTiming(frameTimes, parseTimeBase(o.probe.timeBase), [o.probe.storedFps]);
+  const timing = snapped.timing;
+  const promised = Math.max(o.probe.expectedFrames ?? 0, o.probe.frameCount);
+  // Frames the header promised beyond the last one decoded (gaps inside are listed as gaps).
+  const reached = Math.round((snapped.times[frameCount - 1] ?? 0) * timing.nominalFps) + 1;
+  if (promised - reached > Math.max(1, 0.01 * promised)) timing.missingTail = { from: reached + 1, to: promised };
   o.onProgress?.({ framesDone: frameCount, totalFrames: frameCount, percent: 100 });
   return {
     frameCount,
-    frameTimes,
+    frameTimes: snapped.times,
+    timing,
     timestampSource,
     framesDir,
     stripPath: stripPath && existsSync(stripPath) ? stripPath : null,

@@ -8,6 +8,7 @@ import { clipKeys, frameIndexOf, LocalDiskStorage, StorageError, type Storage } 
 import { FfmpegError } from "./errors";
 import { extractFrames, type ExtractOptions, type ExtractProgress, type FrameFormat } from "./extract";
 import { withJobDir, type MediaConfig } from "./ffmpeg";
+import type { ClipTiming } from "../../shared/schemas/clips";
 
 export interface ExtractClipOptions
   extends Pick<ExtractOptions, "probe" | "format" | "quality" | "strip" | "timeoutMs" | "stallTimeoutMs" | "signal"> {
@@ -23,6 +24,7 @@ export interface ExtractClipOptions
 export interface ExtractClipResult {
   frameCount: number;
   frameTimes: number[];
+  timing: ClipTiming;
   timestampSource: "packets" | "decoded-frames";
   format: FrameFormat;
   stripKey: string | null;
@@ -141,6 +143,7 @@ export async function extractClipFrames(
       return {
         frameCount: result.frameCount,
         frameTimes: result.frameTimes,
+        timing: result.timing,
         timestampSource: result.timestampSource,
         format,
         stripKey,

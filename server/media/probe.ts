@@ -5,9 +5,12 @@ import { open, stat } from "node:fs/promises";
 import { buildFfprobeArgs } from "./command";
 import { FfmpegError, MediaInputError } from "./errors";
 import { runTool, type MediaConfig } from "./ffmpeg";
+import { analyseTiming } from "./timing";
+import { frameTimesFromPackets, parsePacketCsv, parseTimeBase } from "./timestamps";
+import type { ClipTiming } from "../../shared/schemas/clips";
 
 export interface ProbeOptions {
-  /** Largest accepted frame, width × height (env MAX_PIXELS). Default 3840 × 2160. */
+  /** Largest accepted frame, width × height (env MAX_PIXELS). Default DCI 4K, 4096 × 2160. */
   maxPixels?: number;
   timeoutMs?: number;
   signal?: AbortSignal;
@@ -25,11 +28,18 @@ export interface ProbeResult {
   /** Size as stored in the file, before rotation. */
   storedWidth: number;
   storedHeight: number;
-  /** The file's frame rate (average, else nominal). Often a playback rate, not the capture rate. */
+  /** The rate of the file's frame grid (decision 131). Often a playback rate, not the capture rate. */
   storedFps: number;
   rFrameRate: string;
   avgFrameRate: string;
+  /** Frames in the file: its video packets, which with -fps_mode passthrough are the frames written. */
   frameCount: number;
+  /** Frames the header promises (its count, else duration × rate); more than frameCount for a cut file. */
+  expectedFrames: number;
+  /** The frame clock of the packets' times: even, snapped or uneven, with gaps and repeats. */
+  timing: ClipTiming;
+  /** A capture rate the phone wrote into the file (Android's capture-fps tag and the like), else null. */
+  taggedCaptureFps: number | null;
   durationS: number | null;
   /** Clockwise turn from stored to displayed picture. */
   rotationDeg: Rotation;
@@ -102,28 +112,20 @@ export function rotationOf(stream: FfprobeStream): Rotation {
   return r as Rotation;
 }
 
-/** Nominal and average rate differ by more than 0.5 %. */
-export function ratesDiffer(r: string | undefined, avg: string | undefined): boolean {
-  const a = parseRate(r);
-  const b = parseRate(avg);
-  if (a === null || b === null) return false;
-  return Math.abs(a - b) / Math.max(a, b) > 0.005;
-}
+// Phones that store slow motion at a playback rate write the capture rate as a tag: Android's
+// "com.android.capture.fps" (ffprobe shows mdta keys as format tags); other writers use similar
+// keys with "capture" and "fps" or "frame rate" (from memory, unverified per maker).
+const CAPTURE_RATE_TAG = /capture[._-]?(fps|frame[._-]?rate)/i;
 
-/**
- * Whether presentation times (in stream ticks, any order) are unevenly spaced. The last few of a
- * sample are dropped because B-frame reordering can leave a gap at the end of a packet window;
- * one tick of jitter is rounding, not variable rate.
- */
-export function timestampsUneven(pts: number[], reorderSlack = 16): boolean {
-  const sorted = [...pts].sort((a, b) => a - b);
-  const kept = sorted.length > reorderSlack * 2 ? sorted.slice(0, sorted.length - reorderSlack) : sorted;
-  if (kept.length < 3) return false;
-  const deltas = kept.slice(1).map((v, i) => v - kept[i]);
-  const median = [...deltas].sort((a, b) => a - b)[Math.floor(deltas.length / 2)];
-  if (median <= 0) return true;
-  const tolerance = Math.max(1.5, 0.05 * median);
-  return deltas.some((d) => Math.abs(d - median) > tolerance);
+/** The capture rate a file's tags state, or null. */
+export function taggedCaptureRate(raw: FfprobeJson): number | null {
+  const tagSets = [raw.format?.tags, ...(raw.streams ?? []).map((s) => s.tags)];
+  for (const tags of tagSets)
+    for (const [k, v] of Object.entries(tags ?? {})) {
+      const fps = Number.parseFloat(v);
+      if (CAPTURE_RATE_TAG.test(k) && Number.isFinite(fps) && fps > 0 && fps <= 1_000_000) return fps;
+    }
+  return null;
 }
 
 const imageCodecs = new Set([
@@ -198,7 +200,7 @@ async function ffprobeJson<T>(config: MediaConfig, file: string, options: string
 }
 
 export async function probe(config: MediaConfig, file: string, o: ProbeOptions = {}): Promise<ProbeResult> {
-  const maxPixels = o.maxPixels ?? 3840 * 2160;
+  const maxPixels = o.maxPixels ?? 4096 * 2160;
   const { size } = await stat(file);
   if (size === 0) {
     throw new MediaInputError("empty_file", "The file is empty (0 bytes). Nothing was stored; please upload the clip again.");
@@ -246,7 +248,9 @@ export async function probe(config: MediaConfig, file: string, o: ProbeOptions =
   const codec = video.codec_name ?? "unknown";
   const nbFrames = Number(video.nb_frames);
   const headerFrames = Number.isInteger(nbFrames) && nbFrames > 0 ? nbFrames : null;
-  if (isStillImage(formatName, codec, headerFrames)) {
+  // Every packet's time (demux only, no decoding): the frame count, the frame clock and the rate.
+  const packets = await packetTimes(config, file, video, o);
+  if (isStillImage(formatName, codec, packets.length || headerFrames)) {
     throw new MediaInputError("image_not_video", `This is an image (${codec}), not a video. Upload the video clip itself.`, {
       codec,
       formatName,
@@ -264,11 +268,11 @@ export async function probe(config: MediaConfig, file: string, o: ProbeOptions =
     );
   }
 
-  // Decode the first packets: proves frames come out, and samples timestamps for the VFR check.
+  // Decode the first packets: proves frames come out.
   const sel = ["-select_streams", String(video.index), "-read_intervals", `%+#${o.samplePackets ?? 120}`];
-  let sample: { streams?: { nb_read_frames?: string }[]; packets?: { pts?: number; dts?: number; flags?: string }[] };
+  let sample: { streams?: { nb_read_frames?: string }[] };
   try {
-    sample = await ffprobeJson(config, file, [...sel, "-count_frames", "-show_entries", "stream=nb_read_frames:packet=pts,dts,flags"], o);
+    sample = await ffprobeJson(config, file, [...sel, "-count_frames", "-show_entries", "stream=nb_read_frames"], o);
   } catch (err) {
     if (!isInputFailure(err)) throw err;
     sample = {};
@@ -282,24 +286,17 @@ export async function probe(config: MediaConfig, file: string, o: ProbeOptions =
     );
   }
 
-  let frameCount = headerFrames;
-  if (frameCount === null) {
-    const counted = await ffprobeJson<{ streams?: { nb_read_packets?: string }[] }>(
-      config,
-      file,
-      ["-select_streams", String(video.index), "-count_packets", "-show_entries", "stream=nb_read_packets"],
-      o,
-    );
-    frameCount = Number(counted.streams?.[0]?.nb_read_packets ?? 0) || decoded;
-  }
-
-  const samplePts = (sample.packets ?? [])
-    .filter((p) => !p.flags?.includes("D"))
-    .map((p) => p.pts ?? p.dts)
-    .filter((v): v is number => typeof v === "number");
+  const timeBase = video.time_base ?? "1/1000";
+  const { timing } = analyseTiming(packets, parseTimeBase(timeBase), [parseRate(video.r_frame_rate), parseRate(video.avg_frame_rate)]);
+  const frameCount = packets.length || headerFrames || decoded;
+  const duration = Number(video.duration ?? raw.format?.duration);
+  const durationS = Number.isFinite(duration) && duration > 0 ? duration : null;
+  // What the header promises: its own count, else its duration on the frame grid.
+  const expectedFrames = Math.max(frameCount, headerFrames ?? (durationS ? Math.round(durationS * timing.nominalFps) : frameCount));
+  // A cut file promises more than it holds; one frame and 1 % are rounding of a duration.
+  if (expectedFrames - frameCount > Math.max(1, 0.01 * expectedFrames)) timing.missingTail = { from: frameCount + 1, to: expectedFrames };
   const rotationDeg = rotationOf(video);
   const quarter = rotationDeg === 90 || rotationDeg === 270;
-  const duration = Number(video.duration ?? raw.format?.duration);
 
   return {
     codec,
@@ -307,20 +304,41 @@ export async function probe(config: MediaConfig, file: string, o: ProbeOptions =
     height: quarter ? storedWidth : storedHeight,
     storedWidth,
     storedHeight,
-    storedFps: parseRate(video.avg_frame_rate) ?? parseRate(video.r_frame_rate) ?? 0,
+    storedFps: timing.nominalFps,
     rFrameRate: video.r_frame_rate ?? "0/0",
     avgFrameRate: video.avg_frame_rate ?? "0/0",
     frameCount,
-    durationS: Number.isFinite(duration) ? duration : null,
+    expectedFrames,
+    timing,
+    taggedCaptureFps: taggedCaptureRate(raw),
+    durationS,
     rotationDeg,
-    variableFrameRate: ratesDiffer(video.r_frame_rate, video.avg_frame_rate) || timestampsUneven(samplePts),
+    variableFrameRate: timing.clock === "uneven" || timing.gapCount > 0 || timing.repeatCount > 0,
     hasAudio,
     pixelFormat: video.pix_fmt ?? null,
     colorRange: video.color_range ?? null,
     videoStreamIndex: video.index,
-    timeBase: video.time_base ?? "1/1000",
+    timeBase,
     formatName,
     sizeBytes: size,
     raw,
   };
+}
+
+/** Seconds from the first frame of every video packet, in presentation order (no decoding). */
+async function packetTimes(config: MediaConfig, file: string, video: FfprobeStream, o: ProbeOptions): Promise<number[]> {
+  try {
+    const { stdout } = await runTool(config, {
+      tool: "ffprobe",
+      args: buildFfprobeArgs(file, ["-select_streams", String(video.index), "-show_entries", "packet=pts,dts,flags", "-of", "csv=p=0"]),
+      timeoutMs: o.timeoutMs ?? 60_000,
+      signal: o.signal,
+      captureStdout: true,
+      failureLogLevel: "warn",
+    });
+    return frameTimesFromPackets(parsePacketCsv(stdout), video.time_base ?? "1/1000");
+  } catch (err) {
+    if (!isInputFailure(err)) throw err;
+    return [];
+  }
 }

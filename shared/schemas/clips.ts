@@ -44,9 +44,11 @@ export interface ClipTiming {
 /** True when the clip has real gaps, repeats or missing frames. */
 export const timingIrregular = (t: ClipTiming | null | undefined): boolean => !!t && (t.gapCount > 0 || t.repeatCount > 0 || t.missingTail !== null);
 
-/** True when the person must confirm the capture rate before speeds mean anything. */
-export const needsCaptureRateConfirmation = (c: { storedFps: number | null; captureFpsConfirmed: boolean }) =>
-  !c.captureFpsConfirmed && (c.storedFps === null || c.storedFps <= PLAYBACK_RATE_MAX_FPS);
+/**
+ * True when the person must confirm the capture rate before speeds mean anything: whenever ingest
+ * could not (a playback-looking stored rate, a tag that differs from it, an uneven clock).
+ */
+export const needsCaptureRateConfirmation = (c: { storedFps: number | null; captureFpsConfirmed: boolean }) => !c.captureFpsConfirmed;
 
 /**
  * Capture-time seconds of each frame from the stored timestamps: a 3,200 fps capture stored at
@@ -184,6 +186,8 @@ export interface ClipSummary {
   durationS: number | null;
   rotationDeg: number;
   variableFrameRate: boolean;
+  /** The frame clock ingest found (null for clips stored before it was kept). */
+  timing: ClipTiming | null;
   codec: string | null;
   sizeBytes: number | null;
   originalName: string;

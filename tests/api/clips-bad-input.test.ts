@@ -97,8 +97,8 @@ describe("unusable files are refused with their reason", () => {
   });
 
   it("frames larger than the configured pixel limit", async () => {
-    const f = makeClip("huge.mp4", { frames: 2, size: "4000x2200" }); // 8.8 MP > 3840 × 2160 default
-    await expectRejected(f, "huge.mp4", 422, "pixel_size_over_limit", /4000 × 2200/);
+    const f = makeClip("huge.mp4", { frames: 2, size: "4400x2200" }); // 9.7 MP > DCI 4K (4096 × 2160) default
+    await expectRejected(f, "huge.mp4", 422, "pixel_size_over_limit", /4400 × 2200/);
   });
 
   it("a file over the size limit, refused from its declared length alone", async () => {

@@ -4,20 +4,27 @@ import { decideCaptureRate } from "../../../server/clips/ingest";
 
 describe("capture rate vs stored rate", () => {
   it("a stored rate of 60 fps or less asks for confirmation; above it is believed [CP]", () => {
-    expect(decideCaptureRate({ captureFpsConfirmed: false }, 30)).toEqual({ captureFps: 30, captureFpsConfirmed: false });
-    expect(decideCaptureRate({ captureFpsConfirmed: false }, 60)).toEqual({ captureFps: 60, captureFpsConfirmed: false });
-    expect(decideCaptureRate({ captureFpsConfirmed: false }, 240)).toEqual({ captureFps: 240, captureFpsConfirmed: true });
-    expect(decideCaptureRate({ captureFps: 3200, captureFpsConfirmed: true }, 30)).toEqual({ captureFps: 3200, captureFpsConfirmed: true });
+    expect(decideCaptureRate({ captureFpsConfirmed: false }, { storedFps: 30 })).toEqual({ captureFps: 30, captureFpsConfirmed: false });
+    expect(decideCaptureRate({ captureFpsConfirmed: false }, { storedFps: 60 })).toEqual({ captureFps: 60, captureFpsConfirmed: false });
+    expect(decideCaptureRate({ captureFpsConfirmed: false }, { storedFps: 240 })).toEqual({ captureFps: 240, captureFpsConfirmed: true });
+    expect(decideCaptureRate({ captureFps: 3200, captureFpsConfirmed: true }, { storedFps: 30 })).toEqual({ captureFps: 3200, captureFpsConfirmed: true });
     // A typed rate without the tick is kept but not confirmed.
-    expect(decideCaptureRate({ captureFps: 3200, captureFpsConfirmed: false }, 30)).toEqual({ captureFps: 3200, captureFpsConfirmed: false });
+    expect(decideCaptureRate({ captureFps: 3200, captureFpsConfirmed: false }, { storedFps: 30 })).toEqual({ captureFps: 3200, captureFpsConfirmed: false });
     // No rate in the file at all: a placeholder the person must replace.
-    expect(decideCaptureRate({ captureFpsConfirmed: false }, 0)).toEqual({ captureFps: 30, captureFpsConfirmed: false });
+    expect(decideCaptureRate({ captureFpsConfirmed: false }, { storedFps: 0 })).toEqual({ captureFps: 30, captureFpsConfirmed: false });
+  });
+
+  it("a phone's capture-rate tag pre-fills the rate; the uneven clock's typical rate is never confirmed by itself (issue 15)", () => {
+    expect(decideCaptureRate({ captureFpsConfirmed: false }, { storedFps: 30, taggedCaptureFps: 240 })).toEqual({ captureFps: 240, captureFpsConfirmed: false });
+    expect(decideCaptureRate({ captureFpsConfirmed: false }, { storedFps: 240, taggedCaptureFps: 240 })).toEqual({ captureFps: 240, captureFpsConfirmed: true });
+    expect(decideCaptureRate({ captureFpsConfirmed: false }, { storedFps: 240, clock: "uneven" })).toEqual({ captureFps: 240, captureFpsConfirmed: false });
+    expect(decideCaptureRate({ captureFpsConfirmed: false }, { storedFps: 1200, clock: "snapped" })).toEqual({ captureFps: 1200, captureFpsConfirmed: true });
+    expect(needsCaptureRateConfirmation({ storedFps: 240, captureFpsConfirmed: false })).toBe(true);
   });
 
   it("flags only unconfirmed playback-looking rates", () => {
     expect(needsCaptureRateConfirmation({ storedFps: 30, captureFpsConfirmed: false })).toBe(true);
     expect(needsCaptureRateConfirmation({ storedFps: 30, captureFpsConfirmed: true })).toBe(false);
-    expect(needsCaptureRateConfirmation({ storedFps: 240, captureFpsConfirmed: false })).toBe(false);
     expect(needsCaptureRateConfirmation({ storedFps: null, captureFpsConfirmed: false })).toBe(true);
   });
 

@@ -1,7 +1,7 @@
 // Pure parsers: ffmpeg's -progress blocks, packet/frame timestamp lists, probe JSON helpers.
 // Formats as printed by ffmpeg/ffprobe 5.1 on this machine.
 import { describe, expect, it } from "vitest";
-import { isStillImage, looksLikePlaybackRate, parseRate, ratesDiffer, rotationOf, timestampsUneven, withoutPlaceTags } from "../../../server/media/probe";
+import { isStillImage, looksLikePlaybackRate, parseRate, rotationOf, taggedCaptureRate, withoutPlaceTags } from "../../../server/media/probe";
 import { percentOf, ProgressParser } from "../../../server/media/progress";
 import { frameTimesFromDecodedCsv, frameTimesFromPackets, parsePacketCsv, parseTimeBase } from "../../../server/media/timestamps";
 
@@ -68,18 +68,10 @@ describe("probe helpers", () => {
     expect(rotationOf({ index: 0 })).toBe(0);
   });
 
-  it("flags nominal vs average rate mismatch beyond rounding", () => {
-    expect(ratesDiffer("120/1", "3000/41")).toBe(true);
-    expect(ratesDiffer("30/1", "30/1")).toBe(false);
-    expect(ratesDiffer("30000/1001", "2997/100")).toBe(false);
-    expect(ratesDiffer("0/0", "30/1")).toBe(false);
-  });
-
-  it("flags unevenly spaced timestamps but not one tick of rounding", () => {
-    const even = Array.from({ length: 100 }, (_, i) => Math.round((i * 15360) / 29.97));
-    expect(timestampsUneven(even)).toBe(false);
-    const ramp = [...Array.from({ length: 30 }, (_, i) => i * 40), ...Array.from({ length: 60 }, (_, i) => 1200 + i * 10)];
-    expect(timestampsUneven(ramp)).toBe(true);
+  it("reads a capture rate a phone wrote as a tag", () => {
+    expect(taggedCaptureRate({ format: { tags: { "com.android.capture.fps": "240.000000" } } })).toBe(240);
+    expect(taggedCaptureRate({ streams: [{ index: 0, tags: { "com.example.capture-frame-rate": "960" } }] })).toBe(960);
+    expect(taggedCaptureRate({ format: { tags: { "com.android.version": "14" } } })).toBe(null);
   });
 
   it("knows an image from a video", () => {
@@ -88,6 +80,7 @@ describe("probe helpers", () => {
     expect(isStillImage("mov,mp4,m4a,3gp,3g2,mj2", "png", 1)).toBe(true);
     expect(isStillImage("avi", "mjpeg", 900)).toBe(false); // lab cameras write MJPEG AVI
     expect(isStillImage("mov,mp4,m4a,3gp,3g2,mj2", "h264", 1)).toBe(false);
+    expect(isStillImage("matroska,webm", "mjpeg", 300)).toBe(false); // Motion-JPEG in Matroska
   });
 
   it("treats a stored rate of 60 fps or less as a likely playback rate (issue 3)", () => {
