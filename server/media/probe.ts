@@ -47,6 +47,13 @@ export interface ProbeResult {
   hasAudio: boolean;
   pixelFormat: string | null;
   colorRange: string | null;
+  /** Colour facts the extraction honours: HDR transfer (tone-mapped), matrix (BT.709 vs 601). */
+  colorTransfer: string | null;
+  colorSpace: string | null;
+  /** Interlaced: every frame holds two fields, extracted as two pictures (decision 132). */
+  interlaced: boolean;
+  /** Width ÷ height of one stored pixel (1 = square); frames are served square. */
+  pixelAspect: number;
   /** Absolute index of the video stream used. */
   videoStreamIndex: number;
   timeBase: string;
@@ -69,6 +76,10 @@ export interface FfprobeStream {
   duration?: string;
   pix_fmt?: string;
   color_range?: string;
+  color_transfer?: string;
+  color_space?: string;
+  field_order?: string;
+  sample_aspect_ratio?: string;
   disposition?: Record<string, number>;
   tags?: Record<string, string>;
   side_data_list?: { side_data_type?: string; rotation?: number }[];
@@ -116,6 +127,16 @@ export function rotationOf(stream: FfprobeStream): Rotation {
 // "com.android.capture.fps" (ffprobe shows mdta keys as format tags); other writers use similar
 // keys with "capture" and "fps" or "frame rate" (from memory, unverified per maker).
 const CAPTURE_RATE_TAG = /capture[._-]?(fps|frame[._-]?rate)/i;
+
+/** "4:3" → 1.333; missing, "0:1", "1:1" → 1. */
+export function parseAspect(sar: string | undefined): number {
+  const [n, d] = (sar ?? "").split(":").map(Number);
+  const v = n / d;
+  return Number.isFinite(v) && v > 0 ? v : 1;
+}
+
+/** The width square pixels need, even (the encoders want even sizes). */
+export const squareWidthOf = (width: number, pixelAspect: number) => Math.max(2, 2 * Math.round((width * pixelAspect) / 2));
 
 /** The capture rate a file's tags state, or null. */
 export function taggedCaptureRate(raw: FfprobeJson): number | null {
@@ -288,20 +309,32 @@ export async function probe(config: MediaConfig, file: string, o: ProbeOptions =
 
   const timeBase = video.time_base ?? "1/1000";
   const { timing } = analyseTiming(packets, parseTimeBase(timeBase), [parseRate(video.r_frame_rate), parseRate(video.avg_frame_rate)]);
-  const frameCount = packets.length || headerFrames || decoded;
+  // Interlaced video is one picture per field: twice the frames, twice the rate.
+  const interlaced = ["tt", "bb", "tb", "bt"].includes(video.field_order ?? "");
+  const perFrame = interlaced ? 2 : 1;
+  if (interlaced) {
+    timing.nominalFps *= 2;
+    timing.gaps = timing.gaps.map((g) => ({ after: g.after * 2, missing: g.missing * 2 }));
+    timing.repeats = timing.repeats.map((f) => f * 2 - 1);
+  }
+  const frameCount = (packets.length || headerFrames || decoded) * perFrame;
   const duration = Number(video.duration ?? raw.format?.duration);
   const durationS = Number.isFinite(duration) && duration > 0 ? duration : null;
   // What the header promises: its own count, else its duration on the frame grid.
-  const expectedFrames = Math.max(frameCount, headerFrames ?? (durationS ? Math.round(durationS * timing.nominalFps) : frameCount));
+  const expectedFrames = Math.max(frameCount, headerFrames ? headerFrames * perFrame : durationS ? Math.round(durationS * timing.nominalFps) : frameCount);
   // A cut file promises more than it holds; one frame and 1 % are rounding of a duration.
   if (expectedFrames - frameCount > Math.max(1, 0.01 * expectedFrames)) timing.missingTail = { from: frameCount + 1, to: expectedFrames };
   const rotationDeg = rotationOf(video);
   const quarter = rotationDeg === 90 || rotationDeg === 270;
+  // Non-square pixels (1440 × 1080 at 4:3) are widened to square ones, so a scale bar measures
+  // the same in every direction.
+  const pixelAspect = parseAspect(video.sample_aspect_ratio);
+  const squareWidth = pixelAspect === 1 ? storedWidth : squareWidthOf(storedWidth, pixelAspect);
 
   return {
     codec,
-    width: quarter ? storedHeight : storedWidth,
-    height: quarter ? storedWidth : storedHeight,
+    width: quarter ? storedHeight : squareWidth,
+    height: quarter ? squareWidth : storedHeight,
     storedWidth,
     storedHeight,
     storedFps: timing.nominalFps,
@@ -316,6 +349,10 @@ export async function probe(config: MediaConfig, file: string, o: ProbeOptions =
     variableFrameRate: timing.clock === "uneven" || timing.gapCount > 0 || timing.repeatCount > 0,
     hasAudio,
     pixelFormat: video.pix_fmt ?? null,
+    colorTransfer: video.color_transfer ?? null,
+    colorSpace: video.color_space ?? null,
+    interlaced,
+    pixelAspect,
     colorRange: video.color_range ?? null,
     videoStreamIndex: video.index,
     timeBase,
