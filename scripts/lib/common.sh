@@ -110,3 +110,23 @@ auth_secret() {
   [ -f "$f" ] || { head -c 48 /dev/urandom | base64 | tr -d '\n' > "$f"; chmod 600 "$f"; }
   cat "$f"
 }
+
+# --- The local payments fake (scripts/payments-fake) ------------------------------------------
+# start_payments_fake PORT WEBHOOK_URL [STATE_FILE]: points the app's PAYMENTS_* variables at a
+# fake of the payment service on loopback and starts it in the background (PAYMENTS_FAKE_PID).
+# Nothing leaves the machine. With PAYMENTS_SECRET_KEY already set (a real account), it does nothing.
+start_payments_fake() {
+  if [ -n "${PAYMENTS_SECRET_KEY:-}" ] && [ -z "${PAYMENTS_API_HOST:-}" ]; then
+    say "Payments: using the account in PAYMENTS_SECRET_KEY (no local fake)"; return 0
+  fi
+  local port=$1 hook=$2 state=${3:-}
+  port_in_use "$port" && die "Port $port (the payments fake) is already in use. Stop the program using it or set PAYMENTS_FAKE_PORT."
+  local f="$DATA/payments-fake-secrets"
+  [ -f "$f" ] || { printf 'sk_test_local_%s whsec_local_%s\n' "$(head -c 18 /dev/urandom | base64 | tr -dc 'A-Za-z0-9')" "$(head -c 24 /dev/urandom | base64 | tr -dc 'A-Za-z0-9')" > "$f"; chmod 600 "$f"; }
+  read -r PAYMENTS_SECRET_KEY PAYMENTS_WEBHOOK_SECRET < "$f"
+  export PAYMENTS_SECRET_KEY PAYMENTS_WEBHOOK_SECRET PAYMENTS_API_HOST=127.0.0.1 PAYMENTS_API_PORT="$port" PAYMENTS_API_PROTOCOL=http
+  PAYMENTS_FAKE_WEBHOOK_URL="$hook" PAYMENTS_FAKE_STATE="$state" node --import tsx scripts/payments-fake/main.ts >"$DATA/payments-fake.log" 2>&1 &
+  PAYMENTS_FAKE_PID=$!
+  for _ in $(seq 1 100); do port_in_use "$port" && return 0; kill -0 "$PAYMENTS_FAKE_PID" 2>/dev/null || die "The payments fake did not start; see $DATA/payments-fake.log"; sleep 0.1; done
+  die "The payments fake did not start within 10 s; see $DATA/payments-fake.log"
+}

@@ -21,6 +21,7 @@ export const navItems: readonly NavItem[] = [
   { to: "/progress", label: "Progress", description: "Follow one player's puck exit speed, blade speed and timing across sessions, with best and typical values." },
   { to: "/settings", label: "Settings", description: "Choose your units (metric or imperial) and which e-mails you get." },
   { to: "/roster", label: "Roster", description: "Invite members, set their roles and manage pending invitations.", roles: ["admin"] },
+  { to: "/billing", label: "Plan", description: "The club's plan and what it allows, payments, invoices, and the club's teams.", roles: ["admin"] },
   { to: "/audit", label: "Audit log", description: "See who changed roles, sent invitations, deleted clips, shots or sticks, and shared shots.", roles: ["admin"] },
 ];
 

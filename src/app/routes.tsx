@@ -32,6 +32,7 @@ export const signedInRoutes: RouteObject[] = [
   { path: "settings", handle: { title: "Settings" }, lazy: () => import("@/features/settings/routes/SettingsPage") },
   { path: "roster", handle: { title: "Roster" }, lazy: () => import("@/features/roster/routes/RosterPage") },
   { path: "audit", handle: { title: "Audit log" }, lazy: () => import("@/features/audit/routes/AuditPage") },
+  { path: "billing", handle: { title: "Plan and billing" }, lazy: () => import("@/features/billing/routes/BillingPage") },
   { path: "*", handle: { title: "Not found" }, element: <NotFound /> },
 ];
 
@@ -40,4 +41,6 @@ export const publicRoutes: RouteObject[] = [
   { path: "forgot-password", handle: { title: "Forgot password" }, lazy: () => import("@/features/auth/routes/ForgotPasswordPage") },
   { path: "reset-password", handle: { title: "Choose a new password" }, lazy: () => import("@/features/auth/routes/ResetPasswordPage") },
   { path: "invite/:id", handle: { title: "Invitation" }, lazy: () => import("@/features/auth/routes/AcceptInvitePage") },
+  { path: "sign-up", handle: { title: "Start a club" }, lazy: () => import("@/features/auth/routes/SignUpPage") },
+  { path: "sign-up/:token", handle: { title: "Your club" }, lazy: () => import("@/features/auth/routes/SignUpDetailsPage") },
 ];

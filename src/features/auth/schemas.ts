@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { PasswordSchema } from "@shared/schemas/roster";
+import { SignupCompleteSchema } from "@shared/schemas/signup";
 
 // Client-side checks for the sign-in forms; the server checks again and its messages win.
 // The server's own password rule (shared) so the hint and the check match what it will accept.
@@ -19,6 +20,12 @@ export const resetSchema = z
   .object({ newPassword, confirm: z.string() })
   .refine((v) => v.newPassword === v.confirm, { path: ["confirm"], message: "The two passwords don't match" });
 export type ResetInput = z.infer<typeof resetSchema>;
+
+export const signupDetailsSchema = SignupCompleteSchema.extend({ confirm: z.string() }).refine((v) => v.password === v.confirm, {
+  path: ["confirm"],
+  message: "The two passwords don't match",
+});
+export type SignupDetailsInput = z.infer<typeof signupDetailsSchema>;
 
 export const acceptSchema = z
   .object({ name: z.string().trim().min(1, "Enter your name as your team will see it").max(100, "Keep it under 100 characters"), password: newPassword, confirm: z.string() })

@@ -29,7 +29,16 @@ export function Component() {
   return (
     <AuthShell
       title="Sign in"
-      description={next !== "/" ? "Sign in to continue where you were going." : "Welcome back. Sign in with the e-mail your team invited."}
+      // The sign-up link sits above the form: the e-mail field's message appears on blur and would move a link below it mid-click.
+      description={
+        next !== "/" ? (
+          "Sign in to continue where you were going."
+        ) : (
+          <>
+            Welcome back. Sign in with the e-mail your team invited. Starting a new club? <TextLink to="/sign-up">Sign up your club</TextLink>
+          </>
+        )
+      }
       footer={<>New to Loadframe? Your team admin sends you an invitation by e-mail.</>}
     >
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-5">

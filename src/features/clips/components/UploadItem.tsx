@@ -172,7 +172,7 @@ export function UploadItem({ file, teamId, options, initial, startAll, onValues,
 }
 
 const problemTitle: Record<UploadProblem["kind"], string> = {
-  network: "Network aborted", too_large: "Too large", quota: "Team storage full", duplicate: "Already uploaded", invalid_file: "Not a usable video",
+  network: "Network aborted", too_large: "Too large", quota: "Plan storage full", duplicate: "Already uploaded", invalid_file: "Not a usable video",
   invalid_details: "Check the details", signed_out: "Signed out", not_allowed: "Not allowed", server: "Upload failed",
 };
 

@@ -47,7 +47,8 @@ export function classifyUploadError(err: unknown): UploadProblem {
   const message = typeof body?.detail === "string" ? body.detail : "";
   const fields = Array.isArray(body?.errors) ? (body.errors as FieldProblem[]) : [];
   const p = (kind: UploadProblemKind, fallback: string): UploadProblem => ({ kind, code, message: message || fallback, fields });
-  if (code === "quota_exceeded") return p("quota", "The team's storage quota is full.");
+  if (code === "quota_exceeded") return p("quota", "The club's plan has no storage left for this file.");
+  if (code === "read_only_unpaid") return p("not_allowed", "The club is read-only until its overdue payment is made.");
   if (code === "too_large" || status === 413) return { ...p("too_large", "The file is too large to upload."), code: "too_large" };
   if (code === "duplicate_clip") return { ...p("duplicate", "This file is already in the team."), existingClipId: body?.existingClipId as string | undefined };
   if (invalidFileCodes.has(code)) return p("invalid_file", "This file cannot be used as a clip.");
