@@ -47,7 +47,7 @@ function Billing({ teamId, teamName }: { teamId: string; teamName: string }) {
 
   return (
     <>
-      <PageHeader eyebrow={st.club.name} title="Plan and billing" description={`${teamName} belongs to ${st.club.name}, which is on the ${plan.name} plan.`} />
+      <PageHeader eyebrow={st.club.name} title="Plan and billing" description={teamName === st.club.name ? `The club is on the ${plan.name} plan.` : `${teamName} belongs to ${st.club.name}, which is on the ${plan.name} plan.`} />
       <div className="flex flex-col gap-6">
         {params.get("welcome") && (
           <Alert tone="ok" title={`Welcome! ${st.club.name} is ready.`}>
@@ -75,7 +75,7 @@ function Billing({ teamId, teamName }: { teamId: string; teamName: string }) {
           </Alert>
         )}
 
-        <Card title="What the club uses" description={st.subscription ? subscriptionLine(st) : "The free plan has no end date."}>
+        <Card title="What the club uses" description={st.subscription ? subscriptionLine(st) : plan.monthlyCents ? `${plan.name} was granted to the club: nothing is due.` : "The free plan has no end date."}>
           <UsageMeters status={st} />
         </Card>
 
