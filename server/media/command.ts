@@ -33,8 +33,9 @@ export interface BuildOptions {
   logLevel?: "quiet" | "error" | "warning" | "info";
 }
 
-// Absolute paths cannot be mistaken for an option ("-x.mp4") or a protocol ("http:...").
-const safePath = (p: string) => path.resolve(p);
+// Absolute paths cannot be mistaken for an option ("-x.mp4") or a protocol ("http:..."); the
+// standard output pipe (pipe:1), for raw frames read by the caller, is the one protocol let through.
+const safePath = (p: string) => (p === "pipe:1" ? p : path.resolve(p));
 
 function withThreads(options: string[], threads: number | undefined): string[] {
   if (threads === undefined || options.includes("-threads")) return options;

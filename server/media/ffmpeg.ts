@@ -49,6 +49,12 @@ export interface RunOptions {
   onProgress?: (p: FfmpegProgress) => void;
   /** Keep stdout (ffprobe JSON / CSV), up to maxStdoutBytes. */
   captureStdout?: boolean;
+  /**
+   * Binary stdout (raw frames), chunk by chunk, instead of text. A returned promise pauses the
+   * pipe until it settles (ffmpeg then blocks on the full pipe); a rejection stops the run and is
+   * what runTool throws. Each chunk counts as progress for the watchdog.
+   */
+  onStdoutData?: (chunk: Buffer) => void | Promise<void>;
   maxStdoutBytes?: number;
   stderrTailChars?: number;
   /** Log level for a failed run; "warn" where failure is an expected answer (probing uploads). */
@@ -180,9 +186,38 @@ export async function runTool(config: MediaConfig, o: RunOptions): Promise<RunRe
   let stderrTail = "";
   const parser = o.onProgress ? new ProgressParser() : undefined;
   let lastKey = "";
-  sub.stdout?.setEncoding("utf8");
+  let consumerError: unknown;
+  let consuming = Promise.resolve();
+  let stdoutEnded = Promise.resolve();
+  if (o.onStdoutData) {
+    const consume = o.onStdoutData;
+    const out = sub.stdout;
+    stdoutEnded = new Promise((r) => {
+      out?.once("end", r);
+      out?.once("close", r);
+    });
+    // Chunks are handed over one at a time, in order, each after the previous one's promise; the
+    // pipe is paused while a few wait (a hint: the chain keeps the order even if it flows on).
+    let waiting = 0;
+    out?.on("data", (chunk: Buffer) => {
+      armStall();
+      if (consumerError) return;
+      waiting++;
+      if (waiting > 4) out.pause();
+      consuming = consuming
+        .then(() => (consumerError ? undefined : consume(chunk)))
+        .catch((err) => {
+          consumerError ??= err;
+          stop("aborted");
+        })
+        .finally(() => {
+          waiting--;
+          if (waiting <= 1 && out.isPaused()) out.resume();
+        });
+    });
+  } else sub.stdout?.setEncoding("utf8");
   sub.stderr?.setEncoding("utf8");
-  sub.stdout?.on("data", (chunk: string) => {
+  if (!o.onStdoutData) sub.stdout?.on("data", (chunk: string) => {
     if (o.captureStdout && !stdoutOverflow) {
       stdout += chunk;
       if (stdout.length > maxStdout) stdoutOverflow = true;
@@ -205,14 +240,21 @@ export async function runTool(config: MediaConfig, o: RunOptions): Promise<RunRe
     stderrTail = (stderrTail + chunk).slice(-tailChars);
   });
   // A grandchild that inherited the pipes would keep them open after the tool exits.
+  // A paused binary stdout still holds the last frames: read them all before giving up on the pipe.
   sub.on("exit", () => {
-    setTimeout(() => {
-      sub.stdout?.destroy();
-      sub.stderr?.destroy();
-    }, 1000).unref();
+    void consuming.finally(() =>
+      setTimeout(() => {
+        sub.stdout?.destroy();
+        sub.stderr?.destroy();
+      }, 1000).unref(),
+    );
   });
 
   const result = await sub;
+  if (process.env.DBGP) console.log("sub done");
+  // The pipe may still hold the last frames while the consumer works: read to its end.
+  await stdoutEnded;
+  for (let seen: Promise<void> | null = null; seen !== consuming; ) await (seen = consuming);
   clearTimeout(timer);
   clearTimeout(stallTimer);
   clearTimeout(escalation);
@@ -220,6 +262,7 @@ export async function runTool(config: MediaConfig, o: RunOptions): Promise<RunRe
   if (pid !== undefined) liveGroups.delete(pid);
   const durationMs = Date.now() - started;
 
+  if (consumerError) throw consumerError;
   if (!result.failed && !stdoutOverflow) return { stdout, stderrTail, durationMs, command };
 
   const spawnErrorCode = result.exitCode === undefined && !result.signal ? String(result.code ?? "ERROR") : undefined;

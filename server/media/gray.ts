@@ -1,0 +1,76 @@
+// Raw 8-bit grey frames straight from the decoder, for the tracking job: no image files, no JPEG
+// round trip. Frames are numbered as the extraction numbers them (every decoded frame, in order,
+// the first is 1, the same rotation), so frame n here is the picture the analyst marked as frame n.
+import { buildFfmpegArgs, type FfmpegSpec } from "./command";
+import { FfmpegError } from "./errors";
+import { runTool, type MediaConfig } from "./ffmpeg";
+
+export interface GraySpecInput {
+  input: string;
+  videoStreamIndex: number;
+  /** First and last frame wanted, 1-based and inclusive. */
+  first: number;
+  last: number;
+}
+
+/** ffmpeg -i clip -map 0:v -vf trim -fps_mode passthrough -f rawvideo -pix_fmt gray pipe:1 */
+export function buildGraySpec(s: GraySpecInput): FfmpegSpec {
+  // trim ends the stream after `last`, so ffmpeg stops decoding there instead of at the clip's end.
+  const trim = `trim=start_frame=${s.first - 1}:end_frame=${s.last}`;
+  return {
+    inputs: [{ path: s.input }],
+    outputs: [
+      {
+        path: "pipe:1",
+        options: ["-map", `0:${s.videoStreamIndex}`, "-vf", trim, "-fps_mode", "passthrough", "-f", "rawvideo", "-pix_fmt", "gray"],
+      },
+    ],
+  };
+}
+
+export interface GrayDecodeOptions extends GraySpecInput {
+  /** Displayed frame size (after rotation), as the clip row holds it. */
+  width: number;
+  height: number;
+  signal?: AbortSignal;
+  /** Default 60 s + 20 ms per frame. */
+  timeoutMs?: number;
+  /** Called once per frame, in order; its own copy of the bytes. A returned promise holds the decoder back. */
+  onFrame: (frame: number, data: Uint8Array) => void | Promise<void>;
+}
+
+/** Decode frames first…last to grey; resolves with the number of frames delivered. */
+export async function decodeGrayFrames(config: MediaConfig, o: GrayDecodeOptions): Promise<number> {
+  const bytes = o.width * o.height;
+  if (!(bytes > 0) || o.first < 1 || o.last < o.first) throw new RangeError(`bad grey decode request: ${o.width}×${o.height}, frames ${o.first}–${o.last}`);
+  const spec = buildGraySpec(o);
+  const args = buildFfmpegArgs(spec, { threads: config.threads ?? 2 });
+  let frame = new Uint8Array(bytes);
+  let filled = 0;
+  let next = o.first;
+  await runTool(config, {
+    tool: "ffmpeg",
+    args,
+    timeoutMs: o.timeoutMs ?? 60_000 + 20 * (o.last - o.first + 1),
+    stallTimeoutMs: 30_000,
+    signal: o.signal,
+    onStdoutData: async (chunk) => {
+      let at = 0;
+      while (at < chunk.length) {
+        const n = Math.min(bytes - filled, chunk.length - at);
+        frame.set(chunk.subarray(at, at + n), filled);
+        filled += n;
+        at += n;
+        if (filled === bytes) {
+          const done = frame;
+          frame = new Uint8Array(bytes);
+          filled = 0;
+          if (next > o.last) throw new FfmpegError("failed", `ffmpeg gave more frames than the ${o.last - o.first + 1} asked for`, { command: "", stderrTail: "", durationMs: 0 });
+          await o.onFrame(next++, done);
+        }
+      }
+    },
+  });
+  if (filled !== 0) throw new FfmpegError("failed", `ffmpeg ended inside frame ${next} (${filled} of ${bytes} bytes): the frame size is not ${o.width}×${o.height}`, { command: "", stderrTail: "", durationMs: 0 });
+  return next - o.first;
+}
