@@ -16,6 +16,20 @@ import { shotScene, type SceneOptions, type SceneTruth } from "./shot-scene";
 const RENDER_VERSION = 3;
 export const STORED_FPS = 30;
 
+/** How the camera spoils the picture: motion blur, focus blur, sensor noise, compression. */
+export interface RenderLook {
+  /** Shutter open for this share of the frame interval, centred on the frame time (motion blur). Default 0. */
+  exposure?: number;
+  /** Renders averaged over the exposure (default 4 when exposure > 0). */
+  subframes?: number;
+  /** Gaussian focus blur, sigma in px (ffmpeg gblur). */
+  blurSigma?: number;
+  /** Temporal sensor noise, ffmpeg noise filter strength (alls). */
+  noise?: number;
+  /** H.264 constant rate factor (default 12; 23 is a typical phone's). */
+  crf?: number;
+}
+
 export interface RenderedClip {
   mp4: string;
   frameCount: number;
@@ -54,8 +68,15 @@ export function clipTruth(scenes: SceneOptions[]): RenderedClip["scenes"] {
 const exists = (p: string) => stat(p).then(() => true, () => false);
 
 /** Render the scenes one after the other into one MP4 (cached). */
-export async function renderClip(scenes: SceneOptions[], opts: { media?: MediaConfig; cacheDir?: string; jpegQuality?: number } = {}): Promise<RenderedClip> {
-  const key = createHash("sha1").update(JSON.stringify({ v: RENDER_VERSION, scenes, q: opts.jpegQuality ?? 92 })).digest("hex").slice(0, 16);
+export async function renderClip(
+  scenes: SceneOptions[],
+  opts: { media?: MediaConfig; cacheDir?: string; jpegQuality?: number; look?: RenderLook } = {},
+): Promise<RenderedClip> {
+  const look = opts.look ?? {};
+  const key = createHash("sha1")
+    .update(JSON.stringify({ v: RENDER_VERSION, scenes, q: opts.jpegQuality ?? 92, ...(Object.keys(look).length ? { look } : {}) }))
+    .digest("hex")
+    .slice(0, 16);
   const dir = path.join(opts.cacheDir ?? path.join(os.tmpdir(), "loadframe-demo-scenes"), key);
   const mp4 = path.join(dir, "clip.mp4");
   const truths = clipTruth(scenes);
@@ -72,17 +93,23 @@ export async function renderClip(scenes: SceneOptions[], opts: { media?: MediaCo
     // gives straight alpha), which is several times quicker than rastering the whole scene.
     const bg = await sharp(Buffer.from(background())).removeAlpha().raw().toBuffer({ resolveWithObject: true });
     const raw = { raw: { width: bg.info.width, height: bg.info.height, channels: 3 as const } };
+    // Motion blur: the moving parts rendered at `subframes` instants across the exposure and averaged.
+    const exposure = look.exposure ?? 0;
+    const subs = exposure > 0 ? Math.max(2, look.subframes ?? 4) : 1;
+    const instants = Array.from({ length: subs }, (_, i) => (subs === 1 ? 0 : exposure * ((i + 0.5) / subs - 0.5)));
     const one = async (f: number, out: string) => {
-      const fg = await sharp(Buffer.from(foreground(f))).raw().toBuffer();
-      const img = Buffer.from(bg.data);
-      for (let i = 0, j = 0; i < fg.length; i += 4, j += 3) {
-        const a = fg[i + 3];
-        if (a === 0) continue;
-        const k = a / 255;
-        img[j] = fg[i] * k + img[j] * (1 - k);
-        img[j + 1] = fg[i + 1] * k + img[j + 1] * (1 - k);
-        img[j + 2] = fg[i + 2] * k + img[j + 2] * (1 - k);
+      const sum = new Float32Array(bg.data.length);
+      for (const dt of instants) {
+        const fg = await sharp(Buffer.from(foreground(f + dt))).raw().toBuffer();
+        for (let i = 0, j = 0; i < fg.length; i += 4, j += 3) {
+          const k = fg[i + 3] / 255;
+          sum[j] += fg[i] * k + bg.data[j] * (1 - k);
+          sum[j + 1] += fg[i + 1] * k + bg.data[j + 1] * (1 - k);
+          sum[j + 2] += fg[i + 2] * k + bg.data[j + 2] * (1 - k);
+        }
       }
+      const img = Buffer.alloc(sum.length);
+      for (let j = 0; j < sum.length; j++) img[j] = sum[j] / subs;
       await sharp(img, raw).jpeg({ quality: opts.jpegQuality ?? 92, chromaSubsampling: "4:4:4" }).toFile(out);
     };
     const jobs: Promise<unknown>[] = [];
@@ -93,9 +120,21 @@ export async function renderClip(scenes: SceneOptions[], opts: { media?: MediaCo
     }
     await Promise.all(jobs);
   }
+  const filters = [
+    ...(look.blurSigma ? [`gblur=sigma=${look.blurSigma}`] : []),
+    ...(look.noise ? [`noise=alls=${look.noise}:allf=t`] : []),
+  ];
   const args = buildFfmpegArgs({
     inputs: [{ path: path.join(work, "frames", "%06d.jpg"), options: ["-framerate", String(STORED_FPS)] }],
-    outputs: [{ path: path.join(work, "clip.mp4"), options: ["-c:v", "libx264", "-preset", "veryfast", "-crf", "12", "-pix_fmt", "yuv420p", "-movflags", "+faststart"] }],
+    outputs: [
+      {
+        path: path.join(work, "clip.mp4"),
+        options: [
+          ...(filters.length ? ["-vf", filters.join(",")] : []),
+          "-c:v", "libx264", "-preset", "veryfast", "-crf", String(look.crf ?? 12), "-pix_fmt", "yuv420p", "-movflags", "+faststart",
+        ],
+      },
+    ],
   });
   await runTool(opts.media ?? defaultMedia(), { tool: "ffmpeg", args, timeoutMs: 300_000 });
   await mkdir(dir, { recursive: true });

@@ -27,12 +27,19 @@ export interface SceneOptions {
   peakDeflectionMm?: number;
   /** Frame of ice strike (the first frame is 1). */
   iceStrikeFrame?: number;
+  /** The blade's downward speed as it meets the ice, m/s (default 0: it settles onto the ice). */
+  bladeDropMps?: number;
   loadMs?: number;
   contactMs?: number;
   /** Shown in the corner of each frame. */
   caption?: string;
   /** Glove colour. */
   gloves?: string;
+  /**
+   * A light print on the puck's rim, turning with the puck at this many revolutions per second
+   * (0: plain black puck). Seen side-on it slides across the rim and narrows towards the ends.
+   */
+  puckSpinRps?: number;
 }
 
 export interface SceneTruth {
@@ -92,7 +99,11 @@ export function shotScene(o: SceneOptions = {}) {
     if (tt <= tr) return xContact(tt - ts);
     return xContact(tr - ts) + vExit * tau * (1 - Math.exp(-(tt - tr) / tau));
   };
-  const bladeY = (tt: number) => (tt < ti ? 95 * ((ti - tt) / Math.max(ti, 1e-9)) ** 2 : tt <= tr ? 0 : 140 * ((tt - tr) / (tEnd - tr)) ** 2);
+  // From 95 mm up down to the ice, meeting it at `drop` mm/s (a kink) or settling (drop 0).
+  const drop = (o.bladeDropMps ?? 0) * 1000;
+  const settle = Math.max(0, 95 - drop * ti);
+  const bladeY = (tt: number) =>
+    tt < ti ? drop * (ti - tt) + settle * ((ti - tt) / Math.max(ti, 1e-9)) ** 2 : tt <= tr ? 0 : 140 * ((tt - tr) / (tEnd - tr)) ** 2;
   // Shaft chord angle from +x: leaning back, turning upright through the shot.
   const phi = (tt: number) => {
     const u = Math.min(1, Math.max(0, tt / tEnd));
@@ -224,7 +235,23 @@ ${scratches}
 <rect x="${(heel[0] + 24).toFixed(2)}" y="${(heel[1] - bladeH * 0.72).toFixed(2)}" width="${((toe[0] - heel[0]) * 0.55).toFixed(2)}" height="${(bladeH * 0.42).toFixed(2)}" fill="#f2f2ec" opacity="0.9"/>
 ${glove(p.top, rot)}${glove(p.bottom, rot)}
 <rect x="${(q[0] - puckW / 2).toFixed(3)}" y="${(q[1] - puckH / 2).toFixed(3)}" width="${puckW.toFixed(3)}" height="${puckH.toFixed(3)}" rx="${(puckH * 0.28).toFixed(2)}" fill="#050505"/>
-</svg>`;
+${puckPrint(q, puckW, puckH, tt)}</svg>`;
+  };
+  /** The spinning print: a band on the rim's near half at angle 2π·rps·t, drawn where it faces the camera. */
+  const puckPrint = (q: [number, number], puckW: number, puckH: number, tt: number): string => {
+    const rps = o.puckSpinRps ?? 0;
+    if (!rps) return "";
+    const out: string[] = [];
+    for (const offset of [0, Math.PI]) {
+      // Still until puck strike; spinning from then on (the blade sets it turning).
+      const a = 2 * Math.PI * rps * Math.max(0, tt - ts) + offset;
+      const facing = Math.cos(a);
+      if (facing <= 0.15) continue;
+      const cx = q[0] + (puckW / 2) * Math.sin(a) * 0.92;
+      const w = Math.max(1, 0.35 * puckW * facing);
+      out.push(`<rect x="${(cx - w / 2).toFixed(3)}" y="${(q[1] - puckH * 0.3).toFixed(3)}" width="${w.toFixed(3)}" height="${(puckH * 0.6).toFixed(3)}" fill="#d9d2c0"/>`);
+    }
+    return out.join("");
   };
   /** One whole frame as a single SVG (slower to raster than background + foreground). */
   const svg = (f: number) => background().replace("</svg>", foreground(f).slice(head.length));

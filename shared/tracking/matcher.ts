@@ -19,8 +19,12 @@ export interface ScoreMap {
 }
 
 export interface Matcher {
-  /** `window` must lie inside the frame and be at least as large as the template. */
-  match(frame: GrayFrame, window: Rect, template: GrayFrame): ScoreMap;
+  /**
+   * `window` must lie inside the frame and be at least as large as the template. With `mask`
+   * (the template's size, non-zero = use), only those template pixels count; a placement whose
+   * masked pixels are flat scores −1.
+   */
+  match(frame: GrayFrame, window: Rect, template: GrayFrame, mask?: GrayFrame | null): ScoreMap;
   /**
    * A size × size patch whose centre is (x, y) of `source`, showing the source turned by `angle`
    * (radians, clockwise on screen): what the neighbourhood looks like after the landmark turned.
@@ -50,21 +54,32 @@ export function createCvMatcher(cv: OpenCv): Matcher {
   const whole = (f: GrayFrame): Rect => ({ x: 0, y: 0, width: f.width, height: f.height });
   // Templates and sources are immutable and reused for many calls: uploaded once each.
   let templateIn: GrayFrame | undefined;
+  let maskIn: GrayFrame | undefined;
   let sourceIn: GrayFrame | undefined;
   const result = new cv.Mat();
   const turned = new cv.Mat();
   const affine = new cv.Mat(2, 3, cv.CV_64FC1);
 
   return {
-    match(frame, window, template) {
+    match(frame, window, template, mask) {
       const win = sized("window", window.width, window.height);
       copyInto(win, frame, window);
       const tpl = sized("template", template.width, template.height);
-      if (template !== templateIn) copyInto(tpl, template, whole(template));
+      if (template !== templateIn || tpl.data.length !== template.data.length) copyInto(tpl, template, whole(template));
       templateIn = template;
-      cv.matchTemplate(win, tpl, result, cv.TM_CCOEFF_NORMED);
-      // Copied out: the view dies if the WebAssembly heap grows on a later call.
-      return { width: result.cols, height: result.rows, data: result.data32F.slice() };
+      if (!mask) {
+        cv.matchTemplate(win, tpl, result, cv.TM_CCOEFF_NORMED);
+        // Copied out: the view dies if the WebAssembly heap grows on a later call.
+        return { width: result.cols, height: result.rows, data: result.data32F.slice() };
+      }
+      const m = sized("mask", mask.width, mask.height);
+      if (mask !== maskIn) copyInto(m, mask, whole(mask));
+      maskIn = mask;
+      cv.matchTemplate(win, tpl, result, cv.TM_CCOEFF_NORMED, m);
+      const data = result.data32F.slice();
+      // A flat masked patch divides by zero: OpenCV then gives NaN or huge values, not a score.
+      for (let i = 0; i < data.length; i++) if (!(data[i] <= 1.0001 && data[i] >= -1.0001)) data[i] = -1;
+      return { width: result.cols, height: result.rows, data };
     },
     turn(source, x, y, angle, size) {
       const src = sized("source", source.width, source.height);
@@ -82,7 +97,7 @@ export function createCvMatcher(cv: OpenCv): Matcher {
     dispose() {
       for (const m of mats.values()) m.delete();
       mats.clear();
-      templateIn = sourceIn = undefined;
+      templateIn = maskIn = sourceIn = undefined;
       result.delete();
       turned.delete();
       affine.delete();

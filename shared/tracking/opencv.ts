@@ -26,7 +26,7 @@ export interface OpenCv {
   INTER_LINEAR: number;
   WARP_INVERSE_MAP: number;
   BORDER_REPLICATE: number;
-  matchTemplate(image: CvMat, templ: CvMat, result: CvMat, method: number): void;
+  matchTemplate(image: CvMat, templ: CvMat, result: CvMat, method: number, mask?: CvMat): void;
   warpAffine(src: CvMat, dst: CvMat, m: CvMat, size: unknown, flags: number, borderMode: number): void;
 }
 

@@ -2,18 +2,23 @@
 // the landmark's place inside the patch (the anchor) is kept to sub-pixel precision.
 import type { GrayFrame } from "./types";
 import type { Rect } from "./matcher";
+import { rasterMask, type Region } from "./regions";
 
 export interface Template {
   patch: GrayFrame;
   /** Landmark position relative to the patch's top-left corner. */
   ax: number;
   ay: number;
+  /** Which pixels belong to the landmark's object (non-zero); absent: all of them. */
+  mask?: GrayFrame | null;
 }
 
 /** Where to search and with which (possibly cropped) template. */
 export interface SearchPlan {
   window: Rect;
   template: GrayFrame;
+  /** The template's mask, cropped the same way. */
+  mask: GrayFrame | null;
   /** Landmark = (window.x + u + ax, window.y + v + ay) for the template placed at map cell (u, v). */
   ax: number;
   ay: number;
@@ -28,15 +33,19 @@ export function cropPatch(frame: GrayFrame, r: Rect): GrayFrame {
   return { width: r.width, height: r.height, data };
 }
 
-/** A size × size patch centred on (x, y), cut short at the frame edges; null if under minSize remains. */
-export function captureTemplate(frame: GrayFrame, x: number, y: number, size: number, minSize: number): Template | null {
+/**
+ * A size × size patch centred on (x, y), cut short at the frame edges; null if under minSize
+ * remains. With `include`, its mask keeps the pixels inside those regions.
+ */
+export function captureTemplate(frame: GrayFrame, x: number, y: number, size: number, minSize: number, include?: Region[] | null): Template | null {
   const x0 = Math.max(0, Math.round(x - size / 2));
   const y0 = Math.max(0, Math.round(y - size / 2));
   const x1 = Math.min(frame.width, Math.round(x - size / 2) + size);
   const y1 = Math.min(frame.height, Math.round(y - size / 2) + size);
   if (x1 - x0 < minSize || y1 - y0 < minSize) return null;
   const patch = cropPatch(frame, { x: x0, y: y0, width: x1 - x0, height: y1 - y0 });
-  return { patch, ax: x - x0, ay: y - y0 };
+  const mask = include ? rasterMask(patch.width, patch.height, x0, y0, include) : null;
+  return { patch, ax: x - x0, ay: y - y0, mask };
 }
 
 interface AxisPlan {
@@ -80,8 +89,8 @@ export function planSearch(
   const py = planAxis(frame.height, tpl.patch.height, tpl.ay, predicted.y, radius, minSize, reach);
   if (!px || !py) return null;
   const cropped = px.cropLength !== tpl.patch.width || py.cropLength !== tpl.patch.height;
-  const template = cropped
-    ? cropPatch(tpl.patch, { x: px.cropStart, y: py.cropStart, width: px.cropLength, height: py.cropLength })
-    : tpl.patch;
-  return { window: { x: px.start, y: py.start, width: px.length, height: py.length }, template, ax: px.anchor, ay: py.anchor };
+  const crop = { x: px.cropStart, y: py.cropStart, width: px.cropLength, height: py.cropLength };
+  const template = cropped ? cropPatch(tpl.patch, crop) : tpl.patch;
+  const mask = tpl.mask ? (cropped ? cropPatch(tpl.mask, crop) : tpl.mask) : null;
+  return { window: { x: px.start, y: py.start, width: px.length, height: py.length }, template, mask, ax: px.anchor, ay: py.anchor };
 }

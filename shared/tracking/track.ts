@@ -2,33 +2,14 @@
 // frames by template matching in a window predicted from the recent motion; stop honestly at the
 // first frame that does not match well enough.
 import { TrackInputError } from "./errors";
+import { LandmarkTracker } from "./landmark-tracker";
 import { createCvMatcher, type Matcher } from "./matcher";
 import { loadOpenCv } from "./opencv";
+import { puckOptions } from "./puck-template";
 import { createPrefetcher } from "./prefetch";
-import { captureReference, type Reference } from "./reference";
-import { searchFrame } from "./search";
 import type { GrayFrame, Proposal, StopReason, TrackProgress, TrackRequest, TrackResult } from "./types";
-
-/** A reference with the landmark's angle when it was captured and the first score it got. */
-interface Look {
-  ref: Reference;
-  angle0: number;
-  firstScore: number | null;
-}
 import { resolveRequest } from "./validate";
 
-/**
- * A reference is renewed once its score falls below 97 % of the first score it got — but only from
- * a confident match (at least 92 % of the best first score any kept reference got): a sudden drop
- * (the puck half behind the blade) keeps the old reference rather than learning the blade. Below
- * that level the other kept references (the analyst's own and the last renewed one) are tried as
- * well, so a look learnt by mistake is left again once the true one reappears.
- */
-const RENEW_BELOW = 0.97;
-const RENEW_FROM = 0.92;
-const KEPT_LOOKS = 3;
-/** Search radius grows with speed: constant velocity misses by a share of the step when it bends. */
-const RADIUS_PER_STEP = 0.25;
 const PREFETCH_DEPTH = 2;
 /** Work between pauses for the event loop, so a cancel message is read even when frames come from memory. */
 const YIELD_EVERY_MS = 30;
@@ -40,8 +21,7 @@ export interface TrackDeps {
 
 export async function track(request: TrackRequest, onProgress?: (p: TrackProgress) => void, deps: TrackDeps = {}): Promise<TrackResult> {
   const req = resolveRequest(request);
-  const { frames, start, prior, direction, templateSize: size, threshold, signal, total, turning } = req;
-  const minSize = Math.max(8, Math.ceil(size / 2));
+  const { frames, start, prior, direction, templateSize: size, signal, total } = req;
   const proposals: Proposal[] = [];
   const stop = (reason: StopReason, frame: number | null, confidence: number | null, message: string): TrackResult => ({
     proposals,
@@ -51,7 +31,6 @@ export async function track(request: TrackRequest, onProgress?: (p: TrackProgres
   if (signal?.aborted) return cancelled();
 
   const matcher = deps.matcher ?? createCvMatcher((await loadOpenCv()).cv);
-  const ctx = { matcher, minSize, exclusion: Math.max(2, size / 4) };
   try {
     let first: GrayFrame;
     try {
@@ -64,17 +43,11 @@ export async function track(request: TrackRequest, onProgress?: (p: TrackProgres
     for (const [field, m] of [["start", start], ["prior", prior]] as const)
       if (m && !(m.x >= 0 && m.y >= 0 && m.x < first.width && m.y < first.height))
         throw new TrackInputError(field, `(${m.x}, ${m.y}) lies outside the ${first.width}×${first.height} frame`);
-    const ref = captureReference(first, start.x, start.y, size, minSize, turning);
-    if (!ref)
+    const tracker = LandmarkTracker.create(first, start, prior, { ...req, ...(req.object === "puck" ? puckOptions(first, start) : {}) }, matcher);
+    if (!tracker) {
+      const minSize = Math.max(8, Math.ceil(size / 2));
       throw new TrackInputError("templateSize", `a ${size} px template around (${start.x}, ${start.y}) keeps less than ${minSize} px inside the ${first.width}×${first.height} frame`);
-    // Velocities per frame index (+1), so they hold for either direction.
-    let velocity = prior ? { x: (start.x - prior.x) / (start.frame - prior.frame), y: (start.y - prior.y) / (start.frame - prior.frame) } : null;
-    // The landmark's angle relative to the start frame, and its change per frame index (+1).
-    let angle = 0;
-    let spin = 0;
-    let last = { x: start.x, y: start.y };
-    let look: Look = { ref, angle0: 0, firstScore: null };
-    let looks: Look[] = [look];
+    }
     const frameAt = (k: number) => start.frame + direction * k;
     const ahead = createPrefetcher(frames, frameAt, total, Math.max(0, Math.min(16, Math.floor(frames.prefetch ?? PREFETCH_DEPTH))), signal);
 
@@ -94,52 +67,10 @@ export async function track(request: TrackRequest, onProgress?: (p: TrackProgres
         throw e;
       }
       checkFrame(frame, index, first);
-
-      const predicted = velocity ? { x: last.x + velocity.x * direction, y: last.y + velocity.y * direction } : last;
-      const radius = velocity ? req.searchRadius + RADIUS_PER_STEP * Math.hypot(velocity.x, velocity.y) : Math.max(req.searchRadius, size);
-      const turned = angle + spin * direction;
-      const attempt = (l: Look) => searchFrame(frame, l.ref, predicted, turned - l.angle0, radius, ctx);
-      let m = attempt(look);
-      if (!m) return stop("left-frame", index, null, `the landmark reaches the frame edge at frame ${index}`);
-      const confident = RENEW_FROM * Math.max(...looks.map((l) => l.firstScore ?? 0));
-      if (m.score < confident)
-        for (const other of looks) {
-          if (other === look) continue;
-          const alt = attempt(other);
-          if (alt && alt.score > m.score) [m, look] = [alt, other];
-        }
-      const atEdge = m.cropped || nearEdge(predicted, frame, size / 2);
-      const { score, sideLobe, onBorder } = m;
-      if (!(score >= threshold)) {
-        const why = `confidence ${fmt(score)} below ${fmt(threshold)} at frame ${index}`;
-        const s = Number.isFinite(score) ? score : null;
-        return atEdge ? stop("left-frame", index, s, `${why}, at the frame edge`) : stop("low-confidence", index, s, why);
-      }
-      if (req.minPeakMargin > 0 && sideLobe !== null && score - sideLobe < req.minPeakMargin)
-        return stop("ambiguous", index, score, `two places match almost equally (${fmt(score)} and ${fmt(sideLobe)}) at frame ${index}`);
-      if (onBorder)
-        return atEdge
-          ? stop("left-frame", index, score, `the best match is cut by the frame edge at frame ${index}`)
-          : stop("low-confidence", index, score, `no clear peak inside the search window at frame ${index}`);
-
-      const proposal: Proposal = { frame: index, x: m.x, y: m.y, confidence: score, sideLobe };
-      proposals.push(proposal);
-      onProgress?.({ done: k, total, proposal });
-
-      velocity = { x: (m.x - last.x) * direction, y: (m.y - last.y) * direction };
-      const nowAngle = m.angle + look.angle0;
-      spin = (nowAngle - angle) * direction;
-      angle = nowAngle;
-      last = { x: m.x, y: m.y };
-      if (look.firstScore === null) look.firstScore = score;
-      else if (score < RENEW_BELOW * look.firstScore && score >= confident && !atEdge) {
-        // Only an uncut match becomes the new reference (a full template, not a cropped one).
-        const fresh = captureReference(frame, m.x, m.y, size, size, turning);
-        if (fresh) {
-          look = { ref: fresh, angle0: angle, firstScore: null };
-          looks = [looks[0], ...looks.slice(1).slice(2 - KEPT_LOOKS), look];
-        }
-      }
+      const out = tracker.step(frame, index);
+      if (out.stop) return { proposals, stop: out.stop };
+      proposals.push(out.proposal);
+      onProgress?.({ done: k, total, proposal: out.proposal });
     }
     return stop("end-of-range", null, null, `${proposals.length} frames proposed, the end of the range`);
   } finally {
@@ -147,15 +78,9 @@ export async function track(request: TrackRequest, onProgress?: (p: TrackProgres
   }
 }
 
-function checkFrame(f: GrayFrame, index: number, first: GrayFrame) {
+export function checkFrame(f: GrayFrame, index: number, first: GrayFrame) {
   if (!f || !(f.data instanceof Uint8Array) || f.data.length !== f.width * f.height)
     throw new Error(`frame ${index} is not an 8-bit grayscale frame (width × height bytes)`);
   if (f.width !== first.width || f.height !== first.height)
     throw new Error(`frame ${index} is ${f.width}×${f.height} but the start frame is ${first.width}×${first.height}`);
 }
-
-function nearEdge(p: { x: number; y: number }, f: GrayFrame, margin: number) {
-  return p.x < margin || p.y < margin || p.x > f.width - margin || p.y > f.height - margin;
-}
-
-const fmt = (v: number) => (Number.isFinite(v) ? v.toFixed(2) : String(v));

@@ -84,6 +84,12 @@ export interface TrackOptions {
   turning?: boolean;
   /** Smallest search radius around the predicted position, in pixels (default 8). */
   searchRadius?: number;
+  /**
+   * "puck": the landmark is a puck seen side-on. Its outline is found on the start frame and only
+   * that outline is matched (not the blade or ice beside it, not a print on it), at a template
+   * sized to it, never re-learnt. Falls back to the plain template when no puck is found there.
+   */
+  object?: "puck";
   signal?: AbortSignal;
 }
 

@@ -4,8 +4,9 @@ import type { FrameMark, TrackRequest } from "./types";
 
 export const DEFAULTS = { templateSize: 48, threshold: 0.7, minPeakMargin: 0.05, searchRadius: 8, turning: true } as const;
 
-export interface ResolvedRequest extends Required<Omit<TrackRequest, "prior" | "signal" | "maxFrames">> {
+export interface ResolvedRequest extends Required<Omit<TrackRequest, "prior" | "signal" | "maxFrames" | "object">> {
   prior?: FrameMark;
+  object?: "puck";
   signal?: AbortSignal;
   /** Proposals this run can make at most (maxFrames clipped to the clip). */
   total: number;
@@ -34,6 +35,11 @@ function checkBoolean(field: string, v: unknown): boolean {
   return v;
 }
 
+function checkObject(v: unknown): "puck" {
+  if (v !== "puck") throw new TrackInputError("object", `must be "puck" when given (got ${String(v)})`);
+  return v;
+}
+
 export function resolveRequest(req: TrackRequest): ResolvedRequest {
   const frames = req?.frames;
   if (!frames || typeof frames.frame !== "function" || !isWhole(frames.length) || frames.length < 1)
@@ -55,6 +61,7 @@ export function resolveRequest(req: TrackRequest): ResolvedRequest {
     searchRadius: inRange("searchRadius", req.searchRadius, DEFAULTS.searchRadius, 1, 256),
     turning: req.turning === undefined ? DEFAULTS.turning : checkBoolean("turning", req.turning),
     signal: req.signal,
+    ...(req.object === undefined ? {} : { object: checkObject(req.object) }),
     total: Math.min(maxFrames, available),
   };
 }
