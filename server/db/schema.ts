@@ -256,3 +256,47 @@ export const signupRequest = pgTable(
   },
   (t) => [index("signup_request_email_idx").on(t.email)],
 );
+
+export const trackingStatus = ["queued", "running", "done", "failed", "cancelled"] as const;
+export type TrackingStatus = (typeof trackingStatus)[number];
+
+/**
+ * One auto-digitise run of a shot: the seeds it started from, its progress while it runs, and what
+ * it proposed once done (tracks, events, a scale bar) — kept apart from the shot's marks, which
+ * only the analyst's accepting changes. Written whole at the end: a run is either done with all
+ * its proposals or has none. At most one queued or running run per shot.
+ */
+export const trackingRun = pgTable(
+  "tracking_run",
+  {
+    id: uuid("id").primaryKey().defaultRandom(),
+    teamId: teamRef(),
+    shotId: uuid("shot_id").notNull().references(() => shot.id, { onDelete: "cascade" }),
+    status: text("status", { enum: trackingStatus }).notNull().default("queued"),
+    seedFrame: integer("seed_frame").notNull(),
+    /** { landmark: [x, y] } on seedFrame, frame pixels. */
+    seeds: jsonb("seeds").notNull(),
+    frameStart: integer("frame_start").notNull(),
+    frameEnd: integer("frame_end").notNull(),
+    /** "decoding" | "tracking" | "events" while running. */
+    phase: text("phase"),
+    done: integer("done").notNull().default(0),
+    total: integer("total").notNull().default(0),
+    /** The pg-boss job working on it (a retry keeps the id; a takeover changes it). */
+    jobId: text("job_id"),
+    attempts: integer("attempts").notNull().default(0),
+    proposals: jsonb("proposals"),
+    failureReason: text("failure_reason"),
+    requestedBy: text("requested_by").references(() => user.id, { onDelete: "set null" }),
+    createdAt: createdAt(),
+    startedAt: timestamp("started_at", { withTimezone: true }),
+    finishedAt: timestamp("finished_at", { withTimezone: true }),
+    /** Moves with every progress write: a running row that stops moving has lost its worker. */
+    updatedAt: timestamp("updated_at", { withTimezone: true }).defaultNow().notNull(),
+  },
+  (t) => [
+    index("tracking_run_shot_idx").on(t.shotId, t.createdAt),
+    // Two analysts pressing at once: the second insert meets this index and gets the first run.
+    uniqueIndex("tracking_run_live_idx").on(t.shotId).where(sql`${t.status} in ('queued', 'running')`),
+  ],
+);
