@@ -81,31 +81,23 @@ export function findPuckSilhouette(frame: GrayFrame, x: number, y: number): Puck
 
   // Edges at the half level, interpolated, from outside in: rows through the middle 40 % (clear of
   // the rounded corners) for the length, columns through the middle 40 % for the thickness.
-  const rowWidths: number[] = [], rowCentres: number[] = [];
-  const midY = (y0 + y1 + 1) / 2, hh = (y1 - y0 + 1) * 0.2;
-  for (let j = Math.ceil(midY - hh - 0.5); j <= Math.floor(midY + hh - 0.5); j++) {
-    const l = crossing((i) => px(i, j), x0 - pad, x1 + pad, half, W);
-    const rr = crossing((i) => px(i, j), x1 + pad, x0 - pad, half, W);
-    if (l !== null && rr !== null && rr > l) {
-      rowWidths.push(rr - l);
-      rowCentres.push((l + rr) / 2);
+  const across = (lines: [number, number], span: [number, number], n: number, at: (line: number, k: number) => number) => {
+    const lengths: number[] = [], centres: number[] = [];
+    const mid = (lines[0] + lines[1] + 1) / 2, reach = (lines[1] - lines[0] + 1) * 0.2;
+    for (let line = Math.ceil(mid - reach - 0.5); line <= Math.floor(mid + reach - 0.5); line++) {
+      const from = crossing((k) => at(line, k), span[0] - pad, span[1] + pad, half, n);
+      const to = crossing((k) => at(line, k), span[1] + pad, span[0] - pad, half, n);
+      if (from !== null && to !== null && to > from) {
+        lengths.push(to - from);
+        centres.push((from + to) / 2);
+      }
     }
-  }
-  const colHeights: number[] = [], colCentres: number[] = [];
-  const midX = (x0 + x1 + 1) / 2, hw = (x1 - x0 + 1) * 0.2;
-  for (let i = Math.ceil(midX - hw - 0.5); i <= Math.floor(midX + hw - 0.5); i++) {
-    const t = crossing((j) => px(i, j), y0 - pad, y1 + pad, half, H);
-    const b = crossing((j) => px(i, j), y1 + pad, y0 - pad, half, H);
-    if (t !== null && b !== null && b > t) {
-      colHeights.push(b - t);
-      colCentres.push((t + b) / 2);
-    }
-  }
-  if (!rowWidths.length || !colHeights.length) return null;
-  const widthPx = median(rowWidths);
-  const heightPx = median(colHeights);
-  const cx = median(rowCentres);
-  const cy = median(colCentres);
+    return lengths.length ? { length: median(lengths), centre: median(centres) } : null;
+  };
+  const rows = across([y0, y1], [x0, x1], W, (j, i) => px(i, j));
+  const cols = across([x0, x1], [y0, y1], H, (i, j) => px(i, j));
+  if (!rows || !cols) return null;
+  const [widthPx, cx, heightPx, cy] = [rows.length, rows.centre, cols.length, cols.centre];
   const aspect = widthPx / heightPx;
   let doubt: string | null = null;
   if (x0 - pad < 0 || y0 - pad < 0 || x1 + pad >= W || y1 + pad >= H) doubt = "the puck touches the frame edge";

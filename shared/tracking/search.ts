@@ -53,6 +53,8 @@ interface Attempt {
   mask: GrayFrame | null;
 }
 
+/** Other objects' pixels are left out this far beyond their outline (px). */
+const EXCLUDE_MARGIN = 1.5;
 /** Below this share of its own pixels left, the other object covers the landmark: nothing is left out (and nothing learnt). */
 const MIN_KEPT = 0.4;
 
@@ -66,7 +68,7 @@ function maskFor(plan: SearchPlan, at: { x: number; y: number }, ctx: SearchCont
   const { width: w, height: h } = plan.template;
   const x0 = at.x - plan.ax;
   const y0 = at.y - plan.ay;
-  const margin = ctx.excludeMargin ?? 1;
+  const margin = ctx.excludeMargin ?? EXCLUDE_MARGIN;
   const touching = ex.filter((r) => mayTouch(r, x0, y0, w, h, margin));
   if (!touching.length) return { mask: plan.mask, excluded: false };
   const mask = intersect(plan.mask, rasterMask(w, h, x0, y0, null, touching, margin))!;

@@ -59,8 +59,6 @@ const BLADE_PAST_ENDS = 0.25;
 const BLADE_HEIGHT_OF_LENGTH = 0.25;
 /** The shaft's half-width as a share of the puck's diameter (a shaft is ~27 mm across). */
 const SHAFT_HALF_WIDTH = 0.18;
-/** Other objects' pixels are left out this far beyond their outline. */
-const EXCLUDE_MARGIN = 1.5;
 const YIELD_EVERY_MS = 30;
 
 /** The blade as a band above the heel–toe line, in frame px. */
