@@ -54,7 +54,7 @@ interface Attempt {
 }
 
 /** Other objects' pixels are left out this far beyond their outline (px). */
-const EXCLUDE_MARGIN = 1.5;
+const EXCLUDE_MARGIN = 1;
 /** Below this share of its own pixels left, the other object covers the landmark: nothing is left out (and nothing learnt). */
 const MIN_KEPT = 0.4;
 
