@@ -7,6 +7,7 @@ import { log } from "../log";
 import { HttpError } from "../http/problem";
 import { MediaInputError } from "../media/errors";
 import { probe, withoutPlaceTags, type ProbeResult } from "../media/probe";
+import { hasPlaceTags, stripMetadata } from "../media/remux";
 import { clipKeys, displayFileName, sha256File } from "../storage";
 import { PLAYBACK_RATE_MAX_FPS, type ClipMeta, type ClipTiming } from "../../shared/schemas/clips";
 import { sendExtract } from "../jobs/clip-queue";
@@ -76,9 +77,16 @@ export async function probeUpload(file: string): Promise<ProbeResult> {
 
 export async function ingestUpload(r: IngestRequest): Promise<repo.ClipRow> {
   await checkMetaRefs(r.teamId, r.meta);
-  const { sha256, size } = await sha256File(r.file);
-  const facts = await probeUpload(r.file);
+  const { sha256 } = await sha256File(r.file);
+  let facts = await probeUpload(r.file);
   await rejectDuplicate(r.teamId, sha256);
+  // The original is served as stored: a place in its tags goes before it is stored. The checksum
+  // stays the uploaded file's, so the same upload is still recognised as a duplicate.
+  if (hasPlaceTags(facts.raw)) {
+    await stripMetadata(mediaConfig(), r.file, facts.raw);
+    facts = { ...(await probeUpload(r.file)), taggedCaptureFps: facts.taggedCaptureFps };
+  }
+  const storedSize = facts.sizeBytes;
 
   const sessionId = r.meta.sessionId ?? (r.meta.newSession ? await repo.findOrCreateSession(r.teamId, r.meta.newSession) : null);
   const name = displayFileName(r.originalName);
@@ -113,7 +121,7 @@ export async function ingestUpload(r: IngestRequest): Promise<repo.ClipRow> {
       probe: { ...facts, raw: withoutPlaceTags(facts.raw) },
       frameFormat: env().FRAME_FORMAT,
       sha256,
-      sizeBytes: size,
+      sizeBytes: storedSize,
       originalName: name,
     });
   } catch (err) {

@@ -126,3 +126,28 @@ describe("frame clocks of real containers", () => {
     expect(storedFrames(c.id)).toBe(c.frameCount);
   });
 });
+
+describe("where a clip was filmed", () => {
+  it("location tags are gone from the served original, which keeps its frames, rotation and capture-rate facts; the same upload is still a duplicate", async () => {
+    const plain = makeClip("geo-plain.mp4", { frames: 20 });
+    const f = path.join(mediaDir, "geo.mp4");
+    ffmpeg(
+      "-i", plain, "-c", "copy", "-metadata:s:v:0", "rotate=90", "-movflags", "use_metadata_tags",
+      "-metadata", "location=+49.2827-123.1207/", "-metadata", "location-eng=+49.2827-123.1207/", "-metadata", "com.android.capture.fps=240", f,
+    );
+    expect(readFileSync(f).includes("+49.2827-123.1207")).toBe(true);
+    const c = await ready(f);
+    const served = await coach.get(`${team()}/clips/${c.id}/original`);
+    expect(served.status).toBe(200);
+    expect(served.text.length).toBeGreaterThan(1000);
+    expect(served.text.includes("+49.2827")).toBe(false);
+    expect(readFileSync(path.join(uploadDir, "clips", c.id, "original")).includes("+49.2827")).toBe(false);
+    // The display matrix survives: ffprobe reads it as 90° counter-clockwise, 270° clockwise as stored here.
+    expect(c.rotationDeg).toBe(270);
+    expect([c.width, c.height]).toEqual([180, 320]);
+    expect(c.frameCount).toBe(20);
+    expect(c.captureFps).toBe(240);
+    const again = await tusUpload(srv.url, coach, f, md("geo-again.mp4"));
+    expect(again.body.code).toBe("duplicate_clip");
+  });
+});
