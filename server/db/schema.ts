@@ -129,6 +129,8 @@ export const clip = pgTable(
     // from the index, spares sorting every clip of the team (scripts/bench/load.ts).
     index("clip_team_newest_idx").on(t.teamId, t.createdAt.desc().nullsFirst(), t.id),
     index("clip_team_player_idx").on(t.teamId, t.playerId),
+    // A session's clips, when its date changes (its shots' stored dates follow, decision 173).
+    index("clip_session_idx").on(t.sessionId),
     uniqueIndex("clip_team_sha_idx").on(t.teamId, t.sha256).where(sql`${t.sha256} is not null`),
   ],
 );
@@ -153,8 +155,25 @@ export const shot = pgTable(
     updatedBy: text("updated_by").references(() => user.id, { onDelete: "set null" }),
     createdAt: createdAt(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).defaultNow().notNull(),
+    /**
+     * The shot's date by THE rule (server/entities/shot/date.ts), stored so that lists are read in
+     * index order. PostgreSQL keeps it (triggers of migration 0010, docs/decisions/173-stored-shot-date.md)
+     * whenever the shot's clip, the clip's session or the session's date changes; the application
+     * never writes it (the default is overwritten on insert).
+     */
+    shotDate: date("shot_date", { mode: "string" }).notNull().default(sql`current_date`),
+    /** When the shot's clip was uploaded, kept with the date: the list order's next key. */
+    clipCreatedAt: timestamp("clip_created_at", { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index("shot_team_player_idx").on(t.teamId, t.playerId), index("shot_team_stick_idx").on(t.teamId, t.stickId), index("shot_clip_idx").on(t.clipId)],
+  (t) => [
+    // "Newest first" (entities/shot/date.ts) exactly, for the team and for one player; player_id
+    // last so a player's own-or-shared page is found in the index alone.
+    // (DESC NULLS FIRST is what ORDER BY … DESC means; the index must say the same to be used.)
+    index("shot_team_newest_idx").on(t.teamId, t.shotDate.desc().nullsFirst(), t.clipCreatedAt.desc().nullsFirst(), t.createdAt.desc().nullsFirst(), t.id, t.playerId),
+    index("shot_team_player_idx").on(t.teamId, t.playerId, t.shotDate.desc().nullsFirst(), t.clipCreatedAt.desc().nullsFirst(), t.createdAt.desc().nullsFirst(), t.id),
+    index("shot_team_stick_idx").on(t.teamId, t.stickId),
+    index("shot_clip_idx").on(t.clipId),
+  ],
 );
 
 export const shotResult = pgTable("shot_result", {

@@ -4,7 +4,7 @@ import { db } from "../db/client";
 import { prepared, preparedBy } from "../db/prepared";
 import { auditLog, clip, member, organization, shot, shotResult, shotShare, stick, trainingSession, user } from "../db/schema";
 import { benchTestInForce } from "../entities/stick/stiffness";
-import type { Actor } from "../entities/member/role";
+import { isStaff, type Actor } from "../entities/member/role";
 import { newestShotFirst, shotDateSql } from "../entities/shot/date";
 import { shotVisibleWhere } from "../entities/shot/visibility";
 import { ShotResults } from "../../shared/schemas/shot-results";
@@ -97,18 +97,22 @@ function listWhere(a: Actor, f: ShotListQuery) {
 const newestFirst = newestShotFirst;
 
 /**
+ * The ids of one page of the list, in order: read from the (team, date …) or (team, player,
+ * date …) index, which holds the list's order (the stored shot date, decision 173), so a page
+ * costs the rows it shows, not a sort of every shot of the team. Only the shot-type filter needs
+ * the clip.
+ */
+export function pageIdsQuery(a: Actor, f: ShotListQuery, page: { limit: number; offset: number }) {
+  const q = db().select({ id: shot.id }).from(shot);
+  return (f.shotType ? q.innerJoin(clip, eq(clip.id, shot.clipId)) : q).where(listWhere(a, f)).orderBy(...newestFirst).limit(page.limit).offset(page.offset);
+}
+
+/**
  * Shots of the team, newest first, with the results summary but without time series or marks
  * (small rows); one page when `page` is given, else all (a player's progress needs every shot).
  */
 export async function listShots(a: Actor, f: ShotListQuery, page?: { limit: number; offset: number }) {
-  let where = listWhere(a, f);
-  if (page) {
-    // The page's ids first, sorting keys only: sorting whole rows (summaries included) of a team
-    // of 50,000 shots to keep 50 of them cost ~75 ms (scripts/bench/load.ts).
-    const ids = db().select({ id: shot.id }).from(shot).innerJoin(clip, eq(clip.id, shot.clipId)).leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
-      .where(where).orderBy(...newestFirst).limit(page.limit).offset(page.offset);
-    where = inArray(shot.id, ids);
-  }
+  const where = page ? inArray(shot.id, pageIdsQuery(a, f, page)) : listWhere(a, f);
   const rows = await joined({ ...withEverything, results: sql<null>`null`, marks: sql<null>`null`, stickTestInForce: sql<null>`null` }).where(where).orderBy(...newestFirst);
   return rows.map(({ results: _r, marks: _m, stickTestInForce: _t, ...r }) => ({ ...typed(r), summary: summaryResults(r.summary) }));
 }
@@ -121,14 +125,27 @@ export async function countShots(a: Actor, f: ShotListQuery) {
   return n;
 }
 
+/**
+ * The distinct values of a shot column (player, stick) among the shots the actor may see. Staff
+ * see the whole team: a skip scan hops from one value to the next through the (team, column …)
+ * index, one probe per value, instead of reading every shot of the team ("loose index scan",
+ * PostgreSQL wiki). Anyone else sees their own and shared shots, few enough to read directly.
+ */
+function distinctVisible(a: Actor, col: typeof shot.playerId | typeof shot.stickId): SQL {
+  const where = listWhere(a, {});
+  if (!isStaff(a)) return sql`(${db().selectDistinct({ id: col }).from(shot).where(and(where, isNotNull(col)))})`;
+  return sql`(with recursive v(id) as (
+    (select ${col} from ${shot} where ${where} and ${col} is not null order by ${col} limit 1)
+    union all
+    select (select ${col} from ${shot} where ${where} and ${col} > v.id order by ${col} limit 1) from v where v.id is not null
+  ) select id from v where id is not null)`;
+}
+
 /** The players and sticks among the shots one may see, for the list's filters. */
 export async function listFilterChoices(a: Actor) {
-  const where = listWhere(a, {});
   const [players, sticks] = await Promise.all([
-    // Distinct ids from the (team, player) and (team, stick) indexes first, names after: a join
-    // before "distinct" would read every shot row of the team.
-    db().select({ id: user.id, name: user.name }).from(user).where(inArray(user.id, db().selectDistinct({ id: shot.playerId }).from(shot).where(and(where, isNotNull(shot.playerId))))),
-    db().select({ id: stick.id, label: stick.label }).from(stick).where(inArray(stick.id, db().selectDistinct({ id: shot.stickId }).from(shot).where(and(where, isNotNull(shot.stickId))))),
+    db().select({ id: user.id, name: user.name }).from(user).where(inArray(user.id, distinctVisible(a, shot.playerId))),
+    db().select({ id: stick.id, label: stick.label }).from(stick).where(inArray(stick.id, distinctVisible(a, shot.stickId))),
   ]);
   return {
     players: players.sort((x, y) => x.name.localeCompare(y.name)),

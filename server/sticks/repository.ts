@@ -108,8 +108,6 @@ export async function shotsByDateOf(a: Actor, stickId: string) {
   return db()
     .select({ date: shotDay, count: sql<number>`count(*)::int` })
     .from(shot)
-    .innerJoin(clip, eq(clip.id, shot.clipId))
-    .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
     .where(and(shotVisibleWhere(a), eq(shot.stickId, stickId)))
     .groupBy(shotDay)
     .orderBy(shotDay);
@@ -127,8 +125,6 @@ export async function shotsWithStick(a: Actor, stickId: string, limit = 50) {
       hasDeflection: sql<boolean>`coalesce(jsonb_typeof(${shotResult.results} -> 'shaftDeflection') = 'object', false)`,
     })
     .from(shot)
-    .innerJoin(clip, eq(clip.id, shot.clipId))
-    .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
     .leftJoin(user, eq(user.id, shot.playerId))
     .leftJoin(shotResult, eq(shotResult.shotId, shot.id))
     .where(and(shotVisibleWhere(a), eq(shot.stickId, stickId)))

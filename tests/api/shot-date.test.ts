@@ -3,8 +3,11 @@
 // rule lived in one place the stick page used the day the shot was digitised instead.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { Client, EMAILS, seedWorld, startServer, type TestServer } from "./helpers";
+import { eq } from "drizzle-orm";
 import { db } from "../../server/db/client";
 import { clip, shot, stick, trainingSession } from "../../server/db/schema";
+import { shotDate } from "../../server/entities/shot/date";
+import { pageIdsQuery } from "../../server/readout/repository";
 
 let srv: TestServer;
 let world: Awaited<ReturnType<typeof seedWorld>>;
@@ -55,5 +58,64 @@ describe("a shot's date is the same on every page", () => {
   it("with a session: the session's date, as written", async () => {
     const x = await shotWith({ sessionDate: "2026-02-27", clipUploaded: "2026-03-01T18:30:00Z", shotCreated: "2026-03-04T09:00:00Z" });
     expect(await datesShown(x)).toEqual({ readout: "2026-02-27", shotsList: "2026-02-27", stickPageShots: "2026-02-27", stickPageHistory: ["2026-02-27"] });
+  });
+});
+
+// The date is stored (shot.shot_date, decision 173) so the Shots list reads in index order;
+// PostgreSQL keeps it by the same rule on every write that can change it.
+describe("the stored shot date", () => {
+  /** The stored date beside the rule applied to the row as read now. */
+  async function storedAndRule(shotId: string) {
+    const [r] = await db()
+      .select({ stored: shot.shotDate, sessionDate: trainingSession.date, clipCreatedAt: clip.createdAt })
+      .from(shot).innerJoin(clip, eq(clip.id, shot.clipId)).leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
+      .where(eq(shot.id, shotId));
+    return { stored: r.stored, rule: shotDate(r) };
+  }
+
+  it("follows a session's date corrected, a clip moved to another session, a session deleted; nothing else can set it", async () => {
+    // Uploaded in the evening in Vancouver: already the next day by UTC.
+    const x = await shotWith({ sessionDate: "2026-02-10", clipUploaded: "2026-03-01T23:30:00-08:00", shotCreated: "2026-03-04T09:00:00Z" });
+    expect(await storedAndRule(x.shotId)).toEqual({ stored: "2026-02-10", rule: "2026-02-10" });
+    const [{ clipId }] = await db().select({ clipId: shot.clipId }).from(shot).where(eq(shot.id, x.shotId));
+    const [{ sessionId }] = await db().select({ sessionId: clip.sessionId }).from(clip).where(eq(clip.id, clipId));
+
+    await db().update(trainingSession).set({ date: "2026-02-12" }).where(eq(trainingSession.id, sessionId!));
+    expect(await storedAndRule(x.shotId)).toEqual({ stored: "2026-02-12", rule: "2026-02-12" });
+
+    // Through the API, as the Clip page does it: the clip goes to a new session of another day.
+    const moved = await coach.patch(`${T()}/clips/${clipId}`, { newSession: { date: "2026-01-05", venue: "Lakeport Arena", drill: "Point shots" } });
+    expect(moved.status, moved.text).toBe(200);
+    expect(await storedAndRule(x.shotId)).toEqual({ stored: "2026-01-05", rule: "2026-01-05" });
+    expect((await coach.get(`${T()}/readout/shots/${x.shotId}`)).json.shot.date).toBe("2026-01-05");
+
+    // The session deleted: the clip has none, the upload day (by UTC) rules.
+    const [{ now }] = await db().select({ now: clip.sessionId }).from(clip).where(eq(clip.id, clipId));
+    await db().delete(trainingSession).where(eq(trainingSession.id, now!));
+    expect(await storedAndRule(x.shotId)).toEqual({ stored: "2026-03-02", rule: "2026-03-02" });
+
+    await db().update(shot).set({ shotDate: "1999-01-01", label: "Tampered" }).where(eq(shot.id, x.shotId));
+    expect(await storedAndRule(x.shotId)).toEqual({ stored: "2026-03-02", rule: "2026-03-02" });
+  });
+
+  it("the Shots list's page is read from an index in its order, not sorted", async () => {
+    const coachActor = { userId: world.users[EMAILS.coach], teamId: world.teamId, role: "coach" as const };
+    for (const f of [{}, { playerId: world.users[EMAILS.player] }]) {
+      const q = pageIdsQuery(coachActor, f, { limit: 50, offset: 0 }).toSQL();
+      // With sorting and whole-table reads priced out, only an index that holds the order avoids a Sort.
+      const c = await db().pool.connect();
+      let plan = "";
+      try {
+        await c.query("begin");
+        await c.query("set local enable_sort = off");
+        await c.query("set local enable_seqscan = off");
+        plan = JSON.stringify((await c.query(`explain (format json) ${q.sql}`, q.params as unknown[])).rows[0]["QUERY PLAN"]);
+      } finally {
+        await c.query("rollback");
+        c.release();
+      }
+      expect(plan, JSON.stringify(f)).not.toMatch(/"Node Type":"(Sort|Incremental Sort)"/);
+      expect(plan).toMatch(/shot_team_(newest|player)_idx/);
+    }
   });
 });

@@ -1,4 +1,4 @@
-// A shot's date — THE rule, written once (docs/decisions/121-shot-date-and-stiffness.md).
+// A shot's date — THE rule, written once (docs/decisions/121-shot-date.md).
 //
 // A shot's date is a calendar date (YYYY-MM-DD, no time, no zone): the date of its clip's
 // session when the clip belongs to one (the date the coach wrote down), else the day the clip was
@@ -7,15 +7,20 @@
 // shown as written, never converted to a time of day, and it picks the bench test in force for
 // the shot (server/entities/stick/stiffness.ts).
 //
-// The SQL form needs the query to join `clip` and `training_session` (the session may be absent).
+// In SQL the rule is the database function shot_date_rule (migration 0010), and PostgreSQL keeps
+// its value in shot.shot_date on every write that can change it: a shot made or moved, its clip
+// moved to another session, the session's date corrected (decision 173). Queries read that column,
+// which needs no join and sorts from an index; `shotDate` below is the same rule for a row already
+// read, and tests/api/shot-date.test.ts holds the two to each other.
 import { asc, desc, sql } from "drizzle-orm";
-import { clip, shot, trainingSession } from "../../db/schema";
+import { shot } from "../../db/schema";
 
-/** The shot's date as `YYYY-MM-DD` text, in a query that joins clip and training_session. */
-export const shotDateSql = sql<string>`coalesce(${trainingSession.date}, (${clip.createdAt} at time zone 'UTC')::date)::text`;
+/** The shot's date as `YYYY-MM-DD` text (the stored column). */
+export const shotDateSql = sql<string>`${shot.shotDate}::text`;
 
-/** Newest first by that date, then by when the clip and the shot came in (a stable order). */
-export const newestShotFirst = [desc(shotDateSql), desc(clip.createdAt), desc(shot.createdAt), asc(shot.id)];
+/** Newest first by that date, then by when the clip and the shot came in (a stable order), exactly
+ * as the (team, date …) and (team, player, date …) indexes are ordered. */
+export const newestShotFirst = [desc(shot.shotDate), desc(shot.clipCreatedAt), desc(shot.createdAt), asc(shot.id)];
 
 /** The same rule for a row already read. */
 export function shotDate(r: { sessionDate: string | null; clipCreatedAt: Date }): string {

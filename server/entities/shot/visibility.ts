@@ -6,7 +6,7 @@
 //
 // Adding a ground (say "published to the team"): add its column to ShotAccess, one entry to
 // `grounds`, and rows to the table test. Nothing else in the server decides who sees a shot.
-import { and, eq, exists, or, sql, type SQL } from "drizzle-orm";
+import { and, eq, or, sql, type SQL } from "drizzle-orm";
 import { db } from "../../db/client";
 import { shot, shotShare } from "../../db/schema";
 import { isStaff, type Actor } from "../member/role";
@@ -40,8 +40,10 @@ export const grounds: readonly Ground[] = [
   },
   {
     means: "anyone sees a shot shared with them",
-    where: (a) =>
-      exists(db().select({ one: sql`1` }).from(shotShare).where(and(eq(shotShare.shotId, shot.id), eq(shotShare.userId, a.userId)))),
+    // The ids shared with the viewer as one array, looked up once: "own or shared" then reads the
+    // (team, player) index and the primary key together (a bitmap OR) instead of testing every
+    // shot of the team (scripts/bench/load.ts).
+    where: (a) => sql`${shot.id} = any(array(${db().select({ id: shotShare.shotId }).from(shotShare).where(eq(shotShare.userId, a.userId))}))`,
     check: (a, s) => (s.sharedWith ?? []).includes(a.userId),
   },
 ];
