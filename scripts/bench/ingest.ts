@@ -17,6 +17,7 @@ import os from "node:os";
 import path from "node:path";
 import { randomBytes } from "node:crypto";
 import * as tus from "tus-js-client";
+import { filterCosts } from "./ingest-filters";
 
 const arg = (name: string, fallback: number) => {
   const i = process.argv.indexOf(`--${name}`);
@@ -126,6 +127,7 @@ try {
   console.log(`  of which upload complete → clip stored:      ${s(best("stored"))} (checksum, probe, store, queue)`);
   console.log(`server RSS during a ${(BIG_BYTES / 1024 ** 3).toFixed(1)} GB tus upload: ${mb(rss.before)} before, peak ${mb(rss.peak)}, growth ${mb(rss.peak - rss.before)} (goal < 64 MB)`);
   console.log(`  ${rss.status} ${rss.code}: ${rss.detail}; unfinished uploads left: ${left}`);
+  await filterCosts();
 } finally {
   await cleanup();
 }

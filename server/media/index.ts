@@ -3,6 +3,8 @@ export * from "./errors";
 export { runTool, withJobDir, sweepStaleJobDirs, JOB_DIR_PREFIX, type MediaConfig, type MediaLogger, type RunOptions, type RunResult } from "./ffmpeg";
 export { probe, looksLikePlaybackRate, type ProbeOptions, type ProbeResult, type Rotation } from "./probe";
 export {
+  deinterlace,
+  hdrToSdr,
   extractFrames,
   frameFileName,
   type ExtractOptions,
