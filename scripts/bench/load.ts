@@ -1,8 +1,11 @@
-// npm run bench:load — loopback only, bounded in count and time, stops by itself (6 min at most).
+// npm run bench:load — loopback only, bounded in count and time, stops by itself (9 min at most).
 //  1. 20 concurrent resumable uploads of different clips: every stored original and every
 //     clip.sha256 must equal the SHA-256 of the file sent.
-//  2. The clip list and the results API at 200 requests/s against a team of 50,000 shots
-//     (5,000 clips, 40 extra players, seeded in a throwaway database): p50/p95/p99, goal p95 < 50 ms.
+//  2. Bare Express, the app's /api/health, the clip list, one shot's results and the Shots list at
+//     200 requests/s against a team of 50,000 shots (5,000 clips, 40 extra players, seeded in a
+//     throwaway database), with one web process and with two (WEB_PROCESSES=2): p50/p95/p99 and
+//     the web processes' CPU per request beside bare Express's; goal p95 < 50 ms.
+//  3. /api/health while 10 PDF reports render (they run in worker threads): goal p99 < 100 ms.
 //     Raw baseline in the same run: the same repository query straight to PostgreSQL, one at a
 //     time, without HTTP or sign-in; the ratio says what the API adds.
 // Needs the private cluster: without PG_ADMIN_URL it re-runs itself through scripts/with-db.
@@ -23,7 +26,7 @@ if (!process.env.PG_ADMIN_URL) {
 }
 
 const RATE = 200;
-const SECONDS = 10;
+const SECONDS = 5;
 const UPLOADS = 20;
 const dbName = `loadframe_bench_${process.pid}`;
 const workDir = mkdtempSync(path.join(os.tmpdir(), "lf-bench-load-"));
@@ -51,10 +54,10 @@ async function cleanup() {
   rmSync(workDir, { recursive: true, force: true });
 }
 const hardStop = setTimeout(async () => {
-  console.error("bench:load ran past its 6-minute bound; stopping");
+  console.error("bench:load ran past its 9-minute bound; stopping");
   await cleanup();
   process.exit(1);
-}, 6 * 60_000);
+}, 9 * 60_000);
 const freePort = () =>
   new Promise<number>((resolve) => {
     const s = createServer().listen(0, "127.0.0.1", () => {
@@ -87,14 +90,34 @@ try {
 
   const port = await freePort();
   const base = `http://127.0.0.1:${port}`;
-  // BENCH_CPU_PROF=<folder> writes a V8 CPU profile of the server (open it in Chromium's DevTools).
-  const prof = process.env.BENCH_CPU_PROF ? ["--cpu-prof", "--cpu-prof-dir", path.resolve(process.env.BENCH_CPU_PROF)] : [];
-  server = spawn(process.execPath, [...prof, "--import", "tsx", "server/index.ts"], { env: { ...process.env, PORT: String(port), PUBLIC_URL: base, LOG_LEVEL: "error" }, stdio: ["ignore", "ignore", "inherit"] });
-  for (let i = 0; i < 150 && !(await fetch(`${base}/api/health`).then((r) => r.ok, () => false)); i++) await new Promise((r) => setTimeout(r, 200));
   const { DEMO_PASSWORD } = await import("../../server/seed/demo-people");
-  const signIn = await fetch(`${base}/api/auth/sign-in/email`, { method: "POST", headers: { "content-type": "application/json", origin: base }, body: JSON.stringify({ email: "coach@ravens.example", password: DEMO_PASSWORD }) });
-  if (signIn.status !== 200) throw new Error(`sign-in failed: ${signIn.status}`);
-  const cookie = signIn.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+  /** Starts the app with `procs` web processes (WEB_PROCESSES) and signs the coach in. */
+  async function startWeb(procs: number) {
+    if (server && server.exitCode === null) {
+      server.kill("SIGTERM");
+      await new Promise((r) => server!.once("exit", r));
+    }
+    // BENCH_CPU_PROF=<folder> writes a V8 CPU profile of the server (open it in Chromium's DevTools).
+    const prof = process.env.BENCH_CPU_PROF ? ["--cpu-prof", "--cpu-prof-dir", path.resolve(process.env.BENCH_CPU_PROF)] : [];
+    server = spawn(process.execPath, [...prof, "--import", "tsx", "server/index.ts"], { env: { ...process.env, PORT: String(port), PUBLIC_URL: base, LOG_LEVEL: "error", WEB_PROCESSES: String(procs) }, stdio: ["ignore", "ignore", "inherit"] });
+    for (let i = 0; i < 300 && !(await fetch(`${base}/api/health`).then((r) => r.ok, () => false)); i++) await new Promise((r) => setTimeout(r, 200));
+    // With a supervisor, wait until every web process is up (each answers on its own connection).
+    for (let i = 0; i < 300 && procs > 1 && webPids().length < procs + 1; i++) await new Promise((r) => setTimeout(r, 200));
+    await new Promise((r) => setTimeout(r, procs > 1 ? 3000 : 0));
+    const signIn = await fetch(`${base}/api/auth/sign-in/email`, { method: "POST", headers: { "content-type": "application/json", origin: base }, body: JSON.stringify({ email: "coach@ravens.example", password: DEMO_PASSWORD }) });
+    if (signIn.status !== 200) throw new Error(`sign-in failed: ${signIn.status}`);
+    return signIn.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+  }
+  /** The server's pid and its children's (the web processes under a supervisor). */
+  const webPids = (): number[] => {
+    if (!server?.pid) return [];
+    try {
+      return [server.pid, ...readFileSync(`/proc/${server.pid}/task/${server.pid}/children`, "utf8").trim().split(/\s+/).filter(Boolean).map(Number)];
+    } catch {
+      return [server.pid];
+    }
+  };
+  const cookie = await startWeb(1);
   const team = `${base}/api/teams/${ids.teamId}`;
   const coach = { userId: ids.users["coach@ravens.example"], teamId: ids.teamId, role: "coach" as const };
 
@@ -146,13 +169,14 @@ try {
   )).rows.map((r) => r.id);
   const player = seeded.players[0];
   const sorts = ["created", "title", "player", "status"] as const;
-  const client = httpClient(cookie);
+  let client = httpClient(cookie);
   const get = (u: string) => async (signal: AbortSignal) => (await client.get(u, signal)) === 200;
-  // The 200/s pair is what people do all day; the others are printed for the record at a lower
-  // rate (deep pages and the results list sort every clip or shot of the team).
-  const scenarios: { name: string; rate: number; seconds: number; http: (i: number) => string; raw: (i: number) => Promise<unknown> }[] = [
+  interface Scenario { name: string; rate: number; seconds: number; http: (i: number) => string; raw?: (i: number) => Promise<unknown> }
+  // What people do all day, at 200 requests/s with one and with two web processes.
+  const busy: Scenario[] = [
+    { name: "app /api/health (no database)", rate: RATE, seconds: SECONDS, http: () => `${base}/api/health` },
     {
-      name: "clip list as the clips page opens it (newest first, pages 1-4)", rate: RATE, seconds: SECONDS,
+      name: "clip list as the Clips page opens it (newest first, pages 1-4)", rate: RATE, seconds: SECONDS,
       http: (i) => `${team}/clips?page=${(i % 4) + 1}&pageSize=25`,
       raw: (i) => clipRepo.listClips(ids.teamId, {}, "created", "desc", (i % 4) + 1, 25),
     },
@@ -165,26 +189,31 @@ try {
       },
     },
     {
+      name: "Shots list as the Shots page opens it (the team's newest 50, count, filter choices)", rate: RATE, seconds: SECONDS,
+      http: () => `${team}/readout/shots?page=1&pageSize=50`,
+      raw: () => Promise.all([readoutRepo.listShots(coach, {}, { limit: 50, offset: 0 }), readoutRepo.countShots(coach, {}), readoutRepo.listFilterChoices(coach)]),
+    },
+  ];
+  // Deep pages and other sorts, for the record at a lower rate (one web process).
+  const deep: Scenario[] = [
+    {
       name: "clip list, any page of 200 and any sort", rate: 20, seconds: 5,
       http: (i) => `${team}/clips?page=${(i * 7) % 200 + 1}&pageSize=25&sort=${sorts[i % 4]}`,
       raw: (i) => clipRepo.listClips(ids.teamId, {}, sorts[i % 4], "desc", (i * 7) % 200 + 1, 25),
     },
     {
-      name: "results list as the Shots page opens it (the team's newest 50)", rate: 20, seconds: 5,
-      http: () => `${team}/readout/shots?page=1&pageSize=50`,
-      raw: () => readoutRepo.listShots(coach, {}, { limit: 50, offset: 0 }),
-    },
-    {
-      name: `one player's results list, any page of 50 (${Math.round(seeded.shots / seeded.players.length)} shots)`, rate: 20, seconds: 5,
+      name: `one player's Shots list, any page of 50 (${Math.round(seeded.shots / seeded.players.length)} shots)`, rate: 20, seconds: 5,
       http: (i) => `${team}/readout/shots?playerId=${encodeURIComponent(player)}&page=${(i % 20) + 1}&pageSize=50`,
       raw: (i) => readoutRepo.listShots(coach, { playerId: player }, { limit: 50, offset: (i % 20) * 50 }),
     },
   ];
-  /** CPU time the web process has used, from /proc (Linux); -1 where there is none. */
-  const serverCpuMs = () => {
+  /** CPU time used so far by these processes, from /proc (Linux); -1 where there is none. */
+  const cpuMsOf = (pids: number[]) => {
     try {
-      const f = readFileSync(`/proc/${server!.pid}/stat`, "utf8").split(") ")[1].split(" ");
-      return ((Number(f[11]) + Number(f[12])) * 1000) / 100; // utime + stime in clock ticks (USER_HZ = 100)
+      return pids.reduce((sum, pid) => {
+        const f = readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1].split(" ");
+        return sum + ((Number(f[11]) + Number(f[12])) * 1000) / 100; // utime + stime in clock ticks (USER_HZ = 100)
+      }, 0);
     } catch {
       return -1;
     }
@@ -198,38 +227,73 @@ try {
       await new Promise((r) => setTimeout(r, 100));
     }
   };
-  // What this machine can carry at all: an empty answer from a bare Express process, and the
-  // app's /api/health (every middleware, no database), both at the same rate with the same client.
-  step(`HTTP ceiling of this machine: ${RATE} requests/s for 5 s`);
+  // What this machine can carry at all: an empty answer from a bare Express process, with the
+  // same client at the same rate. Its CPU per request is the yardstick for the app's.
+  step(`Bare Express, empty answer: ${RATE} requests/s for ${SECONDS} s`);
   const barePort = await freePort();
   const bare = spawn(process.execPath, ["-e", `require("express")().get("/", (q, r) => r.json({ ok: true })).listen(${barePort}, "127.0.0.1")`], { stdio: "ignore" });
   for (let i = 0; i < 50 && !(await fetch(`http://127.0.0.1:${barePort}/`).then((r) => r.ok, () => false)); i++) await new Promise((r) => setTimeout(r, 100));
-  const bareFig = await openLoop({ rate: RATE, seconds: 5, timeoutMs: 30_000, request: (_i, signal) => get(`http://127.0.0.1:${barePort}/`)(signal) });
+  for (let i = 0; i < 200; i++) await get(`http://127.0.0.1:${barePort}/`)(AbortSignal.timeout(30_000)); // warm-up
+  const bareCpu0 = cpuMsOf([bare.pid!]);
+  const bareFig = await openLoop({ rate: RATE, seconds: SECONDS, timeoutMs: 30_000, request: (_i, signal) => get(`http://127.0.0.1:${barePort}/`)(signal) });
+  const bareCpu = (cpuMsOf([bare.pid!]) - bareCpu0) / bareFig.n;
   bare.kill();
-  const healthFig = await openLoop({ rate: RATE, seconds: 5, timeoutMs: 30_000, request: (_i, signal) => get(`${base}/api/health`)(signal) });
-  console.log(`  bare Express, empty answer    ${fmt(bareFig)}`);
-  console.log(`  app /api/health (no database) ${fmt(healthFig)}`);
+  console.log(`  ${fmt(bareFig)}; CPU ${bareCpu.toFixed(2)} ms a request`);
 
-  const table: { name: string; api: Figures; raw: Figures; rate: number }[] = [];
-  for (const s of scenarios) {
-    step(`${s.name}: ${s.rate} requests/s for ${s.seconds} s`);
+  type Row = { name: string; procs: number; api: Figures; raw?: Figures; rate: number; cpu: number };
+  const table: Row[] = [];
+  const rawOf = new Map<string, Figures>();
+  async function run(s: Scenario, procs: number) {
+    step(`${s.name}: ${s.rate} requests/s for ${s.seconds} s, ${procs} web process${procs > 1 ? "es" : ""}`);
     await settle();
-    for (let i = 0; i < 20; i++) await get(s.http(i))(AbortSignal.timeout(30_000)); // warm-up
-    const raw = await sequential(Math.min(300, s.rate * s.seconds), s.raw);
-    const cpu0 = serverCpuMs();
+    for (let i = 0; i < 20 * procs; i++) await get(s.http(i))(AbortSignal.timeout(30_000)); // warm-up
+    if (s.raw && !rawOf.has(s.name)) rawOf.set(s.name, await sequential(Math.min(300, s.rate * s.seconds), s.raw));
+    const raw = rawOf.get(s.name);
+    const pids = webPids();
+    const cpu0 = cpuMsOf(pids);
     const api = await openLoop({ rate: s.rate, seconds: s.seconds, timeoutMs: 30_000, request: (i, signal) => get(s.http(i))(signal) });
-    const cpu = serverCpuMs() - cpu0;
+    const cpu = cpu0 >= 0 ? (cpuMsOf(pids) - cpu0) / api.n : -1;
     console.log(`  API  ${fmt(api)}`);
-    if (cpu0 >= 0) console.log(`  web process CPU ${(cpu / api.n).toFixed(2)} ms a request (${((cpu / 1000 / (api.n / s.rate)) * 100).toFixed(0)} % of one core)`);
-    console.log(`  raw  ${fmt(raw)}   (same repository query, one at a time, no HTTP)`);
-    console.log(`  API/raw p50 ×${(api.p50 / raw.p50).toFixed(1)}, p95 ×${(api.p95 / raw.p95).toFixed(1)}; goal p95 < 50 ms: ${api.p95 < 50 ? "met" : "NOT met"}`);
-    table.push({ name: s.name, api, raw, rate: s.rate });
+    if (cpu >= 0) console.log(`  web process${procs > 1 ? "es" : ""} CPU ${cpu.toFixed(2)} ms a request (×${(cpu / bareCpu).toFixed(1)} bare Express; ${((cpu * s.rate) / 10).toFixed(0)} % of one core at ${s.rate}/s)`);
+    if (raw) console.log(`  SQL alone  ${fmt(raw)}   (the same repository queries, one at a time, no HTTP)`);
+    console.log(`  goal p95 < 50 ms: ${api.p95 < 50 ? "met" : "NOT met"}`);
+    table.push({ name: s.name, procs, api, raw, rate: s.rate, cpu });
   }
+  for (const s of busy) await run(s, 1);
+  for (const s of deep) await run(s, 1);
+
+  // Ten PDF reports in flight all the time (each client asks for the next when one arrives) while
+  // /api/health is asked 200 times a second: the reports render in worker threads.
+  step(`/api/health at ${RATE} requests/s while 10 PDF reports render, one web process`);
+  await settle();
+  let pdfs = 0;
+  let pdfErrors = 0;
+  let stopPdfs = false;
+  const pdfClients = Array.from({ length: 10 }, async (_, k) => {
+    for (let i = k; !stopPdfs; i += 10) {
+      const r = await fetch(`${team}/readout/shots/${shotIds[i % shotIds.length]}/report.pdf?units=metric`, { headers: { cookie } }).then(async (x) => (await x.arrayBuffer(), x.status), () => 0);
+      if (r === 200) pdfs++;
+      else pdfErrors++;
+    }
+  });
+  await new Promise((r) => setTimeout(r, 1000)); // the reports are under way
+  const underPdf = await openLoop({ rate: RATE, seconds: SECONDS, timeoutMs: 30_000, request: (_i, signal) => get(`${base}/api/health`)(signal) });
+  stopPdfs = true;
+  await Promise.all(pdfClients);
+  console.log(`  /api/health ${fmt(underPdf)}`);
+  console.log(`  ${pdfs} reports made meanwhile${pdfErrors ? `, ${pdfErrors} failed` : ""}; goal p99 < 100 ms: ${underPdf.p99 < 100 ? "met" : "NOT met"}`);
+
+  step("Two web processes (WEB_PROCESSES=2)");
+  client.close();
+  client = httpClient(await startWeb(2));
+  for (const s of busy) await run(s, 2);
 
   step("Summary");
   console.log(`  uploads: ${matching}/${UPLOADS} checksums match`);
-  console.log(`  HTTP ceiling @ ${RATE}/s: bare Express p95 ${bareFig.p95.toFixed(1)} ms, app /api/health p95 ${healthFig.p95.toFixed(1)} ms`);
-  for (const t of table) console.log(`  ${t.name} @ ${t.rate}/s: p50 ${t.api.p50.toFixed(1)} / p95 ${t.api.p95.toFixed(1)} / p99 ${t.api.p99.toFixed(1)} ms (raw p95 ${t.raw.p95.toFixed(1)} ms)${t.api.errors ? `, ${t.api.errors} errors` : ""}`);
+  console.log(`  bare Express @ ${RATE}/s: p50 ${bareFig.p50.toFixed(1)} / p95 ${bareFig.p95.toFixed(1)} / p99 ${bareFig.p99.toFixed(1)} ms, CPU ${bareCpu.toFixed(2)} ms a request`);
+  for (const t of table)
+    console.log(`  ${t.name} @ ${t.rate}/s, ${t.procs} process${t.procs > 1 ? "es" : ""}: p50 ${t.api.p50.toFixed(1)} / p95 ${t.api.p95.toFixed(1)} / p99 ${t.api.p99.toFixed(1)} ms; CPU ${t.cpu.toFixed(2)} ms a request (×${(t.cpu / bareCpu).toFixed(1)} bare)${t.raw ? `; SQL alone p50 ${t.raw.p50.toFixed(1)} / p95 ${t.raw.p95.toFixed(1)} ms` : ""}${t.api.errors ? `; ${t.api.errors} errors` : ""}`);
+  console.log(`  /api/health while 10 PDFs render: p50 ${underPdf.p50.toFixed(1)} / p95 ${underPdf.p95.toFixed(1)} / p99 ${underPdf.p99.toFixed(1)} ms (${pdfs} reports)`);
   console.log(`  total ${((Date.now() - t0) / 1000).toFixed(0)} s; load average ${load()} at the end (${os.cpus().length} cores)`);
   client.close();
   await (await import("../../server/db/client")).db().pool.end();
