@@ -12,7 +12,7 @@ import { asProblemResponse } from "./http/better-auth-errors";
 import { authRouteGuard } from "./auth/http-routes";
 import { apiRouter } from "./routes";
 import { mountRawRoutes } from "./raw-routes";
-import { applyRateLimits } from "./security/rate-limits";
+import { applyRateLimits, signInFailureLimit } from "./security/rate-limits";
 import { sameOriginWrites } from "./security/same-origin";
 import { trustedOrigins } from "./security/origins";
 import { refuseWritesWhenUnpaid } from "./billing/read-only-guard";
@@ -24,10 +24,16 @@ export function createApp() {
   const e = env();
   const app = express();
   app.disable("x-powered-by");
-  app.set("trust proxy", e.TRUST_PROXY);
+  // Forwarded addresses count only when TRUST_PROXY names the proxy (decision 112).
+  app.set("trust proxy", e.TRUST_PROXY ?? false);
+  // Browsers must be told to use https only when people reach the app over https: on a club's
+  // plain-http network (PUBLIC_URL=http://192.168.1.20:3000) both headers would turn every
+  // asset request into an https one that fails, leaving a blank page.
+  const https = e.PUBLIC_URL.startsWith("https://");
   app.use(requestLog);
   app.use(
     helmet({
+      strictTransportSecurity: https,
       contentSecurityPolicy: {
         directives: {
           defaultSrc: ["'self'"],
@@ -40,6 +46,7 @@ export function createApp() {
           fontSrc: ["'self'", "data:"],
           objectSrc: ["'none'"],
           frameAncestors: ["'none'"],
+          upgradeInsecureRequests: https ? [] : null,
         },
       },
       crossOriginEmbedderPolicy: false,
@@ -56,6 +63,7 @@ export function createApp() {
   // better-auth: only the routes the product uses, with a small checked body (mounted before
   // express.json()); its error answers rewritten as problem+json.
   app.use("/api/auth", authRouteGuard);
+  app.use("/api/auth/sign-in/email", signInFailureLimit(e.RATE_LIMIT));
   const authHandler = toNodeHandler(async (request: Request) => asProblemResponse(await auth().handler(request)));
   app.all("/api/auth/*splat", (req, res) => void authHandler(req, res));
 

@@ -13,8 +13,9 @@ const EnvSchema = z.object({
   PORT: z.coerce.number().int().min(1).max(65535).default(3000),
   PUBLIC_URL: z.string().url().default("http://127.0.0.1:3000"),
   /** Which proxies' X-Forwarded-For to believe (Express "trust proxy": names such as loopback,
-   * uniquelocal, or addresses/subnets, comma-separated). */
-  TRUST_PROXY: z.string().regex(/^[\w.:/, ]+$/, "TRUST_PROXY: names (loopback, uniquelocal) or addresses, comma-separated").default("loopback"),
+   * uniquelocal, or addresses/subnets, comma-separated). Unset: none, every client is the address
+   * it connects from, so a client cannot pick its own address by sending the header. */
+  TRUST_PROXY: z.string().regex(/^[\w.:/, ]+$/, "TRUST_PROXY: names (loopback, uniquelocal) or addresses, comma-separated").optional(),
   DATABASE_URL: z.string().url({ message: "DATABASE_URL must be a postgres:// URL" }),
   AUTH_SECRET: z.string().min(32, "AUTH_SECRET must be at least 32 characters"),
   SMTP_HOST: z.string().default("127.0.0.1"),

@@ -76,16 +76,9 @@ function makeAuth() {
       useSecureCookies: e.PUBLIC_URL.startsWith("https://"),
       defaultCookieAttributes: { httpOnly: true, sameSite: "lax" },
     },
-    rateLimit: {
-      enabled: e.RATE_LIMIT,
-      storage: "memory",
-      window: 60,
-      max: 200,
-      customRules: {
-        "/sign-in/email": { window: 60, max: 10 },
-        "/request-password-reset": { window: 60, max: 5 },
-      },
-    },
+    // Our limiters (server/security/rate-limits.ts) count per client address as TRUST_PROXY
+    // resolves it; the library's own would read X-Forwarded-For from anyone.
+    rateLimit: { enabled: false },
     plugins: [
       organization({
         ac,

@@ -1,7 +1,7 @@
 // The few writes to better-auth's own tables the product makes itself (Drizzle only here).
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { db } from "../db/client";
-import { session, user } from "../db/schema";
+import { member, session, user } from "../db/schema";
 
 export async function markEmailVerified(userId: string) {
   await db().update(user).set({ emailVerified: true }).where(eq(user.id, userId));
@@ -20,4 +20,10 @@ export async function deleteSessionsOf(userId: string) {
 
 export async function deleteUser(userId: string) {
   await db().delete(user).where(eq(user.id, userId));
+}
+
+/** A team admin of any team (the people who look after the installation see its details). */
+export async function isAdminAnywhere(userId: string) {
+  const [row] = await db().select({ id: member.id }).from(member).where(and(eq(member.userId, userId), eq(member.role, "admin"))).limit(1);
+  return !!row;
 }

@@ -138,13 +138,20 @@ export async function sessionInTeam(teamId: string, id: string) {
   return row ?? null;
 }
 
-/** The team's session with this date, venue and drill, created when there is none. */
+/**
+ * The team's session with this date, venue and drill, created when there is none. Two requests
+ * naming the same new session at once are served one after the other (a transaction-scoped
+ * advisory lock on the team's sessions), so the second finds the first's row.
+ */
 export async function findOrCreateSession(teamId: string, s: { date: string; venue: string; drill: string }) {
   const match = and(eq(trainingSession.teamId, teamId), eq(trainingSession.date, s.date), eq(trainingSession.venue, s.venue), eq(trainingSession.drill, s.drill));
-  const [found] = await db().select({ id: trainingSession.id }).from(trainingSession).where(match);
-  if (found) return found.id;
-  const [row] = await db().insert(trainingSession).values({ teamId, ...s }).returning({ id: trainingSession.id });
-  return row.id;
+  return db().transaction(async (tx) => {
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`training_session:${teamId}`}))`);
+    const [found] = await tx.select({ id: trainingSession.id }).from(trainingSession).where(match);
+    if (found) return found.id;
+    const [row] = await tx.insert(trainingSession).values({ teamId, ...s }).returning({ id: trainingSession.id });
+    return row.id;
+  });
 }
 
 export async function sticksOf(teamId: string) {

@@ -77,14 +77,26 @@ function parseMeta(raw: string | null | undefined): ClipMeta {
   return r.data;
 }
 
-/** Bytes the team's unfinished uploads will take, from their declared lengths. */
+/**
+ * Bytes the team's unfinished uploads have received so far. Counting what they declared instead
+ * let one started-and-abandoned upload hold most of the quota until the stale sweep (24 h); the
+ * declared size is checked again when an upload finishes (quotaAtFinish).
+ */
 async function pendingBytes(store: FileStore, teamId: string): Promise<number> {
   let total = 0;
   for (const id of await store.configstore.list!().catch(() => [] as string[])) {
     const u = await store.configstore.get(id);
-    if (u?.metadata?.teamId === teamId) total += (u.size ?? 0) - (u.offset ?? 0);
+    if (u?.metadata?.teamId === teamId) total += (await stat(path.join(tusDir(), id)).catch(() => null))?.size ?? 0;
   }
   return total;
+}
+
+/** The club's stored bytes plus what its unfinished uploads hold, against its plan. */
+async function storageInUse(store: FileStore, teamId: string) {
+  const allowance = await storageAllowance(teamId);
+  let used = 0;
+  for (const t of allowance.teamIds) used += (await teamUsageBytes(t)) + (await pendingBytes(store, t));
+  return { allowance, used };
 }
 
 export function discardUpload(id: string) {
@@ -160,9 +172,7 @@ export function uploadServer(): Server {
         const filename = upload.metadata?.filename ?? "";
         await checkMetaRefs(actor.teamId, meta);
         // The club's plan sets the storage its teams share (server/billing/limits.ts).
-        const allowance = await storageAllowance(actor.teamId);
-        let used = 0;
-        for (const teamId of allowance.teamIds) used += (await teamUsageBytes(teamId)) + (await pendingBytes(store, teamId));
+        const { allowance, used } = await storageInUse(store, actor.teamId);
         if (used + size > allowance.limitBytes)
           throw new ClipProblem(413, "quota_exceeded", storageRefusal(allowance, size, used), { quotaBytes: allowance.limitBytes, usedBytes: used, plan: allowance.plan.id });
         const free = await statfs(tusDir()).then((s) => s.bavail * s.bsize).catch(() => Infinity);
@@ -176,6 +186,11 @@ export function uploadServer(): Server {
     onUploadFinish: async (req, upload) => {
       const md = upload.metadata ?? {};
       try {
+        // Several uploads started together may each have fitted; the one finishing last over the
+        // plan is refused here, before it becomes a clip (its own bytes are among the pending).
+        const { allowance, used } = await storageInUse(store, md.teamId!);
+        if (used > allowance.limitBytes)
+          throw new ClipProblem(413, "quota_exceeded", storageRefusal(allowance, upload.size ?? 0, used - (upload.size ?? 0)), { quotaBytes: allowance.limitBytes, usedBytes: used - (upload.size ?? 0), plan: allowance.plan.id });
         const row = await ingestUpload({
           teamId: md.teamId!,
           userId: md.userId!,

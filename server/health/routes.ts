@@ -1,8 +1,18 @@
-import { Router } from "express";
+import { Router, type Request } from "express";
 import { sql } from "drizzle-orm";
 import { db } from "../db/client";
 import { readinessChecks } from "./checks";
 import { isDraining } from "./draining";
+import { readSession } from "../auth/context";
+import { isAdminAnywhere } from "../auth/repository";
+
+const LOOPBACK = /^(127\.\d+\.\d+\.\d+|::1|::ffff:127\.\d+\.\d+\.\d+)$/;
+
+async function mayReadDetails(req: Request) {
+  if (LOOPBACK.test(req.ip ?? "")) return true;
+  const s = await readSession(req).catch(() => null);
+  return !!s && (await isAdminAnywhere(s.user.id));
+}
 
 const CHECK_TIMEOUT_MS = 3000;
 
@@ -10,7 +20,7 @@ export const healthRouter = Router();
 /** Liveness: the process answers. */
 healthRouter.get("/health", (_req, res) => void res.json({ ok: true }));
 /** Readiness: every dependency answers (database, queue, storage, ffmpeg); 503 names the one that does not. */
-healthRouter.get("/ready", async (_req, res) => {
+healthRouter.get("/ready", async (req, res) => {
   const checks: Record<string, { ok: boolean; detail?: string }> = {};
   const run = async (name: string, fn: () => Promise<unknown>) => {
     let timer: NodeJS.Timeout | undefined;
@@ -33,5 +43,8 @@ healthRouter.get("/ready", async (_req, res) => {
   if (isDraining()) checks.process = { ok: false, detail: "shutting down" };
   const ok = Object.values(checks).every((c) => c.ok);
   res.setHeader("Cache-Control", "no-store");
-  res.status(ok ? 200 : 503).json({ ok, checks });
+  // Versions, free disk and error text are for whoever runs the machine: asked from the machine
+  // itself, or by a signed-in team admin. Everyone else (a load balancer too) gets ok per check.
+  const shown = (await mayReadDetails(req)) ? checks : Object.fromEntries(Object.entries(checks).map(([k, c]) => [k, { ok: c.ok }]));
+  res.status(ok ? 200 : 503).json({ ok, checks: shown });
 });

@@ -33,9 +33,18 @@ export async function sendExtract(clipId: string, reqId?: string): Promise<strin
     return null;
   }
   void ensureClipSweepScheduled();
-  const live = await liveExtractJobs(clipId);
-  if (live.length) return live[0].id;
-  return enqueue("clip.extract", { clipId, reqId });
+  // Check and send under one advisory lock per clip, held on its own connection, so two
+  // requests (or a request and the sweep, in any process) cannot both find no job and send one.
+  const client = await db().pool.connect();
+  try {
+    await client.query("select pg_advisory_lock(hashtext($1))", [`clip.extract:${clipId}`]);
+    const live = await liveExtractJobs(clipId);
+    if (live.length) return live[0].id;
+    return await enqueue("clip.extract", { clipId, reqId });
+  } finally {
+    await client.query("select pg_advisory_unlock(hashtext($1))", [`clip.extract:${clipId}`]).catch(() => undefined);
+    client.release();
+  }
 }
 
 /** Cancel waiting and running extraction jobs of a clip (a running handler notices the row is gone). */

@@ -172,6 +172,8 @@ export async function deleteShot(a: Actor, shotId: string) {
 
 export async function setCalibration(a: Actor, clipId: string, cal: ClipCalibration | null) {
   const c = await clipOrThrow(a, clipId);
+  // Someone who may not even see the clip learns nothing about it: 404, as for no clip at all.
+  if (!policy.viewClip(a, { teamId: c.teamId, playerId: c.playerId })) throw notFound("That clip");
   if (!policy.editClip(a, c)) throw forbidden("Players see calibrations read-only.");
   framesOf(c);
   if (cal) {

@@ -12,6 +12,15 @@ beforeAll(async () => {
 });
 afterAll(() => srv.close());
 
+describe("transport security behind https", () => {
+  it("tells browsers to stay on https: HSTS and upgrade-insecure-requests", async () => {
+    const h = (await fetch(`${srv.url}/api/health`)).headers;
+    // RFC 6797 (HSTS); CSP Upgrade Insecure Requests (W3C).
+    expect(h.get("strict-transport-security")).toMatch(/max-age=\d+/);
+    expect(h.get("content-security-policy")).toMatch(/upgrade-insecure-requests/);
+  });
+});
+
 describe("session cookie behind https", () => {
   it("is Secure, HttpOnly, SameSite=Lax with the __Secure- prefix", async () => {
     const r = await fetch(`${srv.url}/api/auth/sign-in/email`, {
