@@ -3,7 +3,7 @@
 process.env.RATE_LIMIT = "true";
 delete process.env.TRUST_PROXY;
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { Client, EMAILS, seedWorld, startServer, type TestServer } from "./helpers";
+import { Client, seedWorld, startServer, type TestServer } from "./helpers";
 import { RATE_LIMITS } from "../../server/security/rate-limits";
 
 let srv: TestServer;
