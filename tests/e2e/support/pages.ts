@@ -41,7 +41,7 @@ export async function mainPages(page: Page): Promise<string[]> {
     paths.push("/clips");
     if (stick) paths.push(`/sticks/${stick.id}/beam`, `/sticks/${stick.id}/bench-tests/new`);
   }
-  if (role === "admin") paths.push("/roster", "/audit");
+  if (role === "admin") paths.push("/roster", "/audit", "/billing");
   return paths;
 }
 
