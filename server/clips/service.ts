@@ -11,13 +11,16 @@ import { storage } from "./deps";
 import { checkMetaRefs } from "./ingest";
 import { toDetail, toProgress, toSummary } from "./present";
 import * as memberRepo from "../entities/member/repository";
+import { isUuid } from "../http/ids";
 import * as repo from "./repository";
 
 const clipNotFound = () => notFound("That clip");
 
 /** The clip if the actor may see it; another team's clip or a player's other clips are 404. */
 export async function visibleClip(a: Actor, id: string): Promise<repo.JoinedClip> {
-  const j = await repo.clipInTeam(a.teamId, id).catch(() => null);
+  // A malformed id is simply not found; any other failure (the database away) is not "not found".
+  if (!isUuid(id)) throw clipNotFound();
+  const j = await repo.clipInTeam(a.teamId, id);
   if (!j) throw clipNotFound();
   const resource = { teamId: j.clip.teamId, playerId: j.clip.playerId };
   // A player also reaches a clip through a shot of theirs on it, or one shared with them.

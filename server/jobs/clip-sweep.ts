@@ -62,7 +62,8 @@ export async function sweepClips(log: pino.Logger, opts: { orphanMinAgeMs?: numb
   const known = await existingClipIds([...newest.keys()].filter((k) => /^[0-9a-f-]{36}$/.test(k)));
   for (const [clipId, touched] of newest) {
     if (known.has(clipId) || Date.now() - touched < minAge) continue;
-    if (await clipById(clipId).catch(() => null)) continue;
+    // No catch here: "the database is away" must never read as "no such clip" (that would delete its files).
+    if (await clipById(clipId)) continue;
     await st.deletePrefix(`clips/${clipId}/`);
     report.orphansRemoved.push(clipId);
   }

@@ -1,14 +1,32 @@
 import PgBoss from "pg-boss";
 import { env } from "../env";
 import { log } from "../log";
+import { isDatabaseDown } from "../http/database-down";
 import { jobPolicies, type JobName } from "./types";
 import { handlers } from "./handlers";
 import { setQueue, startedQueue } from "./queue";
 
 export { enqueue, queue } from "./queue";
 
+/**
+ * pg-boss 10 marks a finished job complete (or failed) without awaiting it (src/manager.js,
+ * `onFetch`): when PostgreSQL is away at that moment the rejection has no handler, and Node would
+ * stop the whole process — web requests included. Such a rejection is logged instead: the job
+ * stays active until it expires and is retried by its policy. Anything else still stops the
+ * process, as Node does by default.
+ */
+function keepRunningWhenTheDatabaseDropsACompletion() {
+  if (process.listenerCount("unhandledRejection") > 0) return;
+  process.on("unhandledRejection", (err) => {
+    if (isDatabaseDown(err)) return log.warn({ err }, "job queue: could not record a job's end while the database was away; it will expire and be retried");
+    log.fatal({ err }, "unhandled rejection");
+    process.exit(1);
+  });
+}
+
 /** Start the queue (pg-boss on our PostgreSQL); with work=true this process also runs jobs. */
 export async function startJobs({ work }: { work: boolean }) {
+  if (work) keepRunningWhenTheDatabaseDropsACompletion();
   const boss = new PgBoss({ connectionString: env().DATABASE_URL, schema: "pgboss", max: 5 });
   setQueue(boss);
   boss.on("error", (err) => log.error({ err }, "queue error"));

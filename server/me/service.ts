@@ -1,6 +1,7 @@
 import { auth } from "../auth/auth";
 import type { SignedIn } from "../auth/context";
 import { HttpError, notFound } from "../http/problem";
+import { isDatabaseDown } from "../http/database-down";
 import { parseRole, type MeResponse, type Prefs } from "../../shared/schemas/roster";
 import { getPrefs, savePrefs, teamsOf } from "./repository";
 
@@ -23,6 +24,7 @@ export async function setActiveTeam(s: SignedIn, headers: Headers, teamId: strin
   try {
     setCookies = (await auth().api.setActiveOrganization({ headers, body: { organizationId: teamId }, returnHeaders: true })).headers.getSetCookie();
   } catch (e) {
+    if (isDatabaseDown(e)) throw e;
     throw new HttpError(409, "switch_failed", `Could not switch team: ${(e as Error).message}`);
   }
   return { me: await me({ ...s, activeTeamId: teamId }), setCookies };

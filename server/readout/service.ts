@@ -12,9 +12,9 @@ import { listItem, readout } from "./present";
 import { shotDate } from "../entities/shot/date";
 import { progressPoints, summarise } from "./progress";
 import * as memberRepo from "../entities/member/repository";
+import { isUuid } from "../http/ids";
 import * as repo from "./repository";
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 const shotNotFound = (which = "That shot") =>
   new HttpError(404, "not_found", `${which} was not found in this team. It may have been deleted, belong to another team, or not be shared with you.`);
@@ -27,7 +27,7 @@ function shareRows(rows: Awaited<ReturnType<typeof repo.sharesOf>>): ShareRow[] 
 
 /** A shot the actor may see with its shares, else 404 (410 for staff when the audit log says it was deleted). */
 export async function visibleShot(a: Actor, shotId: string, which = "That shot", o: { marks?: "always" } = {}) {
-  if (!UUID.test(shotId)) throw shotNotFound(which);
+  if (!isUuid(shotId)) throw shotNotFound(which);
   const row = await repo.shotById(a.teamId, shotId, o);
   if (!row) {
     const gone = isStaff(a) ? await repo.shotDeletion(a.teamId, shotId) : null;

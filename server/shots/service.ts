@@ -9,16 +9,16 @@ import {
 } from "../../shared/schemas/shots";
 import { VersionConflictError } from "./conflict";
 import * as memberRepo from "../entities/member/repository";
+import { isUuid } from "../http/ids";
 import * as repo from "./repository";
 import { recomputeShot, recomputeShotsOfClip, toStoredResult } from "./results";
 import { shotStickInfo } from "../entities/stick/stiffness";
 
 const invalid = (path: string, message: string) => new HttpError(422, "validation_failed", `${path}: ${message}`, [{ path, message }]);
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 async function clipOrThrow(a: Actor, clipId: string) {
-  if (!UUID.test(clipId)) throw notFound("That clip");
+  if (!isUuid(clipId)) throw notFound("That clip");
   const c = await repo.clipById(a.teamId, clipId);
   if (!c) throw notFound("That clip");
   return c;
@@ -26,7 +26,7 @@ async function clipOrThrow(a: Actor, clipId: string) {
 
 /** A shot the actor may see (else 404, the same answer as a shot that does not exist). */
 async function visibleShot(a: Actor, shotId: string) {
-  if (!UUID.test(shotId)) throw notFound("That shot");
+  if (!isUuid(shotId)) throw notFound("That shot");
   const s = await repo.shotById(a.teamId, shotId);
   if (!s) throw notFound("That shot");
   const shares = (await repo.sharesOf([s.id])).get(s.id) ?? [];

@@ -2,21 +2,17 @@ import { Router, type Request, type Response } from "express";
 import multer from "multer";
 import { policy } from "../auth/policy";
 import { actorOf } from "../auth/context";
-import { HttpError, notFound } from "../http/problem";
+import { HttpError } from "../http/problem";
 import { parse } from "../http/validate";
+import { uuidOr404 } from "../http/ids";
 import { READINGS_LIMITS } from "../../shared/mechanics/sticklab";
 import { StickCreateSchema, StickPatchSchema, StickSettingsSchema } from "../../shared/schemas/sticks";
 import { addBenchTest, addBenchTestCsv, csvTooLarge, deleteBenchTest } from "./bench-service";
 import { beamFromShotRequest, solveBeamRequest } from "./beam-service";
 import * as svc from "./service";
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 /** A path id that is not a uuid names nothing (and would make PostgreSQL complain). */
-function idParam(req: Request, name: string, what: string): string {
-  const v = String(req.params[name] ?? "");
-  if (!UUID.test(v)) throw notFound(what);
-  return v;
-}
+const idParam = (req: Request, name: string, what: string) => uuidOr404(String(req.params[name] ?? ""), what);
 
 // Readings files are small: the engine's limit is 1 MB; multer stops reading past it.
 const csvUpload = multer({
