@@ -31,13 +31,22 @@ beforeAll(async () => {
   writeFileSync(path.join(root, "node_modules", ".package-lock.json"), "{}");
   const stubs = path.join(root, "stubs");
   mkdirSync(stubs);
-  for (const tool of ["npm", "npx", "node"]) {
+  for (const tool of ["npm", "npx"]) {
     writeFileSync(path.join(stubs, tool), "#!/bin/sh\nexit 0\n");
     chmodSync(path.join(stubs, tool), 0o755);
   }
+  // `node` succeeds at once, except as the payments fake, which scripts/test waits for on its port:
+  // there the stub only holds that port open until the script's cleanup kills it.
+  writeFileSync(path.join(stubs, "node"), [
+    "#!/bin/sh",
+    'case "$*" in *payments-fake*) exec python3 -c "import os,socket,time; s=socket.socket(); s.bind((\'127.0.0.1\', int(os.environ[\'PAYMENTS_API_PORT\']))); s.listen(); time.sleep(600)";; esac',
+    "exit 0", "",
+  ].join("\n"));
+  chmodSync(path.join(stubs, "node"), 0o755);
   env = {
     ...process.env, PATH: `${stubs}:${process.env.PATH}`,
     PG_PORT: String(await freePort()), TEST_SMTP_PORT: String(await freePort()), TEST_INBOX_PORT: String(await freePort()),
+    TEST_PAYMENTS_PORT: String(await freePort()),
   };
   // The cluster is already running when scripts/test starts (as with scripts/start in another window).
   const started = sh("source scripts/lib/common.sh && pg_start");
