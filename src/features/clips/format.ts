@@ -1,4 +1,5 @@
 import type { SessionRef } from "@shared/schemas/clips";
+import { formatDate } from "@/lib/format";
 
 const whole = new Intl.NumberFormat(undefined, { maximumFractionDigits: 0 });
 const upTo2 = new Intl.NumberFormat(undefined, { maximumFractionDigits: 2 });
@@ -15,11 +16,10 @@ export function formatBytes(n: number | null | undefined): string {
   return `${n} B`;
 }
 
-const day = new Intl.DateTimeFormat(undefined, { day: "numeric", month: "short", year: "numeric" });
 export function sessionLabel(s: Pick<SessionRef, "date" | "venue" | "drill"> | null | undefined): string {
   if (!s) return "No session";
-  const d = new Date(`${s.date}T12:00:00`);
-  return [Number.isNaN(d.getTime()) ? s.date : day.format(d), s.venue, s.drill].filter(Boolean).join(" · ");
+  const date = formatDate(s.date);
+  return [date === "—" ? s.date : date, s.venue, s.drill].filter(Boolean).join(" · ");
 }
 
 /** Real time between two frames at the capture rate, e.g. "0.31 ms". */

@@ -1,5 +1,6 @@
 import { ClipMetaSchema, type CameraView, type ClipMeta, type ShotType } from "@shared/schemas/clips";
 import type { FieldProblem } from "@/lib/api";
+import { todayIso } from "@/lib/format";
 
 /** The clip form as typed (strings); turned into the shared ClipMeta and checked with its schema. */
 export interface MetaFormValues {
@@ -20,7 +21,8 @@ export interface MetaFormValues {
 }
 export type MetaErrors = Partial<Record<keyof MetaFormValues, string>>;
 
-export const today = () => new Date().toISOString().slice(0, 10);
+/** The viewer's own today (YYYY-MM-DD), not UTC's. */
+export const today = todayIso;
 
 export const emptyMeta = (): MetaFormValues => ({
   title: "", session: "new", newDate: today(), newVenue: "", newDrill: "", playerId: "", shotType: "", stickId: "",

@@ -2,7 +2,7 @@ import { useNavigate } from "react-router-dom";
 import { CartesianGrid, ComposedChart, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
 import { axisTick, shotColors } from "@/components/shot/colors";
 import { roundTicksWithin } from "@/components/shot/series";
-import { formatDate } from "@/lib/format";
+import { dayValue, formatDate } from "@/lib/format";
 import { convert, digitsOf, formatValue, unitOf, type MetricDef, type MetricSummary, type ProgressPoint } from "@shared/schemas/readout";
 import type { UnitSystem } from "@shared/units";
 
@@ -13,7 +13,7 @@ interface Props {
   units: UnitSystem;
 }
 
-const day = (iso: string) => Date.parse(`${iso}T12:00:00Z`);
+const day = dayValue;
 const short = new Intl.DateTimeFormat(undefined, { day: "numeric", month: "short" });
 
 function median(xs: number[]) {

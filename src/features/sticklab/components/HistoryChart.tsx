@@ -2,6 +2,7 @@ import { CartesianGrid, ComposedChart, Label, Legend, Line, ReferenceArea, Refer
 import type { BenchTestRow } from "@shared/schemas/sticks";
 import { axisTick, chartColors } from "../lib/chart-colors";
 import { formatDay, formatFlex, formatRated } from "../lib/format";
+import { dayValue } from "@/lib/format";
 
 interface Props {
   tests: readonly BenchTestRow[];
@@ -11,7 +12,7 @@ interface Props {
   height?: number;
 }
 
-const day = (iso: string) => Date.parse(`${iso}T12:00:00Z`);
+const day = dayValue;
 const shortDate = new Intl.DateTimeFormat(undefined, { day: "numeric", month: "short" });
 
 /** Measured flex test by test against the rating and the team's alert line; shots taken per day below. */

@@ -1,5 +1,7 @@
 // Numbers of the Stick lab as a coach reads them. Flex is the trade's own number (lbf per inch at
 // mid-span), so it is shown as it is in either unit system.
+import { formatDate, todayIso } from "@/lib/format";
+
 const nf = (digits: number) => new Intl.NumberFormat(undefined, { minimumFractionDigits: digits, maximumFractionDigits: digits });
 
 export const formatFlex = (flex: number | null | undefined) => (flex == null || !Number.isFinite(flex) ? "—" : nf(1).format(flex));
@@ -11,15 +13,5 @@ export const formatNumber = (v: number | null | undefined, digits: number) => (v
 /** Tone of a % of rated against the team's alert level. */
 export const percentTone = (p: number | null | undefined, alert: number) => (p == null ? "neutral" : p < alert ? "warn" : "ok");
 
-const dayFmt = new Intl.DateTimeFormat(undefined, { day: "numeric", month: "short", year: "numeric" });
-/** A calendar day (YYYY-MM-DD) as people read it, without a time zone moving it a day. */
-export const formatDay = (iso: string | null | undefined) => {
-  if (!iso) return "—";
-  const d = new Date(`${iso.slice(0, 10)}T12:00:00`);
-  return Number.isNaN(d.getTime()) ? "—" : dayFmt.format(d);
-};
-/** Today as YYYY-MM-DD in the viewer's time zone. */
-export const todayIso = () => {
-  const d = new Date();
-  return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, "0")}-${String(d.getDate()).padStart(2, "0")}`;
-};
+/** A calendar day (YYYY-MM-DD) as written (src/lib/format.ts says the rule once). */
+export { formatDate as formatDay, todayIso };
