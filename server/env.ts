@@ -33,6 +33,8 @@ const EnvSchema = z.object({
   FFPROBE_PATH: z.string().default("ffprobe"),
   FRAME_FORMAT: z.enum(["jpg", "webp"]).default("jpg"),
   FRAME_QUALITY: z.coerce.number().int().min(1).max(31).default(3),
+  /** Grey frames a tracking run keeps in memory (MB); more wait in a file in its job folder. */
+  TRACK_MEMORY_MB: z.coerce.number().int().min(16).max(65536).default(768),
   MAX_UPLOAD_BYTES: z.coerce.number().int().positive().default(4 * 1024 ** 3),
   MAX_PIXELS: z.coerce.number().int().positive().default(4096 * 2160),
   EMBEDDED_WORKER: bool.default(true),

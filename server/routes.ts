@@ -6,6 +6,7 @@ import { auditRouter } from "./audit/routes";
 import { healthRouter } from "./health/routes";
 import { clipsRouter } from "./clips/routes";
 import { shotsRouter } from "./shots/routes";
+import { trackingRouter } from "./tracking/routes";
 import { sticksRouter } from "./sticks/routes";
 import { readoutRouter } from "./readout/routes";
 import { billingRouter } from "./billing/routes";
@@ -26,6 +27,7 @@ export function apiRouter() {
   team.use(auditRouter);
   team.use(clipsRouter);
   team.use(shotsRouter);
+  team.use(trackingRouter);
   team.use(sticksRouter);
   team.use(readoutRouter);
   team.use(billingRouter);

@@ -3,6 +3,8 @@ import type { JobName, JobTypes } from "./types";
 import { jobPolicies } from "./types";
 import { extractClip } from "./clip-extract";
 import { sweepClips } from "./clip-sweep";
+import { runTracking } from "./shot-track";
+import { sweepTracking } from "./track-sweep";
 
 export interface JobContext {
   jobId: string;
@@ -17,5 +19,9 @@ export const handlers: { [N in JobName]?: JobHandler<N> } = {
   },
   "clip.sweep": async (_data, ctx) => {
     await sweepClips(ctx.log);
+    await sweepTracking(ctx.log);
+  },
+  "shot.track": async ({ runId }, ctx) => {
+    await runTracking(runId, { jobId: ctx.jobId, log: ctx.log, lastAttempt: ctx.retryCount >= jobPolicies["shot.track"].retryLimit });
   },
 };

@@ -3,8 +3,10 @@
 export interface JobTypes {
   /** Probe-then-extract every frame of an uploaded clip. */
   "clip.extract": { clipId: string; reqId?: string };
-  /** Repair pass: re-queue clips that lack frames, remove orphaned files. */
+  /** Repair pass: re-queue clips that lack frames, remove orphaned files; hand back tracking runs whose worker died. */
   "clip.sweep": Record<string, never>;
+  /** Track every seeded landmark of a shot and propose its events (one tracking_run). */
+  "shot.track": { runId: string; shotId: string; reqId?: string };
 }
 export type JobName = keyof JobTypes;
 
@@ -20,4 +22,6 @@ export interface JobPolicy {
 export const jobPolicies: Record<JobName, JobPolicy> = {
   "clip.extract": { retryLimit: 3, retryDelaySeconds: 3, retryBackoff: true, expireInSeconds: 2 * 3600, concurrency: 1 },
   "clip.sweep": { retryLimit: 0, retryDelaySeconds: 0, retryBackoff: false, expireInSeconds: 600, concurrency: 1 },
+  // CPU-bound on one core: one at a time per worker process; more workers, more shots at once.
+  "shot.track": { retryLimit: 2, retryDelaySeconds: 2, retryBackoff: true, expireInSeconds: 1800, concurrency: 1 },
 };

@@ -25,7 +25,7 @@ async function clipOrThrow(a: Actor, clipId: string) {
 }
 
 /** A shot the actor may see (else 404, the same answer as a shot that does not exist). */
-async function visibleShot(a: Actor, shotId: string) {
+export async function visibleShot(a: Actor, shotId: string) {
   if (!isUuid(shotId)) throw notFound("That shot");
   const s = await repo.shotById(a.teamId, shotId);
   if (!s) throw notFound("That shot");
@@ -34,7 +34,7 @@ async function visibleShot(a: Actor, shotId: string) {
   return s;
 }
 
-async function editableShot(a: Actor, shotId: string) {
+export async function editableShot(a: Actor, shotId: string) {
   const s = await visibleShot(a, shotId);
   if (!policy.editShot(a, s)) throw forbidden("Players see shots read-only; an analyst or coach edits them.");
   return s;

@@ -48,6 +48,7 @@ async function spareMemberFixture(c: Ctx) {
 
 import { clipsRoutes } from "./routes/clips";
 import { shotsRoutes } from "./routes/shots";
+import { trackingRoutes } from "./routes/tracking";
 import { sticksRoutes } from "./routes/sticks";
 import { readoutRoutes } from "./routes/readout";
 import { billingRoutes } from "./routes/billing";
@@ -67,4 +68,4 @@ const coreRoutes: RouteCase[] = [
   { name: "audit log", method: "GET", path: (c) => `/api/teams/${c.teamId}/audit`, allowed: ADMIN, teamScoped: true },
 ];
 
-export const routeTable: RouteCase[] = [...coreRoutes, ...clipsRoutes, ...shotsRoutes, ...sticksRoutes, ...readoutRoutes, ...billingRoutes];
+export const routeTable: RouteCase[] = [...coreRoutes, ...clipsRoutes, ...shotsRoutes, ...trackingRoutes, ...sticksRoutes, ...readoutRoutes, ...billingRoutes];

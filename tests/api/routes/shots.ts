@@ -22,7 +22,7 @@ async function clipFixture(c: Ctx) {
   return { clipId: await insertReadyClip(c.teamId, { playerId: c.users[PLAYER_EMAIL] }) };
 }
 
-async function shotFixture(c: Ctx) {
+export async function shotFixture(c: Ctx) {
   const { clipId } = await clipFixture(c);
   const r = await c.admin.post(`/api/teams/${c.teamId}/clips/${clipId}/shots`, { frameStart: 1, frameEnd: 300 });
   if (r.status !== 201) throw new Error(`shot fixture: ${r.status} ${r.text}`);
