@@ -7,7 +7,7 @@ import type { Landmark } from "@shared/schemas/shots";
 //     │                           └────up──────▶ idle (select the handle)
 //     ├──down on empty────────▶ pressing ──moves past the slop──▶ panning ──up──▶ idle
 //     │                           └────up──────▶ idle (the tool's click: place / add a point)
-//     └──down with the middle or right button, or with Space held──▶ panning
+//     └──down with the middle or right button, or with Alt held──▶ panning
 //
 // No DOM: the canvas hands in pointer positions and a hit test; the machine answers with effects
 // that the store applies. That keeps every tool testable in plain Node.
@@ -24,7 +24,7 @@ export interface PointerInput {
   screen: Vec2;
   /** 0 main, 1 middle, 2 secondary. */
   button?: number;
-  /** Space held: drag pans whatever is under the pointer. */
+  /** Alt held (Space plays and pauses): drag pans whatever is under the pointer, marks included. */
   panKey?: boolean;
   /** A finger rather than a mouse or pen: a tap wobbles more before it counts as a drag. */
   touch?: boolean;
