@@ -5,6 +5,7 @@ import { HttpError } from "../http/problem";
 import { PLANS, storageText, type Plan } from "../../shared/billing/plans";
 import { clubFor } from "./clubs";
 import * as repo from "./repository";
+import { withNamedLock } from "../db/named-lock";
 
 /** The storage a team's club may use and which teams share it. */
 export async function storageAllowance(teamId: string): Promise<{ plan: Plan; clubName: string; limitBytes: number; teamIds: string[] }> {
@@ -20,6 +21,15 @@ export function storageRefusal(a: { plan: Plan; clubName: string; limitBytes: nu
 }
 
 const STAFF = new Set(["admin", "coach", "analyst"]);
+
+/**
+ * Runs a change that may take a staff seat under the club's seat lock, so two invitations or role
+ * changes at once cannot both see the last seat free (the seat check must run inside `fn`).
+ */
+export async function withSeatLock<T>(teamId: string, fn: () => Promise<T>): Promise<T> {
+  const club = await clubFor(teamId);
+  return withNamedLock(`staff-seats:${club.id}`, fn);
+}
 
 /** Refuses a staff role for `email` in the team when the club's plan has no seat left for a new person. */
 export async function assertStaffSeat(teamId: string, email: string, role: string) {

@@ -3,6 +3,7 @@
 // live job is found by its payload.
 import { sql } from "drizzle-orm";
 import { db } from "../db/client";
+import { withNamedLock } from "../db/named-lock";
 import { log } from "../log";
 import { enqueue, startedQueue } from "./queue";
 
@@ -33,18 +34,13 @@ export async function sendExtract(clipId: string, reqId?: string): Promise<strin
     return null;
   }
   void ensureClipSweepScheduled();
-  // Check and send under one advisory lock per clip, held on its own connection, so two
-  // requests (or a request and the sweep, in any process) cannot both find no job and send one.
-  const client = await db().pool.connect();
-  try {
-    await client.query("select pg_advisory_lock(hashtext($1))", [`clip.extract:${clipId}`]);
+  // Check and send under one lock per clip, so two requests (or a request and the sweep, in any
+  // process) cannot both find no job and send one.
+  return withNamedLock(`clip.extract:${clipId}`, async () => {
     const live = await liveExtractJobs(clipId);
     if (live.length) return live[0].id;
-    return await enqueue("clip.extract", { clipId, reqId });
-  } finally {
-    await client.query("select pg_advisory_unlock(hashtext($1))", [`clip.extract:${clipId}`]).catch(() => undefined);
-    client.release();
-  }
+    return enqueue("clip.extract", { clipId, reqId });
+  });
 }
 
 /** Cancel waiting and running extraction jobs of a clip (a running handler notices the row is gone). */

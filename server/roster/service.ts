@@ -9,7 +9,7 @@ import { forbidden, HttpError, notFound } from "../http/problem";
 import { type InvitationPublic, type Role, type RosterResponse } from "../../shared/schemas/roster";
 import { parseRole, roleForList } from "../entities/member/role";
 import * as repo from "./repository";
-import { assertStaffSeat } from "../billing/limits";
+import { assertStaffSeat, withSeatLock } from "../billing/limits";
 
 const asRole = roleForList;
 
@@ -29,10 +29,12 @@ export async function roster(a: Actor): Promise<RosterResponse> {
 export async function invite(a: Actor, headers: Headers, email: string, role: Role, resend = false) {
   requireAdmin(a);
   if (await repo.memberByEmail(a.teamId, email)) throw new HttpError(409, "already_member", `${email} is already a member of this team.`);
-  await assertStaffSeat(a.teamId, email, role);
-  if (!resend && (await repo.pendingInvitationFor(a.teamId, email)))
-    throw new HttpError(409, "already_invited", `${email} already has a pending invitation. Use "Resend" to send it again.`);
-  const inv = await viaAuth(() => auth().api.createInvitation({ headers, body: { email, role, organizationId: a.teamId, resend } }));
+  const inv = await withSeatLock(a.teamId, async () => {
+    await assertStaffSeat(a.teamId, email, role);
+    if (!resend && (await repo.pendingInvitationFor(a.teamId, email)))
+      throw new HttpError(409, "already_invited", `${email} already has a pending invitation. Use "Resend" to send it again.`);
+    return viaAuth(() => auth().api.createInvitation({ headers, body: { email, role, organizationId: a.teamId, resend } }));
+  });
   await recordAudit({ teamId: a.teamId, actorId: a.userId, action: resend ? "invitation.resent" : "invitation.created", targetType: "invitation", targetId: inv.id, detail: { email, role } });
   return { id: inv.id, email: inv.email, role: asRole(inv.role), status: inv.status, expiresAt: new Date(inv.expiresAt).toISOString() };
 }
@@ -69,7 +71,7 @@ function guardLastAdmin(members: repo.MemberRow[], memberId: string, nextRole: R
 
 export async function changeRole(a: Actor, memberId: string, role: Role) {
   requireAdmin(a);
-  return repo.changeMembership(a.teamId, async (members, tx) => {
+  return withSeatLock(a.teamId, () => repo.changeMembership(a.teamId, async (members, tx) => {
     const m = guardLastAdmin(members, memberId, role);
     await assertStaffSeat(a.teamId, await repo.emailOfUser(m.userId), role);
     await repo.setMemberRole(tx, memberId, role);
@@ -77,7 +79,7 @@ export async function changeRole(a: Actor, memberId: string, role: Role) {
       result: { id: memberId, role },
       audit: { actorId: a.userId, action: "member.role_changed", targetType: "member", targetId: memberId, detail: { from: m.role, to: role, userId: m.userId } },
     };
-  });
+  }));
 }
 
 export async function removeMember(a: Actor, memberId: string) {

@@ -241,6 +241,17 @@ describe("limits of the plan", () => {
     expect((await c.admin.get(B(c.teamId))).json.usage.staffSeats).toBe(3);
   });
 
+  it("staff seats under a race: eight staff invitations sent at once for the last two seats give exactly two", async () => {
+    const c = await newClub(w.srv.url);
+    const T = `/api/teams/${c.teamId}`;
+    const answers = await Promise.all(Array.from({ length: 8 }, (_, i) =>
+      c.admin.post(`${T}/invitations`, { email: `racer${i}@otters.example`, role: i % 2 ? "coach" : "analyst" })));
+    const statuses = answers.map((a) => a.status).sort();
+    expect(statuses.filter((s) => s === 201), JSON.stringify(statuses)).toHaveLength(2);
+    expect(answers.filter((a) => a.status === 409).every((a) => a.json.code === "plan_limit")).toBe(true);
+    expect((await c.admin.get(B(c.teamId))).json.usage.staffSeats).toBe(3);
+  });
+
   it("teams per club: one on the free plan, more once on a larger plan", async () => {
     const c = await newClub(w.srv.url);
     const refused = await c.admin.post(`/api/teams/${c.teamId}/club/teams`, { name: "Otters U14" });
