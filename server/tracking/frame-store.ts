@@ -59,10 +59,15 @@ export class FrameStore implements FrameSource {
     if (!this.has(index)) {
       if (this.ended) throw this.missing(index);
       await new Promise<void>((resolve, reject) => {
+        const onAbort = () => reject(signal?.reason ?? new Error("cancelled"));
         const list = this.waiters.get(index) ?? [];
-        list.push({ resolve, reject });
+        const done = (fn: () => void) => () => {
+          signal?.removeEventListener("abort", onAbort);
+          fn();
+        };
+        list.push({ resolve: done(resolve), reject: (e) => done(() => reject(e))() });
         this.waiters.set(index, list);
-        signal?.addEventListener("abort", () => reject(signal.reason ?? new Error("cancelled")), { once: true });
+        signal?.addEventListener("abort", onAbort, { once: true });
       });
     }
     this.taken.add(index);
