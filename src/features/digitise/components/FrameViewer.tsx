@@ -136,6 +136,7 @@ export function FrameViewer({ store, cache, extraOverlay }: { store: DigitiseSto
       data-testid="frame-viewer"
       data-frame={current?.frame ?? ""}
       data-cached-frames={cache.size}
+      data-view={`${view.zoom} ${view.panX} ${view.panY}`}
       className="relative h-full w-full touch-none overflow-hidden bg-[#101517] outline-none select-none"
       style={{ cursor: s.cursor }}
     >

@@ -38,7 +38,8 @@ export function useTrackingAssist(store: DigitiseStore, o: Setup) {
               frames: { urlTemplate: `${env.apiBase}/teams/${encodeURIComponent(o.teamId)}/clips/${encodeURIComponent(o.clipId)}/frames/{frame}`, first: o.frameStart, last: o.frameEnd },
               start: { frame: start[0], x: start[1], y: start[2] },
               ...(prior && start[0] - prior[0] <= 3 ? { prior: { frame: prior[0], x: prior[1], y: prior[2] } } : {}),
-              options: { direction: 1 },
+              // The puck is followed by its outline alone (the blade beside it, a print on it take no part).
+              options: { direction: 1, ...(landmark === "puck" ? { object: "puck" as const } : {}) },
             },
             {
               onProposal: (p) => session.proposal({ frame: p.frame, x: p.x, y: p.y, confidence: p.confidence }),

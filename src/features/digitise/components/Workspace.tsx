@@ -11,7 +11,10 @@ import { checkDraft } from "../model/calibration-draft";
 import { commandFor, isTypingTarget, type Command } from "../model/keymap";
 import { DigitiseStore } from "../model/store";
 import { usePreview } from "../preview/usePreview";
+import { useTrackingRun } from "../api/tracking";
+import { AutoDigitisePanel } from "./AutoDigitisePanel";
 import { CalibrationPanel } from "./CalibrationPanel";
+import { ProposalsOverlay } from "./ProposalsOverlay";
 import { EventsPanel } from "./EventsPanel";
 import { FrameStrip } from "./FrameStrip";
 import { FrameViewer } from "./FrameViewer";
@@ -60,6 +63,7 @@ export function Workspace({ teamId, shot }: { teamId: string; shot: ShotDetail }
   const saving = useShotSaving(teamId, shot, store, start);
   const playback = usePlayback(store);
   const tracking = useTrackingAssist(store, { teamId, clipId: shot.clip.id, frameStart: shot.frameStart, frameEnd: shot.frameEnd, enabled: shot.canEdit });
+  const trackingRun = useTrackingRun(teamId, shot.id);
   const [help, setHelp] = useState(false);
   const [jumpRequest, setJumpRequest] = useState(0);
 
@@ -113,7 +117,7 @@ export function Workspace({ teamId, shot }: { teamId: string; shot: ShotDetail }
         toolMark: () => store.setTool("mark"),
         toolScaleBar: () => store.setTool("scaleBar"),
         toolPlane: () => store.setTool("plane"),
-        escape: () => (tracking.busy ? tracking.cancel() : store.setTool("mark")),
+        escape: () => (tracking.busy ? tracking.cancel() : st.seeding ? store.stopSeeding() : store.setTool("mark")),
         undo: () => store.undo(),
         redo: () => store.redo(),
         help: () => setHelp((h) => !h),
@@ -194,7 +198,18 @@ export function Workspace({ teamId, shot }: { teamId: string; shot: ShotDetail }
       <div className="flex flex-col overflow-hidden rounded-[var(--radius-card)] border border-line bg-surface shadow-[var(--shadow-card)] lg:grid lg:h-[max(34rem,calc(100dvh-13rem))] lg:grid-cols-[minmax(0,1fr)_21rem]">
         <div className="flex min-h-0 min-w-0 flex-col bg-[#101517]">
           <div className="relative h-[max(16rem,75vw)] max-h-[70dvh] min-h-0 lg:h-auto lg:max-h-none lg:flex-1">
-            {frames && <FrameViewer store={store} cache={frames} extraOverlay={<TrackingOverlay store={store} tracking={tracking} />} />}
+            {frames && (
+              <FrameViewer
+                store={store}
+                cache={frames}
+                extraOverlay={
+                  <>
+                    <ProposalsOverlay store={store} proposals={trackingRun.data?.run?.proposals ?? null} />
+                    <TrackingOverlay store={store} tracking={tracking} />
+                  </>
+                }
+              />
+            )}
             {/* Laid over the picture's foot, so the picture keeps its size (and place) when the bar comes and goes. */}
             <div className="absolute inset-x-0 bottom-0 z-10">
               <TrackingBar store={store} tracking={tracking} />
@@ -204,6 +219,7 @@ export function Workspace({ teamId, shot }: { teamId: string; shot: ShotDetail }
           <FrameStrip store={store} thumbUrl={url} />
         </div>
         <aside className="min-h-0 border-t border-line lg:overflow-y-auto lg:border-t-0 lg:border-l" aria-label="Digitise panels">
+          <AutoDigitisePanel store={store} teamId={teamId} shotId={shot.id} canEdit={shot.canEdit} />
           <LandmarkPanel store={store} tracking={<TrackingButton tracking={tracking} />} />
           <EventsPanel store={store} />
           <CalibrationPanel store={store} status={saving.calStatus.kind === "saving" ? "saving…" : saving.calStatus.kind === "offline" ? "offline" : null} />

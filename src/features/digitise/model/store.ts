@@ -53,6 +53,8 @@ export interface DigitiseState extends Omit<DigitiseSetup, "frame"> {
   /** Marks of the past frames drawn behind each landmark. */
   trail: number;
   autoAdvance: boolean;
+  /** Placing the seeds of an auto-digitise run: each click places the active landmark and moves on to the next one. */
+  seeding: boolean;
   notice: Notice | null;
 }
 
@@ -90,6 +92,7 @@ export class DigitiseStore {
       visible: Object.fromEntries(LANDMARKS.map((k) => [k, true])) as Record<Landmark, boolean>,
       trail: 15,
       autoAdvance: false,
+      seeding: false,
       notice: null,
     };
   }
@@ -167,8 +170,65 @@ export class DigitiseStore {
     const marks = { ...s.doc.marks, [landmark]: withMark(s.doc.marks[landmark], s.frame, at[0], at[1]) };
     const visible = s.visible[landmark] ? s.visible : { ...s.visible, [landmark]: true };
     if (!this.commit({ ...s.doc, marks }, { visible })) return false;
-    if (s.autoAdvance && s.frame < s.frameEnd) this.goto(s.frame + 1);
+    if (s.seeding) this.nextSeed(landmark);
+    else if (s.autoAdvance && s.frame < s.frameEnd) this.goto(s.frame + 1);
     return true;
+  }
+
+  // ---- seeds of an auto-digitise run -------------------------------------------------------
+  /** Landmarks still to place on this frame, in the usual order. */
+  unseeded(frame = this.state.frame): Landmark[] {
+    return LANDMARKS.filter((k) => !markAt(this.state.doc.marks[k], frame));
+  }
+
+  /** Each click now places the next landmark not yet on this frame, puck first. */
+  startSeeding() {
+    if (this.state.readOnly) return;
+    const todo = this.unseeded();
+    if (!todo.length) return this.notify("Every landmark is already on this frame.", "info");
+    this.set({ seeding: true, tool: "mark", activeLandmark: todo[0], visible: { ...this.state.visible, [todo[0]]: true } });
+  }
+
+  stopSeeding() {
+    if (this.state.seeding) this.set({ seeding: false });
+  }
+
+  /** Leave the active landmark unplaced (the butt end is optional) and go on to the next. */
+  skipSeed() {
+    if (this.state.seeding) this.nextSeed(this.state.activeLandmark);
+  }
+
+  private nextSeed(after: Landmark) {
+    const todo = this.unseeded();
+    const i = LANDMARKS.indexOf(after);
+    const next = todo.find((k) => LANDMARKS.indexOf(k) > i);
+    if (next) this.set({ activeLandmark: next, visible: { ...this.state.visible, [next]: true } });
+    else this.set({ seeding: false });
+  }
+
+  /**
+   * Accepted tracking proposals as one undoable edit: marks on frames the analyst left empty,
+   * events the analyst has not set (refused as a whole when their order is impossible), and a
+   * scale bar when given.
+   */
+  acceptProposals(add: Partial<Record<Landmark, readonly Mark[]>>, events: Partial<Record<ShotEventKey, number>>, calibration?: CalDraft) {
+    const s = this.state;
+    const marks = { ...s.doc.marks };
+    for (const [k, list] of Object.entries(add) as [Landmark, readonly Mark[]][]) {
+      let track = marks[k];
+      for (const [f, x, y] of list) {
+        if (f < s.frameStart || f > s.frameEnd || !insideFrame([x, y], s.frameSize) || markAt(track, f)) continue;
+        track = withMark(track, f, x, y);
+      }
+      if (track) marks[k] = track;
+    }
+    let merged: ShotEventsDraft = { ...s.doc.events, ...events };
+    const problem = eventOrderProblem(merged);
+    if (problem) {
+      this.notify(`Proposed events not set: ${problem.message}.`);
+      merged = s.doc.events;
+    }
+    return this.commit({ ...s.doc, marks, events: merged, calibration: calibration ?? s.doc.calibration });
   }
 
   deleteMark(landmark: Landmark = this.state.activeLandmark, frame = this.state.frame) {
@@ -226,6 +286,18 @@ export class DigitiseStore {
     if (s.doc.events[key] === undefined) return false;
     const events = { ...s.doc.events };
     delete events[key];
+    return this.commit({ ...s.doc, events });
+  }
+
+  /** Set one event to a frame (a proposal confirmed); impossible orders are refused. */
+  setEvent(key: ShotEventKey, frame: number) {
+    const s = this.state;
+    const events = { ...s.doc.events, [key]: frame };
+    const problem = eventOrderProblem(events);
+    if (problem) {
+      this.notify(`${eventLabels[key]} not set: ${problem.message}.`);
+      return false;
+    }
     return this.commit({ ...s.doc, events });
   }
 

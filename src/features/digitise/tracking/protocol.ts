@@ -34,6 +34,7 @@ export const trackOptions = z.object({
   minPeakMargin: z.number().min(0).max(1).optional(),
   searchRadius: z.number().min(1).max(256).optional(),
   turning: z.boolean().optional(),
+  object: z.literal("puck").optional(),
 });
 
 export const startMessage = z.object({
