@@ -2,7 +2,7 @@
 import { and, eq, inArray, sql } from "drizzle-orm";
 import { db, type Db } from "../db/client";
 import { prepared } from "../db/prepared";
-import { billingEvent, club, clubTeam, invitation, member, organization, user } from "../db/schema";
+import { auditLog, billingEvent, club, clubTeam, invitation, member, organization, user } from "../db/schema";
 import type { PlanId } from "../../shared/billing/plans";
 
 export type ClubRow = typeof club.$inferSelect;
@@ -40,6 +40,20 @@ export async function createClub(v: { name: string; plan?: PlanId }, tx: Tx | Db
 
 export async function addTeamToClub(clubId: string, teamId: string, tx: Tx | Db = db()) {
   await tx.insert(clubTeam).values({ clubId, teamId }).onConflictDoNothing();
+}
+
+/**
+ * Clubs whose grace ran out by the clock alone (still past due, no service event since): their
+ * read-only state has not been announced yet when no "billing.read_only" entry follows the
+ * failed renewal in the audit log.
+ */
+export async function clubsPastGraceUnannounced(graceDays: number, tx: Tx | Db = db()) {
+  return tx.select({ id: club.id }).from(club).where(and(
+    eq(club.subscriptionStatus, "past_due"),
+    sql`${club.pastDueSince} + make_interval(days => ${graceDays}) <= now()`,
+    sql`not exists (select 1 from ${auditLog} a where a.action = 'billing.read_only' and a.target_type = 'club'
+          and a.target_id = ${club.id}::text and a.created_at >= ${club.pastDueSince})`,
+  ));
 }
 
 /** Sets the customer only when none is set yet; returns the club's customer either way. */

@@ -67,16 +67,46 @@ export async function syncClub(clubId: string, log: Logger): Promise<void> {
   if (!entries.length) return;
 
   log.info({ clubId, from: { plan: before.plan, status: before.subscriptionStatus }, to: { plan: after.plan, status: after.subscriptionStatus } }, "club plan state changed");
+  const tell = (was === "ok" && is !== "ok") || (was !== "read_only" && is === "read_only");
+  await announce(clubId, after.name, entries, tell ? (is === "read_only" ? "read_only" : "grace") : null, graceEnd, log);
+}
+
+/** Audit entries on every team of the club, and the mail to its admins when access changed. */
+async function announce(clubId: string, clubName: string, entries: { action: AuditAction; detail: Record<string, unknown> }[],
+  mail: "grace" | "read_only" | null, graceEnd: Date | null, log: Logger) {
   const teams = await repo.teamsOfClub(clubId);
   for (const t of teams)
     for (const entry of entries) await recordAudit({ teamId: t.id, actorId: null, targetType: "club", targetId: clubId, ...entry });
-
-  const url = `${e.PUBLIC_URL}/billing`;
-  const admins = (was === "ok" && is !== "ok") || (was !== "read_only" && is === "read_only") ? await repo.adminsOfClub(clubId) : [];
-  for (const a of admins) {
-    const mail = is === "read_only"
-      ? readOnlyMail({ to: a.email, name: a.name, clubName: after.name, url })
-      : paymentFailedMail({ to: a.email, name: a.name, clubName: after.name, graceEndsAt: graceEnd!, url });
-    await sendMail(mail).catch((err) => log.error({ err, clubId }, "payment mail could not be sent"));
+  if (!mail) return;
+  const url = `${env().PUBLIC_URL}/billing`;
+  for (const a of await repo.adminsOfClub(clubId)) {
+    const m = mail === "read_only"
+      ? readOnlyMail({ to: a.email, name: a.name, clubName, url })
+      : paymentFailedMail({ to: a.email, name: a.name, clubName, graceEndsAt: graceEnd!, url });
+    await sendMail(m).catch((err) => log.error({ err, clubId }, "payment mail could not be sent"));
   }
+}
+
+/**
+ * Grace that ends by the clock sends no webhook: the periodic sweep finds such clubs and
+ * announces read-only once (audit entry and mail), as a service event would have. The club's row
+ * lock and the audit check under it keep two sweeps, or a sweep and a webhook, from announcing twice.
+ */
+export async function announceGraceEnded(log: Logger): Promise<string[]> {
+  const days = env().BILLING_GRACE_DAYS;
+  const announced: string[] = [];
+  for (const { id } of await repo.clubsPastGraceUnannounced(days)) {
+    const name = await repo.withClubLocked(id, async (row, tx) => {
+      const still = (await repo.clubsPastGraceUnannounced(days, tx)).some((c) => c.id === id);
+      if (!still || accessOf(row, new Date(), days) !== "read_only") return null;
+      for (const t of await repo.teamsOfClub(id))
+        await recordAudit({ teamId: t.id, actorId: null, targetType: "club", targetId: id, action: "billing.read_only", detail: { by: "grace_ended" } }, tx);
+      return row.name;
+    });
+    if (!name) continue;
+    log.info({ clubId: id }, "grace ended without a payment: the club is read-only");
+    await announce(id, name, [], "read_only", null, log);
+    announced.push(id);
+  }
+  return announced;
 }

@@ -5,6 +5,7 @@ import { extractClip } from "./clip-extract";
 import { sweepClips } from "./clip-sweep";
 import { runTracking } from "./shot-track";
 import { sweepTracking } from "./track-sweep";
+import { announceGraceEnded } from "../billing/sync";
 
 export interface JobContext {
   jobId: string;
@@ -20,6 +21,7 @@ export const handlers: { [N in JobName]?: JobHandler<N> } = {
   "clip.sweep": async (_data, ctx) => {
     await sweepClips(ctx.log);
     await sweepTracking(ctx.log);
+    await announceGraceEnded(ctx.log);
   },
   "shot.track": async ({ runId }, ctx) => {
     await runTracking(runId, { jobId: ctx.jobId, log: ctx.log, lastAttempt: ctx.retryCount >= jobPolicies["shot.track"].retryLimit });

@@ -224,6 +224,37 @@ describe("plan changes", () => {
   });
 });
 
+describe("grace that ends by the clock", () => {
+  it("with no event from the service, the sweep announces read-only once: audit entry and mail to admins", async () => {
+    const { waitForMail, mailsTo } = await import("./helpers");
+    const { announceGraceEnded } = await import("../../server/billing/sync");
+    const { db } = await import("../../server/db/client");
+    const { club } = await import("../../server/db/schema");
+    const { eq } = await import("drizzle-orm");
+    const { log } = await import("../../server/log");
+    const c = await newClub(w.srv.url);
+    await subscribe(c.admin, c.teamId);
+    const sub = await subscriptionOf(c.clubId);
+    await fakeControl(w, `/subscriptions/${sub.subscriptionId}/renew`, { card: "4000000000000341" });
+    await waitForBilling(c.admin, c.teamId, (x) => x.access === "grace");
+    await waitForMail(c.email, /Payment for .* failed/);
+    expect(await announceGraceEnded(log)).not.toContain(c.clubId); // still in grace: nothing to say
+
+    // Fifteen days pass and the service stays silent (it may retry later, or never).
+    await db().update(club).set({ pastDueSince: new Date(Date.now() - 15 * 24 * 3600_000) }).where(eq(club.id, c.clubId));
+    expect((await c.admin.get(B(c.teamId))).json.access).toBe("read_only");
+    expect(await auditActions(c.admin, c.teamId)).not.toContain("billing.read_only");
+
+    const [first, second] = await Promise.all([announceGraceEnded(log), announceGraceEnded(log)]);
+    // (The server's own sweep may have got there first; either way it is said once.)
+    expect([...first, ...second].filter((id) => id === c.clubId).length).toBeLessThanOrEqual(1);
+    expect(await announceGraceEnded(log)).not.toContain(c.clubId);
+    expect((await auditActions(c.admin, c.teamId)).filter((a) => a === "billing.read_only")).toHaveLength(1);
+    await waitForMail(c.email, /read-only until paid/);
+    expect((await mailsTo(c.email)).filter((m) => /read-only until paid/.test(m.subject))).toHaveLength(1);
+  });
+});
+
 describe("limits of the plan", () => {
   it("staff seats: the free plan's three are taken, a fourth staff invitation is refused naming the plan; a player is fine", async () => {
     const c = await newClub(w.srv.url);
