@@ -5,14 +5,16 @@ import { auditLog, user } from "../db/schema";
 export type AuditAction =
   | "member.role_changed" | "member.removed" | "member.joined"
   | "invitation.created" | "invitation.resent" | "invitation.cancelled"
-  | "clip.deleted" | "shot.deleted" | "shot.shared" | "shot.unshared" | "stick.deleted" | "bench_test.deleted"
+  | "clip.deleted" | "clip.player_changed" | "shot.deleted" | "shot.reassigned" | "shot.shared" | "shot.unshared" | "stick.deleted" | "bench_test.deleted"
   | "plan.changed" | "plan.cancel_scheduled" | "plan.cancel_withdrawn" | "billing.payment_failed" | "billing.read_only" | "billing.restored"
   | "team.created";
 
 type Executor = Pick<ReturnType<typeof db>, "insert">;
 
+export interface AuditEntry { teamId: string; actorId: string | null; action: AuditAction; targetType: string; targetId?: string; detail?: Record<string, unknown> }
+
 /** Pass the transaction as `executor` when the change and its entry must land together. */
-export async function recordAudit(e: { teamId: string; actorId: string | null; action: AuditAction; targetType: string; targetId?: string; detail?: Record<string, unknown> }, executor: Executor = db()) {
+export async function recordAudit(e: AuditEntry, executor: Executor = db()) {
   await executor.insert(auditLog).values({ ...e, detail: e.detail ?? {} });
 }
 

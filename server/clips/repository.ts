@@ -5,6 +5,8 @@ import { db } from "../db/client";
 import { preparedBy } from "../db/prepared";
 import { clip, shot, shotShare, stick, trainingSession, user } from "../db/schema";
 import type { ClipSort, ShotType } from "../../shared/schemas/clips";
+import { recordAudit, type AuditEntry } from "../audit/repository";
+import { countClipShotsOf, moveClipShots } from "../entities/shot/players";
 
 export type ClipRow = typeof clip.$inferSelect;
 export type NewClipRow = typeof clip.$inferInsert;
@@ -103,6 +105,27 @@ export async function insertClip(values: NewClipRow): Promise<ClipRow | null> {
 export async function updateClip(id: string, patch: Partial<NewClipRow>): Promise<ClipRow | null> {
   const [row] = await db().update(clip).set({ ...patch, updatedAt: new Date() }).where(eq(clip.id, id)).returning();
   return row ?? null;
+}
+
+export interface PlayerChange {
+  from: string | null;
+  to: string;
+  /** Move the clip's shots of `from` to `to` (else they stay with `from`). */
+  moveShots: boolean;
+  /** The audit entry, given how many shots moved and how many stayed. */
+  audit: (moved: number, kept: number) => AuditEntry;
+}
+
+/** A clip's new values with a new player: its shots moved (or kept) and the audit entry, all in one transaction. */
+export async function updateClipAndPlayer(id: string, patch: Partial<NewClipRow>, change: PlayerChange): Promise<ClipRow | null> {
+  return db().transaction(async (tx) => {
+    const [row] = await tx.update(clip).set({ ...patch, playerId: change.to, updatedAt: new Date() }).where(eq(clip.id, id)).returning();
+    if (!row) return null;
+    const moved = change.moveShots ? await moveClipShots(tx, id, change.from, change.to) : 0;
+    const kept = change.moveShots ? 0 : await countClipShotsOf(id, change.from, tx);
+    await recordAudit(change.audit(moved, kept), tx);
+    return row;
+  });
 }
 
 export async function setProgress(id: string, framesDone: number): Promise<boolean> {

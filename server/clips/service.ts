@@ -11,6 +11,7 @@ import { storage } from "./deps";
 import { checkMetaRefs } from "./ingest";
 import { toDetail, toProgress, toSummary } from "./present";
 import * as memberRepo from "../entities/member/repository";
+import { countClipShotsOf } from "../entities/shot/players";
 import { isUuid } from "../http/ids";
 import * as repo from "./repository";
 
@@ -66,9 +67,33 @@ export async function patch(a: Actor, id: string, p: ClipPatch): Promise<ClipDet
   const sessionId = p.newSession ? await repo.findOrCreateSession(a.teamId, p.newSession) : p.sessionId;
   // Stating the capture rate is confirming it, unless the person says otherwise.
   const captureFpsConfirmed = p.captureFpsConfirmed ?? (p.captureFps !== undefined ? true : undefined);
-  const { newSession: _n, ...rest } = p;
-  await repo.updateClip(c.id, { ...rest, ...(sessionId ? { sessionId } : {}), ...(captureFpsConfirmed !== undefined ? { captureFpsConfirmed } : {}) });
+  const { newSession: _n, moveShots, ...rest } = p;
+  const values = { ...rest, ...(sessionId ? { sessionId } : {}), ...(captureFpsConfirmed !== undefined ? { captureFpsConfirmed } : {}) };
+  if (p.playerId !== undefined && p.playerId !== c.playerId) {
+    await repo.updateClipAndPlayer(c.id, values, playerChange(a, j, p.playerId, moveShots ?? (await askedToMove(c))));
+  } else {
+    await repo.updateClip(c.id, values);
+  }
   return get(a, id);
+}
+
+/** A new player on a clip with shots of its previous player: the person must say whether they move. */
+async function askedToMove(c: repo.ClipRow): Promise<boolean> {
+  const n = await countClipShotsOf(c.id, c.playerId);
+  if (!n) return false;
+  const shots = n === 1 ? "1 shot" : `${n} shots`;
+  const message = `This clip has ${shots} of its previous player: say whether they move to the new player.`;
+  throw new HttpError(422, "validation_failed", `moveShots: ${message}`, [{ path: "moveShots", message }]);
+}
+
+function playerChange(a: Actor, j: repo.JoinedClip, to: string, moveShots: boolean): repo.PlayerChange {
+  return {
+    from: j.clip.playerId, to, moveShots,
+    audit: (moved, kept) => ({
+      teamId: a.teamId, actorId: a.userId, action: "clip.player_changed", targetType: "clip", targetId: j.clip.id,
+      detail: { title: j.clip.title, from: j.clip.playerId, fromName: j.playerName, to, shotsMoved: moved, shotsKept: kept },
+    }),
+  };
 }
 
 export async function retry(a: Actor, id: string, reqId?: string): Promise<ClipDetail> {

@@ -2,6 +2,7 @@ import { and, asc, eq, inArray, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
 import { clip, shot, shotResult, shotShare, stick, trainingSession, user } from "../db/schema";
+import { recordAudit, type AuditEntry } from "../audit/repository";
 import { shotDateSql } from "../entities/shot/date";
 import { benchTestInForce } from "../entities/stick/stiffness";
 import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../shared/schemas/shots";
@@ -76,9 +77,13 @@ export async function sharesOf(shotIds: string[]) {
 }
 
 
+export async function stickLabel(teamId: string, stickId: string): Promise<string | null> {
+  const [row] = await db().select({ label: stick.label }).from(stick).where(and(eq(stick.id, stickId), eq(stick.teamId, teamId)));
+  return row?.label ?? null;
+}
+
 export async function stickInTeam(teamId: string, stickId: string) {
-  const [row] = await db().select({ id: stick.id }).from(stick).where(and(eq(stick.id, stickId), eq(stick.teamId, teamId)));
-  return !!row;
+  return (await stickLabel(teamId, stickId)) !== null;
 }
 
 
@@ -100,8 +105,12 @@ export async function saveMarks(shotId: string, baseVersion: number, marks: Shot
   return row ?? null;
 }
 
-export async function updateShotMeta(shotId: string, v: Partial<{ label: string; frameStart: number; frameEnd: number; playerId: string | null; stickId: string | null }>) {
-  await db().update(shot).set({ ...v, updatedAt: new Date() }).where(eq(shot.id, shotId));
+/** The shot's label, frames, player or stick; with `audit`, its entry lands in the same transaction. */
+export async function updateShotMeta(shotId: string, v: Partial<{ label: string; frameStart: number; frameEnd: number; playerId: string | null; stickId: string | null }>, audit?: AuditEntry) {
+  await db().transaction(async (tx) => {
+    await tx.update(shot).set({ ...v, updatedAt: new Date() }).where(eq(shot.id, shotId));
+    if (audit) await recordAudit(audit, tx);
+  });
 }
 
 export async function deleteShot(shotId: string) {

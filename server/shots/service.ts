@@ -1,5 +1,5 @@
 import { policy, type Actor } from "../auth/policy";
-import { recordAudit } from "../audit/repository";
+import { recordAudit, type AuditEntry } from "../audit/repository";
 import { forbidden, HttpError, notFound } from "../http/problem";
 import { checkCalibration } from "../../shared/mechanics/calibration";
 import { shotFrameTimes } from "../../shared/schemas/clips";
@@ -156,9 +156,20 @@ export async function updateShot(a: Actor, shotId: string, b: UpdateShotBody): P
   const p = marksProblem(s.marks, s.events, boxOf(c, { frameStart, frameEnd }));
   if (p) throw invalid(b.frameStart !== undefined ? "frameStart" : "frameEnd", `the new frame range leaves marks outside it: ${p.message}`);
   await checkPeople(a, b.playerId, b.stickId);
-  await repo.updateShotMeta(shotId, b);
+  await repo.updateShotMeta(shotId, b, reassignEntry(a, s, b, b.stickId ? await repo.stickLabel(a.teamId, b.stickId) : null));
   if (b.stickId !== undefined || b.frameStart !== undefined || b.frameEnd !== undefined) await recomputeShot(shotId);
   return detail(a, (await repo.shotById(a.teamId, shotId))!);
+}
+
+/** The audit entry when staff correct who took the shot or with which stick; none when neither changes. */
+function reassignEntry(a: Actor, s: repo.ShotRow, b: UpdateShotBody, toLabel: string | null): AuditEntry | undefined {
+  const player = b.playerId !== undefined && b.playerId !== s.playerId ? { from: s.playerId, fromName: s.playerName, to: b.playerId } : undefined;
+  const stick = b.stickId !== undefined && b.stickId !== s.stickId ? { from: s.stickId, fromLabel: s.stickLabel, to: b.stickId, toLabel } : undefined;
+  if (!player && !stick) return undefined;
+  return {
+    teamId: a.teamId, actorId: a.userId, action: "shot.reassigned", targetType: "shot", targetId: s.id,
+    detail: { clipId: s.clipId, label: s.label, ...(player ? { player } : {}), ...(stick ? { stick } : {}) },
+  };
 }
 
 export async function deleteShot(a: Actor, shotId: string) {

@@ -137,6 +137,11 @@ export const ClipPatchSchema = z
     captureFpsConfirmed: z.boolean(),
     exposureUs,
     notes: text(TEXT_LIMITS.notes, "Notes", true),
+    /**
+     * With a new player: true moves the clip's shots of its previous player to the new one (and
+     * with them who may see them); false leaves them where they are. Required when there are any.
+     */
+    moveShots: z.boolean({ message: "Say whether the clip's shots move to the new player (true or false)" }),
   })
   .partial()
   .strict()

@@ -3,8 +3,10 @@
 import { parseRole, roleLabels } from "@shared/schemas/roster";
 import type { AuditEntry } from "./api/auditLog";
 
-export type AuditGroup = "people" | "deletions" | "shares" | "plan";
-export const groupLabels: Record<AuditGroup, string> = { people: "Members and invitations", deletions: "Deletions", shares: "Shares", plan: "Plan and payments" };
+export type AuditGroup = "people" | "deletions" | "shares" | "moves" | "plan";
+export const groupLabels: Record<AuditGroup, string> = {
+  people: "Members and invitations", deletions: "Deletions", shares: "Shares", moves: "Player and stick changes", plan: "Plan and payments",
+};
 
 const planNames: Record<string, string> = { pond: "Pond", rink: "Rink", arena: "Arena" };
 const planName = (v: unknown) => (typeof v === "string" && planNames[v]) || "another plan";
@@ -71,6 +73,24 @@ export function describeAudit(e: AuditEntry, names: ReadonlyMap<string, string>)
       // The name as it was then, when the person has since left the team.
       const who = (typeof d.userId === "string" && names.get(d.userId)) || str(d.name) || "a former member";
       return { group: "shares", actor, text: `stopped sharing ${quoted(d.title, "a shot")} with ${who}` };
+    }
+    case "shot.reassigned": {
+      // Names and labels as they were then, when the person or stick has since gone.
+      const p = d.player as { from?: unknown; fromName?: unknown; to?: unknown } | undefined;
+      const k = d.stick as { fromLabel?: unknown; toLabel?: unknown; to?: unknown } | undefined;
+      const who = (id: unknown, then?: unknown) => (id === null ? "no player" : (typeof id === "string" && names.get(id)) || str(then) || "a former member");
+      const shot = `the shot ${quoted(d.label, "(unlabelled)")}`;
+      const stick = k ? `${k.to === null ? "no stick recorded" : `the stick ${quoted(k.toLabel, "(unlabelled)")}`}${str(k.fromLabel) ? ` (was ${quoted(k.fromLabel, "")})` : ""}` : "";
+      if (p) return { group: "moves", actor, text: `moved ${shot} from ${who(p.from, p.fromName)} to ${who(p.to)}${k ? `, with ${stick}` : ""}` };
+      return { group: "moves", actor, text: `gave ${shot} ${stick}` };
+    }
+    case "clip.player_changed": {
+      const moved = typeof d.shotsMoved === "number" ? d.shotsMoved : 0;
+      const kept = typeof d.shotsKept === "number" ? d.shotsKept : 0;
+      const from = (typeof d.from === "string" && names.get(d.from)) || str(d.fromName) || "no player";
+      const shots = (n: number) => (n === 1 ? "its 1 shot" : `its ${n} shots`);
+      const tail = moved ? ` with ${shots(moved)}` : kept ? ` (${shots(kept)} stayed ${from}’s)` : "";
+      return { group: "moves", actor, text: `gave the clip ${quoted(d.title, "(untitled)")} to ${person(d.to)} instead of ${from}${tail}` };
     }
     case "plan.changed":
       return { group: "plan", actor: SERVICE, text: `moved the club from ${planName(d.from)} to ${planName(d.to)}` };

@@ -48,4 +48,15 @@ describe("describeAudit", () => {
   it("still shows an action it does not know", () => {
     expect(describeAudit(entry("team.renamed", {}, "team"), names).text).toBe("team renamed (team)");
   });
+
+  it("says whose a shot or clip became, with names as they were then", () => {
+    const both = entry("shot.reassigned", { label: "Shot 1", player: { from: "u-gone", fromName: "Dana Departed", to: "u-sam" }, stick: { from: null, fromLabel: null, to: "k1", toLabel: "Pro 85" } }, "shot");
+    expect(describeAudit(both, names)).toMatchObject({ group: "moves", text: "moved the shot “Shot 1” from Dana Departed to Sam Second, with the stick “Pro 85”" });
+    const stick = entry("shot.reassigned", { label: "Shot 2", stick: { from: "k1", fromLabel: "Pro 85", to: null, toLabel: null } }, "shot");
+    expect(describeAudit(stick, names).text).toBe("gave the shot “Shot 2” no stick recorded (was “Pro 85”)");
+    const moved = entry("clip.player_changed", { title: "Slap", from: "u-pat", fromName: "Pat Player", to: "u-sam", shotsMoved: 3, shotsKept: 0 }, "clip");
+    expect(describeAudit(moved, names).text).toBe("gave the clip “Slap” to Sam Second instead of Pat Player with its 3 shots");
+    const kept = entry("clip.player_changed", { title: "Slap", from: "u-pat", to: "u-kim", shotsMoved: 0, shotsKept: 1 }, "clip");
+    expect(describeAudit(kept, names).text).toBe("gave the clip “Slap” to Kim Third instead of Pat Player (its 1 shot stayed Pat Player’s)");
+  });
 });

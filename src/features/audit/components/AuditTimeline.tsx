@@ -3,8 +3,8 @@ import { formatDate } from "@/lib/format";
 import type { AuditEntry } from "../api/auditLog";
 import { describeAudit, type AuditGroup } from "../describe";
 
-const tone: Record<AuditGroup, BadgeTone> = { people: "accent", deletions: "danger", shares: "ok", plan: "warn" };
-const word: Record<AuditGroup, string> = { people: "Members", deletions: "Deleted", shares: "Shared", plan: "Plan" };
+const tone: Record<AuditGroup, BadgeTone> = { people: "accent", deletions: "danger", shares: "ok", moves: "gold", plan: "warn" };
+const word: Record<AuditGroup, string> = { people: "Members", deletions: "Deleted", shares: "Shared", moves: "Moved", plan: "Plan" };
 const timeFmt = new Intl.DateTimeFormat(undefined, { hour: "2-digit", minute: "2-digit" });
 
 /** Entries by day, newest first; each reads "Who did what". */

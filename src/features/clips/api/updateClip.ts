@@ -15,6 +15,8 @@ export function useUpdateClip(teamId: string, clipId: string) {
       qc.setQueryData(clipKey(teamId, clipId), clip);
       void qc.invalidateQueries({ queryKey: clipsKey(teamId) });
       if (body.newSession) void qc.invalidateQueries({ queryKey: clipOptionsKey(teamId) });
+      // A new player (with or without the shots) changes who sees the clip and its shots everywhere.
+      if (body.playerId) void qc.invalidateQueries({ queryKey: ["teams", teamId] });
     },
   });
 }

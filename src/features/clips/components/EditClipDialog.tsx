@@ -20,30 +20,62 @@ export function EditClipDialog({ teamId, clip, open, onClose }: { teamId: string
   const [values, setValues] = useState(() => valuesOf(clip));
   const [errors, setErrors] = useState<MetaErrors>({});
   const [formError, setFormError] = useState<string | null>(null);
+  // The server's question when the new player's clip holds shots of the previous one.
+  const [moveAsk, setMoveAsk] = useState<string | null>(null);
 
-  const save = () => {
+  const save = (moveShots?: boolean) => {
     const checked = validateMeta(values);
     if (!checked.meta) return setErrors(checked.errors);
     const { captureFps, ...m } = checked.meta;
+    setMoveAsk(null);
     update.mutate(
-      { ...m, stickId: m.stickId ?? null, exposureUs: m.exposureUs ?? null, ...(captureFps !== undefined ? { captureFps } : {}) },
       {
-        onSuccess: () => {
-          toast.success("The clip's details are saved.", "Saved");
+        ...m, stickId: m.stickId ?? null, exposureUs: m.exposureUs ?? null, ...(captureFps !== undefined ? { captureFps } : {}),
+        ...(moveShots !== undefined ? { moveShots } : {}),
+      },
+      {
+        onSuccess: (_clip, body) => {
+          const moved = body.moveShots ? " Its shots moved to the new player." : "";
+          toast.success(`The clip's details are saved.${moved}`, "Saved");
           onClose();
         },
         onError: (e) => {
-          if (isApiError(e) && e.errors.length) setErrors(errorsFrom(e.errors));
+          const ask = isApiError(e) ? e.errors.find((x) => x.path === "moveShots") : undefined;
+          if (ask) setMoveAsk(ask.message);
+          else if (isApiError(e) && e.errors.length) setErrors(errorsFrom(e.errors));
           else setFormError(errorMessage(e));
         },
       },
     );
   };
+  const previous = clip.player?.name ?? "the previous player";
+  const next = options.data?.players.find((p) => p.id === values.playerId)?.name ?? "the new player";
 
   return (
-    <Dialog open={open} onClose={onClose} title="Clip details" footer={<><Button variant="secondary" onClick={onClose}>Cancel</Button><Button onClick={save} loading={update.isPending}>Save</Button></>}>
-      <div className="max-h-[60vh] overflow-y-auto pr-1 [&_.lg\:grid-cols-3]:lg:grid-cols-2">
+    <Dialog
+      open={open}
+      onClose={onClose}
+      title="Clip details"
+      footer={
+        moveAsk ? (
+          <>
+            <Button variant="secondary" onClick={() => setMoveAsk(null)}>Back</Button>
+            <Button variant="secondary" onClick={() => save(false)} loading={update.isPending && update.variables?.moveShots === false}>Leave them with {previous}</Button>
+            <Button onClick={() => save(true)} loading={update.isPending && update.variables?.moveShots === true}>Move them to {next}</Button>
+          </>
+        ) : (
+          <><Button variant="secondary" onClick={onClose}>Cancel</Button><Button onClick={() => save()} loading={update.isPending}>Save</Button></>
+        )
+      }
+    >
+      {/* The dialog is narrow: the form's fields one under another at every width. */}
+      <div className="max-h-[60vh] overflow-y-auto pr-1 [&_.sm\:grid-cols-2]:sm:grid-cols-1 [&_.lg\:grid-cols-3]:lg:grid-cols-1">
         {formError && <Alert tone="danger" className="mb-3">{formError}</Alert>}
+        {moveAsk && (
+          <Alert tone="warn" title="Move the clip's shots too?" className="mb-3">
+            {moveAsk} Moved shots are seen by {next} and no longer by {previous}; shots left behind stay {previous}’s.
+          </Alert>
+        )}
         {options.data ? (
           <ClipMetaFields idPrefix={`edit-${clip.id}`} values={values} errors={errors} options={options.data} onChange={(p) => setValues((v) => ({ ...v, ...p }))} />
         ) : (

@@ -10,6 +10,7 @@ import { useClipShots } from "../api/clipShots";
 import { useCreateShot } from "../api/createShot";
 import { useDeleteShot } from "../api/deleteShot";
 import { landmarkColour } from "../model/style";
+import { ShotPeopleDialog } from "../components/ShotPeopleDialog";
 
 /** /clips/:clipId/shots — the shots marked in one clip, and a form to mark out a new one. */
 export function Component() {
@@ -50,6 +51,7 @@ function ShotRow({ teamId, clipId, shot, canEdit }: { teamId: string; clipId: st
   const units = useUnits();
   const del = useDeleteShot(teamId, clipId);
   const [confirm, setConfirm] = useState(false);
+  const [people, setPeople] = useState(false);
   const events = EVENTS.filter((k) => shot.events[k] !== undefined).length;
   return (
     <Card>
@@ -59,7 +61,7 @@ function ShotRow({ teamId, clipId, shot, canEdit }: { teamId: string; clipId: st
           {shot.label || `Shot, frames ${shot.frameStart}–${shot.frameEnd}`}
         </Link>
         <p className="text-sm text-ink-muted">
-          {shot.playerName ?? "No player"} · frames {shot.frameStart}–{shot.frameEnd} · saved {formatRelative(shot.updatedAt)}
+          {shot.playerName ?? "No player"}{shot.stickLabel && ` · ${shot.stickLabel}`} · frames {shot.frameStart}–{shot.frameEnd} · saved {formatRelative(shot.updatedAt)}
           {shot.updatedByName && ` by ${shot.updatedByName}`}
         </p>
       </div>
@@ -88,11 +90,17 @@ function ShotRow({ teamId, clipId, shot, canEdit }: { teamId: string; clipId: st
           {canEdit ? "Digitise" : "View"}
         </Link>
         {canEdit && (
+          <Button size="sm" variant="secondary" onClick={() => setPeople(true)}>
+            Player and stick
+          </Button>
+        )}
+        {canEdit && (
           <Button size="sm" variant="ghost-danger" onClick={() => setConfirm(true)}>
             Delete
           </Button>
         )}
       </div>
+      {people && <ShotPeopleDialog teamId={teamId} shot={shot} open onClose={() => setPeople(false)} />}
       <ConfirmDialog
         open={confirm}
         onCancel={() => setConfirm(false)}
