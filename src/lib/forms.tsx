@@ -4,13 +4,17 @@ import type { z } from "zod";
 import { Alert } from "@/components/ui/Alert";
 import { errorMessage, isApiError } from "./api";
 
-/** react-hook-form driven by a zod schema (the same schema the server checks, where shared). */
+/**
+ * react-hook-form driven by a zod schema (the same schema the server checks, where shared).
+ * Fields are judged first on submit, then as they change: a message that appeared on blur pushed
+ * the links below a field down while the pointer was on its way, and the click was lost.
+ */
 export function useZodForm<TIn extends FieldValues, TOut extends FieldValues>(
   schema: z.ZodType<TOut, TIn>,
   // NoInfer: the schema alone decides the types; defaultValues must not widen "player" to string.
   props: Omit<UseFormProps<NoInfer<TIn>, unknown, NoInfer<TOut>>, "resolver"> = {},
 ): UseFormReturn<TIn, unknown, TOut> {
-  return useForm<TIn, unknown, TOut>({ resolver: zodResolver(schema), mode: "onTouched", ...props });
+  return useForm<TIn, unknown, TOut>({ resolver: zodResolver(schema), mode: "onSubmit", reValidateMode: "onChange", ...props });
 }
 
 /**

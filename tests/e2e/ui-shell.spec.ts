@@ -36,6 +36,23 @@ test("a signed-out visit goes to sign-in, shows the server's message for a wrong
   await expect(page.getByRole("heading", { name: "Members" })).toBeVisible();
 });
 
+test("sign-in: leaving the empty e-mail field for a link below it moves nothing, so the first click follows the link", async ({ page }) => {
+  await page.goto("/sign-in");
+  await expect(page.getByLabel("E-mail")).toBeFocused();
+  const link = page.getByRole("link", { name: "Forgot password?" });
+  const before = await link.boundingBox();
+  // A real click: pointer down blurs the field, pointer up must land on the same link.
+  await link.click();
+  await expect(page).toHaveURL(/\/forgot-password/);
+  await page.goBack();
+  await page.getByLabel("E-mail").focus();
+  await page.getByLabel("Password").focus();
+  expect(await link.boundingBox()).toEqual(before);
+  // Judged on submit: the message then says what is missing.
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await expect(page.getByText(/e-mail/i).and(page.locator("[id$=-error]"))).toBeVisible();
+});
+
 test("the team switcher lists every team with its role and switching changes what the pages show", async ({ page }) => {
   const admin = person("admin");
   await page.goto("/sign-in");
