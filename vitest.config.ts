@@ -9,7 +9,9 @@ export default defineConfig({
   resolve: { alias: { "@shared": path.resolve("shared"), "@": path.resolve("src") } },
   test: {
     projects: [
-      { extends: true, test: { name: "unit", include: ["tests/unit/**/*.test.ts", "tests/unit/**/*.test.tsx"], environment: "node" } },
+      // Unit tests that run ffmpeg, python3 or the CLI wait for a child process: 30 s, not vitest's
+      // 5 s, so a busy shared machine slows them without failing them (timeouts catch hangs).
+      { extends: true, test: { name: "unit", include: ["tests/unit/**/*.test.ts", "tests/unit/**/*.test.tsx"], environment: "node", testTimeout: 30_000 } },
       { extends: true, test: { name: "api", include: ["tests/api/**/*.test.ts"], ...apiSetup, testTimeout: 60_000, hookTimeout: 60_000 } },
       ...(process.env.LF_SLOW_TESTS === "1"
         ? [{ extends: true as const, test: { name: "slow", include: ["tests/slow/**/*.test.ts"], ...apiSetup, testTimeout: 180_000, hookTimeout: 120_000 } }]

@@ -38,8 +38,9 @@ const oneLine = (r: Run, pattern: RegExp) => {
 
 const { doc, truth } = syntheticShot({ frames: 300 });
 
-// Each run starts npm, node and tsx (about a second on a busy machine).
-describe.concurrent("metrics command", { timeout: 30_000 }, () => {
+// Each run starts npm, node and tsx (about a second on a quiet machine, much more on a shared one:
+// the limit only catches a hang).
+describe.concurrent("metrics command", { timeout: 120_000 }, () => {
   it("prints the results of a file as JSON", async () => {
     const r = await run([file("shot.json", JSON.stringify(doc))]);
     expect(r.stderr).toBe("");
