@@ -5,7 +5,7 @@ import { auditLog, user } from "../db/schema";
 export type AuditAction =
   | "member.role_changed" | "member.removed" | "member.joined"
   | "invitation.created" | "invitation.resent" | "invitation.cancelled"
-  | "clip.deleted" | "clip.player_changed" | "shot.deleted" | "shot.reassigned" | "shot.shared" | "shot.unshared" | "stick.deleted" | "bench_test.deleted"
+  | "clip.deleted" | "clip.player_changed" | "shot.deleted" | "shot.reassigned" | "shot.shared" | "shot.unshared" | "shot.published" | "shot.unpublished" | "stick.deleted" | "bench_test.deleted"
   | "plan.changed" | "plan.cancel_scheduled" | "plan.cancel_withdrawn" | "billing.payment_failed" | "billing.read_only" | "billing.restored"
   | "team.created";
 

@@ -9,6 +9,8 @@ export { isStaff, type Actor };
 
 /** What a shot-like resource exposes to the policy. */
 export type OwnedResource = ShotAccess;
+/** A clip: its player sees it, and anyone who reaches it through a shot they may see. */
+export type ClipAccess = { teamId: string; playerId: string | null; sharedWith?: readonly string[] };
 const sameTeam = (a: Actor, r: { teamId: string }) => a.teamId === r.teamId;
 
 export const policy = {
@@ -21,7 +23,7 @@ export const policy = {
 
   uploadClip: (a: Actor) => isStaff(a),
   listClips: (a: Actor) => isStaff(a),
-  viewClip: (a: Actor, c: OwnedResource) => sameTeam(a, c) && (isStaff(a) || c.playerId === a.userId || (c.sharedWith ?? []).includes(a.userId)),
+  viewClip: (a: Actor, c: ClipAccess) => sameTeam(a, c) && (isStaff(a) || c.playerId === a.userId || (c.sharedWith ?? []).includes(a.userId)),
   editClip: (a: Actor, c: { teamId: string }) => sameTeam(a, c) && isStaff(a),
   deleteClip: (a: Actor, c: { teamId: string }) => sameTeam(a, c) && (a.role === "admin" || a.role === "coach" || a.role === "analyst"),
 
@@ -29,6 +31,8 @@ export const policy = {
   viewShot: (a: Actor, s: ShotAccess) => canSeeShot(a, s),
   editShot: (a: Actor, s: { teamId: string }) => sameTeam(a, s) && isStaff(a),
   shareShot: (a: Actor, s: { teamId: string }) => sameTeam(a, s) && (a.role === "admin" || a.role === "coach"),
+  /** The review step: a coach (or team admin) decides when a shot reaches its player. */
+  publishShot: (a: Actor, s: { teamId: string }) => sameTeam(a, s) && (a.role === "admin" || a.role === "coach"),
   /** A player compares own shots; staff compare any two in the team. */
   compareShots: (a: Actor, x: OwnedResource, y: OwnedResource) =>
     x.teamId === y.teamId && policy.viewShot(a, x) && policy.viewShot(a, y),

@@ -3,10 +3,12 @@ import { and, asc, desc, eq, getTableColumns, inArray, isNotNull, lt, sql, type 
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
 import { preparedBy } from "../db/prepared";
-import { clip, shot, shotShare, stick, trainingSession, user } from "../db/schema";
+import { clip, shot, stick, trainingSession, user } from "../db/schema";
 import type { ClipSort, ShotType } from "../../shared/schemas/clips";
 import { recordAudit, type AuditEntry } from "../audit/repository";
 import { countClipShotsOf, moveClipShots } from "../entities/shot/players";
+import type { Actor } from "../entities/member/role";
+import { shotVisibleWhere } from "../entities/shot/visibility";
 
 export type ClipRow = typeof clip.$inferSelect;
 export type NewClipRow = typeof clip.$inferInsert;
@@ -213,14 +215,8 @@ export async function readyClips() {
 }
 
 /** Whether a player reaches a clip through one of its shots: their own, or one shared with them. */
-export async function clipReachableByShot(clipId: string, userId: string): Promise<boolean> {
-  const own = await db().select({ id: shot.id }).from(shot).where(and(eq(shot.clipId, clipId), eq(shot.playerId, userId))).limit(1);
-  if (own.length) return true;
-  const shared = await db()
-    .select({ id: shot.id })
-    .from(shot)
-    .innerJoin(shotShare, eq(shotShare.shotId, shot.id))
-    .where(and(eq(shot.clipId, clipId), eq(shotShare.userId, userId)))
-    .limit(1);
-  return shared.length > 0;
+/** True when the actor may see a shot on this clip (their own once published, or one shared with them). */
+export async function clipReachableByShot(clipId: string, a: Actor): Promise<boolean> {
+  const found = await db().select({ id: shot.id }).from(shot).where(and(eq(shot.clipId, clipId), shotVisibleWhere(a))).limit(1);
+  return found.length > 0;
 }

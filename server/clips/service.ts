@@ -25,7 +25,7 @@ export async function visibleClip(a: Actor, id: string): Promise<repo.JoinedClip
   if (!j) throw clipNotFound();
   const resource = { teamId: j.clip.teamId, playerId: j.clip.playerId };
   // A player also reaches a clip through a shot of theirs on it, or one shared with them.
-  const viaShot = !policy.viewClip(a, resource) && (await repo.clipReachableByShot(id, a.userId));
+  const viaShot = !policy.viewClip(a, resource) && (await repo.clipReachableByShot(id, a));
   if (!policy.viewClip(a, { ...resource, sharedWith: viaShot ? [a.userId] : [] })) throw clipNotFound();
   return j;
 }

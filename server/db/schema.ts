@@ -16,6 +16,8 @@ export const teamSettings = pgTable("team_settings", {
   teamId: text("team_id").primaryKey().references(() => organization.id, { onDelete: "cascade" }),
   /** Warn when a stick measures below this share of its rated flex. */
   flexAlertPercent: integer("flex_alert_percent").notNull().default(85),
+  /** Publish a shot to its player by itself as soon as it has results (no review step). */
+  autoPublish: boolean("auto_publish").notNull().default(false),
 });
 
 export const userPrefs = pgTable("user_prefs", {
@@ -152,6 +154,10 @@ export const shot = pgTable(
     events: jsonb("events").notNull().default({}),
     /** Optimistic concurrency: every save names the version it started from. */
     version: integer("version").notNull().default(1),
+    /** Set when staff publish the shot to its player (and teammates it is shared with); null while in review. */
+    publishedAt: timestamp("published_at", { withTimezone: true }),
+    /** Who published it; null when the team's auto-publish did, or the person is gone. */
+    publishedBy: text("published_by").references(() => user.id, { onDelete: "set null" }),
     updatedBy: text("updated_by").references(() => user.id, { onDelete: "set null" }),
     createdAt: createdAt(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).defaultNow().notNull(),

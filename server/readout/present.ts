@@ -50,10 +50,11 @@ export function listItem(r: ListRow, opts: { viewerId: string; sharedWithViewer:
     contactTimeMs: s?.contactTimeMs ?? null,
     sharedWithMe: opts.sharedWithViewer && r.playerId !== opts.viewerId && !opts.viewerIsStaff,
     shareCount: opts.viewerIsStaff ? opts.shareCount : 0,
+    published: r.publishedAt !== null,
   };
 }
 
-export function readout(r: ReadoutRow, o: { shares: ShareRow[]; stick: ShotStickInfo | null; canEdit: boolean; canShare: boolean }): ShotReadout {
+export function readout(r: ReadoutRow, o: { shares: ShareRow[]; stick: ShotStickInfo | null; canEdit: boolean; canShare: boolean; canPublish: boolean }): ShotReadout {
   const hasResults = !!r.results;
   return {
     shot: {
@@ -72,6 +73,7 @@ export function readout(r: ReadoutRow, o: { shares: ShareRow[]; stick: ShotStick
     computedAt: r.computedAt?.toISOString() ?? null,
     stick: o.stick,
     shares: o.shares,
-    can: { edit: o.canEdit, share: o.canShare },
+    publication: r.publishedAt ? { publishedAt: r.publishedAt.toISOString(), publishedByName: r.publishedByName } : null,
+    can: { edit: o.canEdit, share: o.canShare, publish: o.canPublish },
   };
 }

@@ -1,8 +1,8 @@
-import { and, asc, desc, eq, inArray, isNotNull, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNotNull, isNull, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
 import { prepared, preparedBy } from "../db/prepared";
-import { auditLog, clip, member, organization, shot, shotResult, shotShare, stick, trainingSession, user } from "../db/schema";
+import { auditLog, clip, member, organization, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../db/schema";
 import { benchTestInForce } from "../entities/stick/stiffness";
 import { isStaff, type Actor } from "../entities/member/role";
 import { newestShotFirst, shotDateSql } from "../entities/shot/date";
@@ -20,7 +20,7 @@ const sharer = alias(user, "sharer");
 const baseColumns = {
   id: shot.id, teamId: shot.teamId, clipId: shot.clipId, label: shot.label, playerId: shot.playerId, playerName: player.name,
   stickId: shot.stickId, stickLabel: stick.label, frameStart: shot.frameStart, frameEnd: shot.frameEnd, events: shot.events, version: shot.version,
-  createdAt: shot.createdAt, updatedAt: shot.updatedAt,
+  createdAt: shot.createdAt, updatedAt: shot.updatedAt, publishedAt: shot.publishedAt,
   clipTitle: clip.title, clipStatus: clip.status, shotType: clip.shotType, cameraView: clip.cameraView, captureFps: clip.captureFps,
   frameCount: clip.frameCount, width: clip.width, height: clip.height, frameFormat: clip.frameFormat, calibration: clip.calibration,
   clipCreatedAt: clip.createdAt, sessionId: clip.sessionId, sessionDate: trainingSession.date, venue: trainingSession.venue,
@@ -39,6 +39,7 @@ const withEverything = {
   // The stick's stiffness in force on the shot's date, in the same round trip.
   stickRatedFlex: stick.ratedFlex,
   stickTestInForce: benchTestInForce(shot.stickId, shotDateSql),
+  publishedByName: sql<string | null>`(select ${user.name} from ${user} where ${user.id} = ${shot.publishedBy})`,
 };
 
 // The joins of every shot query: its clip, session, player, stick and stored result.
@@ -91,6 +92,8 @@ function listWhere(a: Actor, f: ShotListQuery) {
   if (f.playerId) where.push(eq(shot.playerId, f.playerId));
   if (f.stickId) where.push(eq(shot.stickId, f.stickId));
   if (f.shotType) where.push(eq(clip.shotType, f.shotType));
+  if (f.review === "published") where.push(isNotNull(shot.publishedAt));
+  if (f.review === "waiting") where.push(isNull(shot.publishedAt), sql`exists (select 1 from ${shotResult} where ${shotResult.shotId} = ${shot.id} and ${shotResult.results} is not null)`);
   return and(...where);
 }
 
@@ -192,14 +195,41 @@ export async function removeShare(teamId: string, shotId: string, userId: string
 }
 
 
-/** Shots per player in the team (any result state). */
-export async function shotCountsByPlayer(teamId: string) {
+/** Shots per player in the team that the actor may see (any result state). */
+export async function shotCountsByPlayer(a: Actor) {
   const rows = await db()
     .select({ playerId: shot.playerId, n: sql<number>`count(*)::int` })
     .from(shot)
-    .where(eq(shot.teamId, teamId))
+    .where(shotVisibleWhere(a))
     .groupBy(shot.playerId);
   return new Map(rows.filter((r) => r.playerId).map((r) => [r.playerId!, r.n]));
+}
+
+export async function reviewSettings(teamId: string) {
+  const [row] = await db().select({ autoPublish: teamSettings.autoPublish }).from(teamSettings).where(eq(teamSettings.teamId, teamId));
+  return { autoPublish: row?.autoPublish ?? false };
+}
+
+/** Turning auto-publish on also publishes the shots that already have results and wait for review. */
+export async function setAutoPublish(teamId: string, autoPublish: boolean) {
+  await db().transaction(async (tx) => {
+    await tx.insert(teamSettings).values({ teamId, autoPublish }).onConflictDoUpdate({ target: teamSettings.teamId, set: { autoPublish } });
+    if (autoPublish)
+      await tx
+        .update(shot)
+        .set({ publishedAt: sql`now()` })
+        .where(and(eq(shot.teamId, teamId), isNull(shot.publishedAt), sql`exists (select 1 from ${shotResult} where ${shotResult.shotId} = ${shot.id} and ${shotResult.results} is not null)`));
+  });
+}
+
+/** Publish (at = now) or take back (null) a shot of this team; false when it was already so. */
+export async function setPublished(teamId: string, shotId: string, publish: boolean, by: string | null) {
+  const rows = await db()
+    .update(shot)
+    .set(publish ? { publishedAt: sql`now()`, publishedBy: by } : { publishedAt: null, publishedBy: null })
+    .where(and(eq(shot.teamId, teamId), eq(shot.id, shotId), publish ? isNull(shot.publishedAt) : isNotNull(shot.publishedAt)))
+    .returning({ id: shot.id });
+  return rows.length > 0;
 }
 
 /** When and by whom a shot of this team was deleted, from the audit log; null if never. */

@@ -1,11 +1,11 @@
 import { Router, type Request, type Response } from "express";
 import { actorOf } from "../auth/context";
 import { parse } from "../http/validate";
-import { CompareQuery, ExportQuery, ProgressQuery, ShareShotBody, ShotListPageQuery } from "../../shared/schemas/readout";
+import { CompareQuery, ExportQuery, ProgressQuery, PublishShotBody, ReviewSettings, ShareShotBody, ShotListPageQuery } from "../../shared/schemas/readout";
 import type { FileAnswer } from "./exports";
 import { marksExport, reportExport, resultsExport } from "./exports";
 import * as svc from "./service";
-import { shareShot, unshareShot } from "./share";
+import { publishShot, shareShot, unpublishShot, unshareShot } from "./share";
 
 /** Mounted at /api/teams/:teamId (after requireTeamMember). See docs/api.md, "Shot readout …". */
 export const readoutRouter = Router({ mergeParams: true });
@@ -30,6 +30,15 @@ readoutRouter.post("/readout/shots/:shotId/shares", async (req, res) => {
   const body = parse(ShareShotBody, req.body ?? {});
   res.status(201).json(await shareShot(actorOf(req), shotId(req), body));
 });
+
+readoutRouter.get("/readout/settings", async (req, res) => void res.json(await svc.reviewSettings(actorOf(req))));
+readoutRouter.patch("/readout/settings", async (req, res) => void res.json(await svc.updateReviewSettings(actorOf(req), parse(ReviewSettings, req.body ?? {}))));
+
+// The review step: PUT publishes the shot to its player (and teammates it is shared with), DELETE takes it back.
+readoutRouter.put("/readout/shots/:shotId/publication", async (req, res) => {
+  res.json(await publishShot(actorOf(req), shotId(req), parse(PublishShotBody, req.body ?? {})));
+});
+readoutRouter.delete("/readout/shots/:shotId/publication", async (req, res) => void res.json(await unpublishShot(actorOf(req), shotId(req))));
 
 readoutRouter.delete("/readout/shots/:shotId/shares/:userId", async (req, res) => {
   await unshareShot(actorOf(req), shotId(req), String(req.params.userId));

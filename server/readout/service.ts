@@ -6,10 +6,11 @@ import { forbidden, HttpError } from "../http/problem";
 import { shotStickInfo } from "../entities/stick/stiffness";
 import type { z } from "zod";
 import type {
-  CompareResponse, PlayersResponse, ProgressQuery, ProgressResponse, ShareRow, ShotListPageQuery, ShotListResponse, ShotReadout, ShotType,
+  CompareResponse, PlayersResponse, ProgressQuery, ProgressResponse, ReviewSettings, ShareRow, ShotListPageQuery, ShotListResponse, ShotReadout, ShotType,
 } from "../../shared/schemas/readout";
 import { listItem, readout } from "./present";
 import { shotDate } from "../entities/shot/date";
+import { shotAccess } from "../entities/shot/visibility";
 import { progressPoints, summarise } from "./progress";
 import * as memberRepo from "../entities/member/repository";
 import { isUuid } from "../http/ids";
@@ -36,7 +37,7 @@ export async function visibleShot(a: Actor, shotId: string, which = "That shot",
     throw shotNotFound(which);
   }
   const shares = shareRows(await repo.sharesOf(a.teamId, [row.id]));
-  if (!policy.viewShot(a, { teamId: row.teamId, playerId: row.playerId, sharedWith: shares.map((s) => s.userId) })) throw shotNotFound(which);
+  if (!policy.viewShot(a, shotAccess(row, shares.map((s) => s.userId)))) throw shotNotFound(which);
   return { row, shares };
 }
 
@@ -49,6 +50,7 @@ async function toReadout(a: Actor, v: Awaited<ReturnType<typeof visibleShot>>): 
     stick: st ? shotStickInfo(st) : null,
     canEdit: policy.editShot(a, v.row),
     canShare: policy.shareShot(a, v.row),
+    canPublish: policy.publishShot(a, v.row),
   });
 }
 
@@ -58,7 +60,7 @@ export async function getReadout(a: Actor, shotId: string): Promise<ShotReadout>
 
 export async function listShots(a: Actor, q: z.output<typeof ShotListPageQuery>): Promise<ShotListResponse> {
   const staff = isStaff(a);
-  const filters = { playerId: q.playerId, stickId: q.stickId, shotType: q.shotType };
+  const filters = { playerId: q.playerId, stickId: q.stickId, shotType: q.shotType, review: q.review };
   const [rows, total, choices] = await Promise.all([
     repo.listShots(a, filters, { limit: q.pageSize, offset: (q.page - 1) * q.pageSize }),
     repo.countShots(a, filters),
@@ -68,7 +70,7 @@ export async function listShots(a: Actor, q: z.output<typeof ShotListPageQuery>)
   const by = new Map<string, string[]>();
   for (const s of shares) by.set(s.shotId, [...(by.get(s.shotId) ?? []), s.userId]);
   // The query already keeps to what the viewer may see; the policy is asked again for each row.
-  const visible = rows.filter((r) => policy.viewShot(a, { teamId: r.teamId, playerId: r.playerId, sharedWith: by.get(r.id) ?? [] }));
+  const visible = rows.filter((r) => policy.viewShot(a, shotAccess(r, by.get(r.id))));
   return {
     shots: visible.map((r) =>
       listItem(r, { viewerId: a.userId, viewerIsStaff: staff, sharedWithViewer: (by.get(r.id) ?? []).includes(a.userId), shareCount: (by.get(r.id) ?? []).length }),
@@ -84,13 +86,13 @@ export async function listShots(a: Actor, q: z.output<typeof ShotListPageQuery>)
 export async function compare(a: Actor, ids: { a: string; b: string }): Promise<CompareResponse> {
   const x = await visibleShot(a, ids.a, "Shot A");
   const y = await visibleShot(a, ids.b, "Shot B");
-  const own = (v: typeof x) => ({ teamId: v.row.teamId, playerId: v.row.playerId, sharedWith: v.shares.map((s) => s.userId) });
+  const own = (v: typeof x) => shotAccess(v.row, v.shares.map((s) => s.userId));
   if (!policy.compareShots(a, own(x), own(y))) throw shotNotFound("One of the two shots");
   return { a: await toReadout(a, x), b: await toReadout(a, y) };
 }
 
 export async function players(a: Actor): Promise<PlayersResponse> {
-  const [members, counts] = await Promise.all([memberRepo.teamMembers(a.teamId), repo.shotCountsByPlayer(a.teamId)]);
+  const [members, counts] = await Promise.all([memberRepo.teamMembers(a.teamId), repo.shotCountsByPlayer(a)]);
   const listed = members.filter((m) => (isStaff(a) ? m.role === "player" || counts.has(m.userId) : m.userId === a.userId));
   return { players: listed.map((m) => ({ id: m.userId, name: m.name, shots: counts.get(m.userId) ?? 0 })) };
 }
@@ -122,6 +124,16 @@ export async function progress(a: Actor, q: ProgressQuery): Promise<ProgressResp
     summary: summarise(points),
     withoutResults: rows.filter((r) => !r.summary).length,
   };
+}
+
+export async function reviewSettings(a: Actor): Promise<ReviewSettings> {
+  return repo.reviewSettings(a.teamId);
+}
+
+export async function updateReviewSettings(a: Actor, body: ReviewSettings): Promise<ReviewSettings> {
+  if (!policy.manageTeamSettings(a)) throw forbidden("Only a team admin decides whether shots wait for a coach's review.");
+  await repo.setAutoPublish(a.teamId, body.autoPublish);
+  return repo.reviewSettings(a.teamId);
 }
 
 /** The shot's results or a 409 that says what is still missing (exports need numbers). */

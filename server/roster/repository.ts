@@ -22,6 +22,12 @@ export async function pendingInvitationsOf(teamId: string) {
     .orderBy(invitation.createdAt);
 }
 
+/** A person's name and e-mail, read inside a membership change. */
+export async function personOf(tx: Tx, userId: string) {
+  const [row] = await tx.select({ name: user.name, email: user.email }).from(user).where(eq(user.id, userId));
+  return row ?? null;
+}
+
 export async function memberByEmail(teamId: string, email: string) {
   const [row] = await db()
     .select({ id: member.id })

@@ -86,8 +86,13 @@ export async function removeMember(a: Actor, memberId: string) {
   requireAdmin(a);
   await repo.changeMembership(a.teamId, async (members, tx) => {
     const m = guardLastAdmin(members, memberId, null);
+    // The name, e-mail and role as they were: once removed, the log is the only place that keeps them.
+    const who = await repo.personOf(tx, m.userId);
     await repo.deleteMember(tx, memberId);
-    return { result: undefined, audit: { actorId: a.userId, action: "member.removed", targetType: "member", targetId: memberId, detail: { userId: m.userId } } };
+    return {
+      result: undefined,
+      audit: { actorId: a.userId, action: "member.removed", targetType: "member", targetId: memberId, detail: { userId: m.userId, name: who?.name, email: who?.email, role: m.role } },
+    };
   });
 }
 

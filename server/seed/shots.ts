@@ -92,6 +92,8 @@ export async function seedDemoShots(ids: DemoIds) {
         await repo.saveMarks(id, 1, marks, t.events, analyst);
       }
       await recomputeShot(id);
+      // The demo's digitised shots have been reviewed: their players see them.
+      if (s.digitised) await db().update(shot).set({ publishedAt: new Date(), publishedBy: ids.users["coach@ravens.example"] }).where(eq(shot.id, id));
     }
   }
 }

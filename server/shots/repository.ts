@@ -1,7 +1,7 @@
-import { and, asc, eq, inArray, sql } from "drizzle-orm";
+import { and, asc, eq, inArray, isNull, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
-import { clip, shot, shotResult, shotShare, stick, trainingSession, user } from "../db/schema";
+import { clip, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../db/schema";
 import { recordAudit, type AuditEntry } from "../audit/repository";
 import { shotDateSql } from "../entities/shot/date";
 import { benchTestInForce } from "../entities/stick/stiffness";
@@ -33,7 +33,7 @@ export async function clipClock(clipId: string) {
 const shotColumns = {
   id: shot.id, teamId: shot.teamId, clipId: shot.clipId, label: shot.label, playerId: shot.playerId, playerName: player.name, stickId: shot.stickId,
   stickLabel: stick.label, frameStart: shot.frameStart, frameEnd: shot.frameEnd, marks: shot.marks, events: shot.events, version: shot.version,
-  updatedAt: shot.updatedAt, updatedByName: editor.name,
+  updatedAt: shot.updatedAt, updatedByName: editor.name, publishedAt: shot.publishedAt,
   // The stick's stiffness in force on the shot's date, in the same round trip.
   stickRatedFlex: stick.ratedFlex, stickTestInForce: benchTestInForce(shot.stickId, shotDateSql),
   resultEngine: shotResult.engineVersion, results: shotResult.results, resultError: shotResult.error, resultShotVersion: shotResult.shotVersion, computedAt: shotResult.computedAt,
@@ -152,6 +152,14 @@ export async function recomputeInputs(tx: Tx, shotId: string) {
 }
 
 export type Tx = Parameters<Parameters<ReturnType<typeof db>["transaction"]>[0]>[0];
+
+/** A team that skips the review step: a shot with results is published by itself (by nobody). */
+export async function autoPublishIfTeamWants(tx: Tx, shotId: string) {
+  await tx
+    .update(shot)
+    .set({ publishedAt: sql`now()` })
+    .where(and(eq(shot.id, shotId), isNull(shot.publishedAt), sql`exists (select 1 from ${teamSettings} where ${teamSettings.teamId} = ${shot.teamId} and ${teamSettings.autoPublish})`));
+}
 
 export async function upsertResult(tx: Tx, v: { shotId: string; teamId: string; engineVersion: string; results: unknown; error: string | null; shotVersion: number }) {
   const [row] = await tx

@@ -53,6 +53,7 @@ export async function recomputeShot(shotId: string): Promise<StoredResult | null
       }
     }
     const row = await repo.upsertResult(tx, { shotId, teamId: shot.teamId, engineVersion: ENGINE_VERSION, results, error, shotVersion: shot.version });
+    if (results !== null) await repo.autoPublishIfTeamWants(tx, shotId);
     return toStoredResult(row);
   });
 }

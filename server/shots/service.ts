@@ -1,3 +1,4 @@
+import { shotAccess } from "../entities/shot/visibility";
 import { policy, type Actor } from "../auth/policy";
 import { recordAudit, type AuditEntry } from "../audit/repository";
 import { forbidden, HttpError, notFound } from "../http/problem";
@@ -30,7 +31,7 @@ export async function visibleShot(a: Actor, shotId: string) {
   const s = await repo.shotById(a.teamId, shotId);
   if (!s) throw notFound("That shot");
   const shares = (await repo.sharesOf([s.id])).get(s.id) ?? [];
-  if (!policy.viewShot(a, { teamId: s.teamId, playerId: s.playerId, sharedWith: shares })) throw notFound("That shot");
+  if (!policy.viewShot(a, shotAccess(s, shares))) throw notFound("That shot");
   return s;
 }
 
@@ -89,7 +90,7 @@ export async function listShots(a: Actor, clipId: string): Promise<ClipShots> {
   const c = await clipOrThrow(a, clipId);
   const rows = await repo.shotsOfClip(a.teamId, clipId);
   const shares = await repo.sharesOf(rows.map((r) => r.id));
-  const visible = rows.filter((r) => policy.viewShot(a, { teamId: r.teamId, playerId: r.playerId, sharedWith: shares.get(r.id) ?? [] }));
+  const visible = rows.filter((r) => policy.viewShot(a, shotAccess(r, shares.get(r.id))));
   if (!visible.length && !policy.viewClip(a, { teamId: c.teamId, playerId: c.playerId })) throw notFound("That clip");
   return { clip: clipFor(c), shots: visible.map(summary), canEdit: policy.editShot(a, c) };
 }

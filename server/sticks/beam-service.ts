@@ -3,6 +3,7 @@
 // foot on it at a, and the deflection there); those three points in world mm are all the engine's
 // beamFromShot needs. See docs/decisions/081-beam-from-shot.md.
 import { z } from "zod";
+import { shotAccess } from "../entities/shot/visibility";
 import { policy, type Actor } from "../auth/policy";
 import { HttpError, notFound } from "../http/problem";
 import { parse } from "../http/validate";
@@ -26,7 +27,7 @@ const unusable = (message: string, path = "shotId") => new HttpError(422, "shot_
 
 export async function beamFromShotRequest(a: Actor, shotId: string): Promise<ShotBeamResponse> {
   const found = await repo.shotForBeam(a.teamId, shotId);
-  if (!found || !policy.viewShot(a, { teamId: found.shot.teamId, playerId: found.shot.playerId, sharedWith: found.sharedWith })) throw notFound("That shot");
+  if (!found || !policy.viewShot(a, shotAccess(found.shot, found.sharedWith))) throw notFound("That shot");
   const { shot } = found;
   if (!shot.stickId) throw unusable("This shot is not linked to a stick: choose the stick it was taken with on the Digitise page first.");
   const stickRow = await repo.stickById(a.teamId, shot.stickId);

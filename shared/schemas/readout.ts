@@ -21,6 +21,8 @@ export const ShotListQuery = z.object({
   playerId: id("playerId").optional(),
   stickId: z.uuid({ error: "stickId must be a stick id" }).optional(),
   shotType: z.enum(SHOT_TYPES, { error: "shotType must be slap, wrist, snap or backhand" }).optional(),
+  /** Staff's review queue: "waiting" = results in, not yet published; "published". */
+  review: z.enum(["waiting", "published"], { error: "review must be waiting or published" }).optional(),
 });
 export type ShotListQuery = z.infer<typeof ShotListQuery>;
 
@@ -44,13 +46,28 @@ export const ExportQuery = z.object({ units: units.optional() });
 
 export const ShareShotBody = z
   .strictObject({
-    /** The shot's own player. */
+    /** The shot's own player (sharing with them publishes the shot). */
     player: z.boolean({ error: "player must be true or false" }).default(true),
     /** Every coach, analyst and team admin of the team (but the one sharing). */
     staff: z.boolean({ error: "staff must be true or false" }).default(false),
+    /** Players of the team other than the shot's own: they see it while it stays published. */
+    teammates: z
+      .array(z.string({ error: "each teammate is a member id" }).min(1, { error: "a teammate id is empty" }).max(100, { error: "a teammate id is longer than 100 characters" }), {
+        error: "teammates must be a list of member ids",
+      })
+      .max(50, { error: "share with at most 50 teammates at a time" })
+      .default([]),
   })
-  .refine((b) => b.player || b.staff, { path: ["player"], error: "choose whom to share with: the player, the team's staff, or both" });
+  .refine((b) => b.player || b.staff || b.teammates.length > 0, { path: ["player"], error: "choose whom to share with: the player, teammates, the team's staff, or a mix" });
 export type ShareShotBody = z.input<typeof ShareShotBody>;
+
+/** The team's review step: off (`autoPublish`), a shot reaches its player as soon as it has results. */
+export const ReviewSettings = z.strictObject({ autoPublish: z.boolean({ error: "autoPublish must be true or false" }) });
+export type ReviewSettings = z.infer<typeof ReviewSettings>;
+
+/** Publishing a shot to its player; `notify` e-mails them (unless they turned shot e-mails off). */
+export const PublishShotBody = z.strictObject({ notify: z.boolean({ error: "notify must be true or false" }).default(true) });
+export type PublishShotBody = z.input<typeof PublishShotBody>;
 
 // ---- answers -------------------------------------------------------------------------------------
 
@@ -86,6 +103,8 @@ export interface ShotListItem {
   sharedWithMe: boolean;
   /** How many people it has been shared with (staff only; 0 for players). */
   shareCount: number;
+  /** Published to its player; false while staff review it (players only ever see published shots). */
+  published: boolean;
 }
 
 export interface ShotListResponse {
@@ -146,7 +165,9 @@ export interface ShotReadout {
   stick: ShotStickInfo | null;
   /** Who it was shared with (staff see all; a player sees only their own share). */
   shares: ShareRow[];
-  can: { edit: boolean; share: boolean };
+  /** When staff published it to its player; null while it is in review (only staff see it then). */
+  publication: { publishedAt: string; publishedByName: string | null } | null;
+  can: { edit: boolean; share: boolean; publish: boolean };
 }
 
 export interface CompareResponse {
@@ -195,6 +216,15 @@ export interface PlayersResponse {
 
 export interface ShareResponse {
   recipients: { userId: string; name: string; role: string; added: boolean; mailed: boolean; note: string | null }[];
+  /** This share published the shot (sharing with a player makes it visible to its player too). */
+  published: boolean;
+}
+
+export interface PublishResponse {
+  publication: { publishedAt: string; publishedByName: string | null } | null;
+  /** Whether the player was e-mailed, and why not when they were not. */
+  mailed: boolean;
+  note: string | null;
 }
 
 // ---- results, their units and wording ----------------------------------------------------------

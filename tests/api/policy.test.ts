@@ -31,13 +31,17 @@ describe("policy functions (pure)", () => {
   it.each([
     ["admin", true], ["coach", false], ["analyst", false], ["player", false],
   ] as const)("manageRoster for %s is %s", (role, ok) => expect(policy.manageRoster(a(role))).toBe(ok));
-  it("a player sees own and shared shots only, never across teams", () => {
+  it("a player sees own and shared shots once published, never across teams", () => {
     const p = a("player");
-    expect(policy.viewShot(p, { teamId: "t1", playerId: "u1" })).toBe(true);
-    expect(policy.viewShot(p, { teamId: "t1", playerId: "u2" })).toBe(false);
-    expect(policy.viewShot(p, { teamId: "t1", playerId: "u2", sharedWith: ["u1"] })).toBe(true);
-    expect(policy.viewShot(p, { teamId: "t2", playerId: "u1" })).toBe(false);
-    expect(policy.viewShot(a("coach"), { teamId: "t2", playerId: "u1" })).toBe(false);
+    expect(policy.viewShot(p, { teamId: "t1", playerId: "u1", published: true })).toBe(true);
+    expect(policy.viewShot(p, { teamId: "t1", playerId: "u1", published: false })).toBe(false);
+    expect(policy.viewShot(p, { teamId: "t1", playerId: "u2", published: true })).toBe(false);
+    expect(policy.viewShot(p, { teamId: "t1", playerId: "u2", published: true, sharedWith: ["u1"] })).toBe(true);
+    expect(policy.viewShot(p, { teamId: "t2", playerId: "u1", published: true })).toBe(false);
+    expect(policy.viewShot(a("coach"), { teamId: "t2", playerId: "u1", published: true })).toBe(false);
+    expect(policy.viewShot(a("analyst"), { teamId: "t1", playerId: "u1", published: false })).toBe(true);
+    expect(policy.publishShot(a("coach"), { teamId: "t1" })).toBe(true);
+    expect(policy.publishShot(a("analyst"), { teamId: "t1" })).toBe(false);
     expect(policy.editShot(p, { teamId: "t1" })).toBe(false);
   });
 });

@@ -32,6 +32,7 @@ describe("shot readout", () => {
     const shot = (await analyst.post(`/api/teams/${world.teamId}/clips/${clipId}/shots`, { frameStart: 1, frameEnd: 400, label: "Real path" })).json;
     expect((await analyst.put(`/api/teams/${world.teamId}/shots/${shot.id}/marks`, { baseVersion: 1, marks: s.marks, events: s.events })).status).toBe(200);
 
+    expect((await coach.put(`${R()}/shots/${shot.id}/publication`, { notify: false })).status).toBe(200);
     const before = await player.get(`${R()}/shots/${shot.id}`);
     expect(before.status, before.text).toBe(200);
     expect(before.json.results).toBeNull();
@@ -52,8 +53,8 @@ describe("shot readout", () => {
     expect(ev.release.tFromStrikeMs).toBeCloseTo(r.json.results.contactTimeMs, 9);
     expect(ev.iceStrike.tMs).toBeCloseTo(((s.events.iceStrike - 1) / 3200) * 1000, 9);
     expect(r.json.results.series.puckSpeed.points.length).toBeGreaterThan(100);
-    expect(r.json.can).toEqual({ edit: false, share: false });
-    expect((await coach.get(`${R()}/shots/${shot.id}`)).json.can).toEqual({ edit: true, share: true });
+    expect(r.json.can).toEqual({ edit: false, share: false, publish: false });
+    expect((await coach.get(`${R()}/shots/${shot.id}`)).json.can).toEqual({ edit: true, share: true, publish: true });
   });
 
   it("a player cannot open another player's shot: the same 404 as a shot that does not exist", async () => {

@@ -118,6 +118,16 @@ describe("roster", () => {
     expect(audit.length).toBeGreaterThanOrEqual(2);
   });
 
+  it("removing a member keeps their name, e-mail and role in the audit log", async () => {
+    const r = await admin.post(`${T()}/invitations`, { email: `leaver-${Date.now()}@ravens.example`, role: "player" });
+    const joiner = new Client(srv.url);
+    expect((await joiner.post(`/api/invitations/${r.json.id}/accept`, { name: "Lee Leaver", password: "leaver-password-1" })).status).toBe(200);
+    const m = (await admin.get(`${T()}/members`)).json.members.find((x: any) => x.name === "Lee Leaver");
+    expect((await admin.del(`${T()}/members/${m.id}`)).status).toBe(204);
+    const entry = (await admin.get(`${T()}/audit`)).json.entries.find((e: any) => e.action === "member.removed" && e.targetId === m.id);
+    expect(entry.detail).toMatchObject({ userId: m.userId, name: "Lee Leaver", email: r.json.email, role: "player" });
+  });
+
   it("keeps at least one team admin and validates the role", async () => {
     const me = (await admin.get(`${T()}/members`)).json.members.find((x: any) => x.email === EMAILS.admin);
     const r = await admin.patch(`${T()}/members/${me.id}`, { role: "coach" });

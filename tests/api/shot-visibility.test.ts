@@ -10,23 +10,25 @@ import { canSeeShot, grounds, shotVisibleWhere } from "../../server/entities/sho
 import type { Actor } from "../../server/entities/member/role";
 
 let world: Awaited<ReturnType<typeof seedWorld>>;
-const shots: Record<string, { id: string; teamId: string; playerId: string | null; sharedWith: string[] }> = {};
+const shots: Record<string, { id: string; teamId: string; playerId: string | null; published: boolean; sharedWith: string[] }> = {};
 const user = (email: string) => world.users[email]!;
 
 beforeAll(async () => {
   world = await seedWorld();
   const p1 = user("player@ravens.example"), p2 = user("player2@ravens.example");
-  const make = async (name: string, teamId: string, playerId: string | null, sharedWith: string[] = []) => {
+  const make = async (name: string, teamId: string, playerId: string | null, published: boolean, sharedWith: string[] = []) => {
     const [c] = await db().insert(clip).values({ teamId, captureFps: 240, status: "ready" }).returning({ id: clip.id });
-    const [s] = await db().insert(shot).values({ teamId, clipId: c.id, playerId, label: name }).returning({ id: shot.id });
+    const [s] = await db().insert(shot).values({ teamId, clipId: c.id, playerId, label: name, publishedAt: published ? new Date() : null }).returning({ id: shot.id });
     for (const u of sharedWith) await db().insert(shotShare).values({ shotId: s.id, userId: u, teamId });
-    shots[name] = { id: s.id, teamId, playerId, sharedWith };
+    shots[name] = { id: s.id, teamId, playerId, published, sharedWith };
   };
-  await make("player's own", world.teamId, p1);
-  await make("another player's", world.teamId, p2);
-  await make("another player's, shared with player", world.teamId, p2, [p1]);
-  await make("nobody's", world.teamId, null);
-  await make("other team's, same player id", world.otherTeamId, p1, [p1]);
+  await make("player's own", world.teamId, p1, true);
+  await make("player's own, in review", world.teamId, p1, false);
+  await make("another player's", world.teamId, p2, true);
+  await make("another player's, shared with player", world.teamId, p2, true, [p1]);
+  await make("another player's, shared with player, in review", world.teamId, p2, false, [p1]);
+  await make("nobody's", world.teamId, null, false);
+  await make("other team's, same player id", world.otherTeamId, p1, true, [p1]);
 });
 
 const actor = (email: string, role: Actor["role"], team: "own" | "other" = "own"): Actor => ({
@@ -34,10 +36,12 @@ const actor = (email: string, role: Actor["role"], team: "own" | "other" = "own"
 });
 
 // Who sees what: [actor, shots they see]. Every other shot of the table is hidden from them.
+// Staff see shots in review; players (and teammates a shot is shared with) only once published.
+const everyOwnTeamShot = ["player's own", "player's own, in review", "another player's", "another player's, shared with player", "another player's, shared with player, in review", "nobody's"];
 const table: [string, () => Actor, string[]][] = [
-  ["team admin", () => actor("admin@ravens.example", "admin"), ["player's own", "another player's", "another player's, shared with player", "nobody's"]],
-  ["coach", () => actor("coach@ravens.example", "coach"), ["player's own", "another player's", "another player's, shared with player", "nobody's"]],
-  ["analyst", () => actor("analyst@ravens.example", "analyst"), ["player's own", "another player's", "another player's, shared with player", "nobody's"]],
+  ["team admin", () => actor("admin@ravens.example", "admin"), everyOwnTeamShot],
+  ["coach", () => actor("coach@ravens.example", "coach"), everyOwnTeamShot],
+  ["analyst", () => actor("analyst@ravens.example", "analyst"), everyOwnTeamShot],
   ["player", () => actor("player@ravens.example", "player"), ["player's own", "another player's, shared with player"]],
   ["second player", () => actor("player2@ravens.example", "player"), ["another player's", "another player's, shared with player"]],
   ["player acting in the other team", () => actor("player@ravens.example", "player", "other"), ["other team's, same player id"]],

@@ -185,8 +185,10 @@ describe("bad input is refused at the point of entry and nothing is stored", () 
 });
 
 describe("players", () => {
-  it("see their own shot read-only and not another player's", async () => {
+  it("see their own shot read-only once a coach publishes it, and not another player's", async () => {
     const { shot } = await newShot();
+    expect((await player.get(`${T()}/shots/${shot.id}`)).status).toBe(404);
+    expect((await coach.put(`${T()}/readout/shots/${shot.id}/publication`, { notify: false })).status).toBe(200);
     const own = await player.get(`${T()}/shots/${shot.id}`);
     expect(own.status).toBe(200);
     expect(own.json.canEdit).toBe(false);
@@ -201,6 +203,9 @@ describe("players", () => {
     const { clipId, shot } = await newShot();
     const other = await analyst.post(`${T()}/clips/${clipId}/shots`, { frameStart: 1, frameEnd: 10, playerId: world.users[EMAILS.player2] });
     expect(other.status).toBe(201);
+    // In review, the clip's list holds nothing for its players.
+    expect((await player.get(`${T()}/clips/${clipId}/shots`)).json.shots).toEqual([]);
+    for (const id of [shot.id, other.json.id]) expect((await coach.put(`${T()}/readout/shots/${id}/publication`, { notify: false })).status).toBe(200);
     const mine = (await player.get(`${T()}/clips/${clipId}/shots`)).json;
     expect(mine.shots.map((x: { id: string }) => x.id)).toEqual([shot.id]);
     expect(mine.canEdit).toBe(false);

@@ -137,9 +137,9 @@ describe("beam model", () => {
     const s = await newStick({ label: "Shot stick", ownerId: playerId(), ratedFlex: 85 });
     await analyst.post(`${T()}/sticks/${s.id}/bench-tests`, { date: "2026-10-01", loadUnit: "lbf", deflectionUnit: "in", readings: onLine(80) });
     const [c] = await db().insert(clip).values({ teamId: world.teamId, captureFps: 3200, playerId: playerId(), stickId: s.id, status: "ready" }).returning();
-    const [withResult] = await db().insert(shot).values({ teamId: world.teamId, clipId: c.id, playerId: playerId(), stickId: s.id, label: "Slap 1" }).returning();
-    const [noResult] = await db().insert(shot).values({ teamId: world.teamId, clipId: c.id, playerId: playerId(), stickId: s.id, label: "Slap 2" }).returning();
-    const [otherPlayers] = await db().insert(shot).values({ teamId: world.teamId, clipId: c.id, playerId: player2Id(), stickId: s.id, label: "Slap 3" }).returning();
+    const [withResult] = await db().insert(shot).values({ teamId: world.teamId, clipId: c.id, playerId: playerId(), stickId: s.id, label: "Slap 1", publishedAt: new Date() }).returning();
+    const [noResult] = await db().insert(shot).values({ teamId: world.teamId, clipId: c.id, playerId: playerId(), stickId: s.id, label: "Slap 2", publishedAt: new Date() }).returning();
+    const [otherPlayers] = await db().insert(shot).values({ teamId: world.teamId, clipId: c.id, playerId: player2Id(), stickId: s.id, label: "Slap 3", publishedAt: new Date() }).returning();
     const a = 450, b = 750, delta = 38;
     await db().insert(shotResult).values({
       shotId: withResult.id, teamId: world.teamId, engineVersion: "test", shotVersion: 1,

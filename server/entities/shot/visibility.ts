@@ -6,7 +6,11 @@
 //
 // Adding a ground (say "published to the team"): add its column to ShotAccess, one entry to
 // `grounds`, and rows to the table test. Nothing else in the server decides who sees a shot.
-import { and, eq, or, sql, type SQL } from "drizzle-orm";
+//
+// Review before players see: a shot reaches its player, and teammates it is shared with, only once
+// staff publish it (shot.published_at; a team may publish automatically once results exist).
+// Unpublishing, or un-sharing, takes that access away again on the next request.
+import { and, eq, isNotNull, or, sql, type SQL } from "drizzle-orm";
 import { db } from "../../db/client";
 import { shot, shotShare } from "../../db/schema";
 import { isStaff, type Actor } from "../member/role";
@@ -15,9 +19,19 @@ import { isStaff, type Actor } from "../member/role";
 export interface ShotAccess {
   teamId: string;
   playerId: string | null;
+  /** Published by staff (or by the team's auto-publish): only then do players see it. */
+  published: boolean;
   /** Users the shot was explicitly shared with. */
   sharedWith?: readonly string[];
 }
+
+/** What the rule reads of a shot row (anything with the shot's columns) and its shares. */
+export const shotAccess = (s: { teamId: string; playerId: string | null; publishedAt: Date | string | null }, sharedWith: readonly string[] = []): ShotAccess => ({
+  teamId: s.teamId,
+  playerId: s.playerId,
+  published: s.publishedAt !== null,
+  sharedWith,
+});
 
 interface Ground {
   /** What the ground means, in a coach's words (shown by the table test). */
@@ -34,17 +48,18 @@ export const grounds: readonly Ground[] = [
     check: (a) => isStaff(a),
   },
   {
-    means: "a player sees the shots they took",
-    where: (a) => eq(shot.playerId, a.userId),
-    check: (a, s) => s.playerId === a.userId,
+    means: "a player sees the shots they took, once staff publish them",
+    where: (a) => and(eq(shot.playerId, a.userId), isNotNull(shot.publishedAt))!,
+    check: (a, s) => s.published && s.playerId === a.userId,
   },
   {
-    means: "anyone sees a shot shared with them",
+    means: "a teammate sees a published shot that staff shared with them",
     // The ids shared with the viewer as one array, looked up once: "own or shared" then reads the
     // (team, player) index and the primary key together (a bitmap OR) instead of testing every
     // shot of the team (scripts/bench/load.ts).
-    where: (a) => sql`${shot.id} = any(array(${db().select({ id: shotShare.shotId }).from(shotShare).where(eq(shotShare.userId, a.userId))}))`,
-    check: (a, s) => (s.sharedWith ?? []).includes(a.userId),
+    where: (a) =>
+      and(isNotNull(shot.publishedAt), sql`${shot.id} = any(array(${db().select({ id: shotShare.shotId }).from(shotShare).where(eq(shotShare.userId, a.userId))}))`)!,
+    check: (a, s) => s.published && (s.sharedWith ?? []).includes(a.userId),
   },
 ];
 

@@ -34,6 +34,16 @@ export interface Described {
   text: string;
 }
 
+/** Today's members plus the people the log itself remembers (a removal keeps the name it had then). */
+export function namesWithFormer(entries: readonly AuditEntry[], members: ReadonlyMap<string, string>): Map<string, string> {
+  const out = new Map(members);
+  for (const e of entries) {
+    const d = e.detail ?? {};
+    if (e.action === "member.removed" && typeof d.userId === "string" && typeof d.name === "string" && !out.has(d.userId)) out.set(d.userId, d.name);
+  }
+  return out;
+}
+
 export function describeAudit(e: AuditEntry, names: ReadonlyMap<string, string>): Described {
   const d = e.detail ?? {};
   const person = (id: unknown) => (typeof id === "string" && names.get(id)) || "a former member";
@@ -41,8 +51,11 @@ export function describeAudit(e: AuditEntry, names: ReadonlyMap<string, string>)
   switch (e.action) {
     case "member.role_changed":
       return { group: "people", actor, text: `changed ${person(d.userId)}’s role from ${role(d.from)} to ${role(d.to)}` };
-    case "member.removed":
-      return { group: "people", actor, text: `removed ${person(d.userId)} from the team` };
+    case "member.removed": {
+      // The name as it was then: once removed, the person is no longer among the team's members.
+      const who = (typeof d.userId === "string" && names.get(d.userId)) || str(d.name) || "a former member";
+      return { group: "people", actor, text: `removed ${who} from the team` };
+    }
     case "member.joined":
       return { group: "people", actor: str(d.email) ?? "Someone", text: `accepted an invitation and joined as ${role(d.role)}` };
     case "invitation.created":
@@ -92,6 +105,10 @@ export function describeAudit(e: AuditEntry, names: ReadonlyMap<string, string>)
       const tail = moved ? ` with ${shots(moved)}` : kept ? ` (${shots(kept)} stayed ${from}’s)` : "";
       return { group: "moves", actor, text: `gave the clip ${quoted(d.title, "(untitled)")} to ${person(d.to)} instead of ${from}${tail}` };
     }
+    case "shot.published":
+      return { group: "shares", actor, text: `published ${quoted(d.title, "a shot")} to its player` };
+    case "shot.unpublished":
+      return { group: "shares", actor, text: `took ${quoted(d.title, "a shot")} back to review (its player and teammates no longer see it)` };
     case "plan.changed":
       return { group: "plan", actor: SERVICE, text: `moved the club from ${planName(d.from)} to ${planName(d.to)}` };
     case "plan.cancel_scheduled":

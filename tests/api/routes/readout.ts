@@ -5,6 +5,7 @@ import type { ShotResults } from "../../../shared/schemas/shot-results";
 
 const ALL = ["admin", "coach", "analyst", "player"] as const;
 const SHARERS = ["admin", "coach"] as const;
+const STAFF = ["admin", "coach", "analyst"] as const;
 const PLAYER_EMAIL = "player@ravens.example";
 
 // The engine's made-up slap shot ([CP] a synthetic scene with known answers), moved onto the
@@ -32,6 +33,8 @@ export interface FixtureShot {
   /** No calibration: the shot has marks but no results. */
   uncalibrated?: boolean;
   scene?: SyntheticShotOptions;
+  /** Published to its player (the default here); false leaves it in staff review. */
+  published?: boolean;
 }
 
 const computed = new Map<string, ShotResults>();
@@ -60,7 +63,10 @@ export async function insertShotWithResults(f: FixtureShot) {
     .returning({ id: clip.id });
   const [sh] = await db()
     .insert(shot)
-    .values({ teamId: f.teamId, clipId: c.id, playerId: f.playerId ?? null, stickId: f.stickId ?? null, label: f.label ?? "", frameStart: 1, frameEnd: s.frames, marks: s.marks, events: s.events })
+    .values({
+      teamId: f.teamId, clipId: c.id, playerId: f.playerId ?? null, stickId: f.stickId ?? null, label: f.label ?? "", frameStart: 1, frameEnd: s.frames, marks: s.marks, events: s.events,
+      publishedAt: f.published === false ? null : new Date(),
+    })
     .returning({ id: shot.id });
   let results: ShotResults | null = null;
   if (!f.uncalibrated) {
@@ -77,6 +83,11 @@ export async function insertShotWithResults(f: FixtureShot) {
 
 async function playerShot(c: Ctx) {
   const { shotId } = await insertShotWithResults({ teamId: c.teamId, playerId: c.users[PLAYER_EMAIL], label: "Policy shot" });
+  return { shotId };
+}
+
+async function inReviewPlayerShot(c: Ctx) {
+  const { shotId } = await insertShotWithResults({ teamId: c.teamId, playerId: c.users[PLAYER_EMAIL], label: "Policy shot in review", published: false });
   return { shotId };
 }
 
@@ -99,7 +110,13 @@ const T = (c: Ctx) => `/api/teams/${c.teamId}/readout`;
 export const readoutRoutes: RouteCase[] = [
   { name: "list shots (readout)", method: "GET", path: (c) => `${T(c)}/shots`, allowed: ALL, teamScoped: true, fixture: playerShot },
   { name: "shot readout", method: "GET", path: (c) => `${T(c)}/shots/${c.ids.shotId}`, allowed: ALL, teamScoped: true, fixture: playerShot },
+  // In review: staff only, even for the shot's own player.
+  { name: "shot readout, in review", method: "GET", path: (c) => `${T(c)}/shots/${c.ids.shotId}`, allowed: STAFF, teamScoped: true, fixture: inReviewPlayerShot },
+  { name: "publish a shot", method: "PUT", path: (c) => `${T(c)}/shots/${c.ids.shotId}/publication`, body: () => ({ notify: false }), allowed: SHARERS, teamScoped: true, fixture: inReviewPlayerShot },
+  { name: "take a shot back to review", method: "DELETE", path: (c) => `${T(c)}/shots/${c.ids.shotId}/publication`, allowed: SHARERS, teamScoped: true, fixture: playerShot },
   { name: "compare two shots", method: "GET", path: (c) => `${T(c)}/compare?a=${c.ids.a}&b=${c.ids.b}`, allowed: ALL, teamScoped: true, fixture: twoPlayerShots },
+  { name: "review settings", method: "GET", path: (c) => `${T(c)}/settings`, allowed: ALL, teamScoped: true },
+  { name: "change review settings", method: "PATCH", path: (c) => `${T(c)}/settings`, body: () => ({ autoPublish: false }), allowed: ["admin"], teamScoped: true },
   { name: "players for progress", method: "GET", path: (c) => `${T(c)}/players`, allowed: ALL, teamScoped: true },
   { name: "player progress", method: "GET", path: (c) => `${T(c)}/progress?playerId=${c.users[PLAYER_EMAIL]}`, allowed: ALL, teamScoped: true, fixture: playerShot },
   {

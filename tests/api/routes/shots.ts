@@ -26,6 +26,9 @@ export async function shotFixture(c: Ctx) {
   const { clipId } = await clipFixture(c);
   const r = await c.admin.post(`/api/teams/${c.teamId}/clips/${clipId}/shots`, { frameStart: 1, frameEnd: 300 });
   if (r.status !== 201) throw new Error(`shot fixture: ${r.status} ${r.text}`);
+  // Published, so its player may read it (a shot in review is staff-only: tests/api/shot-publishing.test.ts).
+  const p = await c.admin.put(`/api/teams/${c.teamId}/readout/shots/${r.json.id}/publication`, { notify: false });
+  if (p.status !== 200) throw new Error(`publish fixture: ${p.status} ${p.text}`);
   return { clipId, shotId: r.json.id as string };
 }
 

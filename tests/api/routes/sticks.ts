@@ -28,7 +28,7 @@ async function shotFixture(c: Ctx) {
   const { clip, shot, shotResult } = await import("../../../server/db/schema");
   const playerId = c.users[PLAYER];
   const [cl] = await db().insert(clip).values({ teamId: c.teamId, captureFps: 3200, playerId, stickId, status: "ready" }).returning();
-  const [sh] = await db().insert(shot).values({ teamId: c.teamId, clipId: cl.id, playerId, stickId, label: "Policy shot" }).returning();
+  const [sh] = await db().insert(shot).values({ teamId: c.teamId, clipId: cl.id, playerId, stickId, label: "Policy shot", publishedAt: new Date() }).returning();
   await db().insert(shotResult).values({
     shotId: sh.id, teamId: c.teamId, engineVersion: "test", shotVersion: 1,
     results: { shaftDeflection: { valueMm: 30, uncertaintyMm: 1, interval95Mm: null, frame: 10, aMm: 400, bMm: 800 } },

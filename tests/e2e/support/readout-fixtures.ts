@@ -115,7 +115,8 @@ async function main() {
       .returning({ id: clip.id });
     const [sh] = await db()
       .insert(shot)
-      .values({ teamId: team.id, clipId: c.id, playerId: p.id, stickId: st?.id ?? null, label: s.label, frameStart: 1, frameEnd: s.frames, marks: sc.marks, events: sc.events })
+      // Published: these are shots their players open (a shot in review is staff-only).
+      .values({ teamId: team.id, clipId: c.id, playerId: p.id, stickId: st?.id ?? null, label: s.label, frameStart: 1, frameEnd: s.frames, marks: sc.marks, events: sc.events, publishedAt: new Date() })
       .returning({ id: shot.id });
     if (s.drawFrames) await drawFrames(c.id, s, sc);
     const stored = await recomputeShot(sh.id);

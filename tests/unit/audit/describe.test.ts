@@ -1,6 +1,6 @@
 // The audit log's sentences, from the detail each area records ([CP] wording of our own).
 import { describe, expect, it } from "vitest";
-import { describeAudit } from "../../../src/features/audit/describe";
+import { describeAudit, namesWithFormer } from "../../../src/features/audit/describe";
 import type { AuditEntry } from "../../../src/features/audit/api/auditLog";
 
 const names = new Map([["u-pat", "Pat Player"], ["u-sam", "Sam Second"], ["u-kim", "Kim Third"]]);
@@ -14,6 +14,11 @@ describe("describeAudit", () => {
       group: "people", actor: "Alex Admin", text: "changed Pat Player’s role from player to coach",
     });
     expect(describeAudit(entry("member.removed", { userId: "u-gone" }), names).text).toBe("removed a former member from the team");
+    // Removals record the name, so the log keeps it after the person has left.
+    const removed = entry("member.removed", { userId: "u-gone", name: "Gale Gone" });
+    expect(describeAudit(removed, names).text).toBe("removed Gale Gone from the team");
+    const earlier = entry("member.role_changed", { userId: "u-gone", from: "player", to: "analyst" });
+    expect(describeAudit(earlier, namesWithFormer([removed, earlier], names)).text).toBe("changed Gale Gone’s role from player to analyst");
     expect(describeAudit(entry("member.role_changed", { userId: "u-pat", from: "admin", to: "admin" }), names).text).toMatch(/from team admin to team admin/);
   });
 
@@ -23,6 +28,11 @@ describe("describeAudit", () => {
     expect(describeAudit(entry("invitation.cancelled", { email: "new@ravens.example" }), names).text).toBe("cancelled the invitation to new@ravens.example");
     const joined = describeAudit({ ...entry("member.joined", { email: "new@ravens.example", role: "player" }), actorName: null }, names);
     expect(joined).toEqual({ group: "people", actor: "new@ravens.example", text: "accepted an invitation and joined as player" });
+  });
+
+  it("says who published a shot and who took it back to review", () => {
+    expect(describeAudit(entry("shot.published", { title: "Slap 1" }, "shot"), names)).toMatchObject({ group: "shares", text: "published “Slap 1” to its player" });
+    expect(describeAudit(entry("shot.unpublished", { title: "Slap 1" }, "shot"), names).text).toMatch(/^took “Slap 1” back to review/);
   });
 
   it("says what a deletion took with it", () => {

@@ -4,7 +4,7 @@ import { useActiveTeam } from "@/lib/session";
 import { useAuditLog } from "../api/auditLog";
 import { useMemberNames } from "../api/memberNames";
 import { AuditTimeline } from "../components/AuditTimeline";
-import { describeAudit, groupLabels, type AuditGroup } from "../describe";
+import { describeAudit, groupLabels, namesWithFormer, type AuditGroup } from "../describe";
 
 export function Component() {
   const team = useActiveTeam();
@@ -25,7 +25,7 @@ function AdminAudit({ teamId, teamName }: { teamId: string; teamName: string }) 
   const log = useAuditLog(teamId);
   const names = useMemberNames(teamId);
   const [group, setGroup] = useState<AuditGroup | "all">("all");
-  const known = names.data ?? new Map<string, string>();
+  const known = namesWithFormer(log.data ?? [], names.data ?? new Map<string, string>());
   const shown = (log.data ?? []).filter((e) => group === "all" || describeAudit(e, known).group === group);
 
   return (

@@ -6,7 +6,7 @@ import { isStaff } from "@/lib/roles";
 import { useActiveTeam, useSession } from "@/lib/session";
 import { useUnits } from "@/lib/units";
 import { METRICS, SHOT_TYPES, formatValue, shotTypeLabels, type ShotType } from "@shared/schemas/readout";
-import { usePlayers } from "../api/players";
+import { usePlayers } from "@/entities/member/players";
 import { useProgress } from "../api/progress";
 import { TrendCard } from "../components/TrendCard";
 

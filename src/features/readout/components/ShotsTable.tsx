@@ -63,6 +63,7 @@ export function ShotsTable({ shots, units, showPlayer, selected, onToggle }: Pro
               <Td label="Status">
                 <span className="flex flex-wrap gap-1">
                   {s.hasResults ? <Badge tone="ok">Results</Badge> : <Badge tone="warn">Needs digitising</Badge>}
+                  {showPlayer && (s.published ? <Badge tone="neutral">Published</Badge> : <Badge tone="gold">In review</Badge>)}
                   {s.sharedWithMe && <Badge tone="accent">Shared with you</Badge>}
                   {s.shareCount > 0 && <Badge tone="neutral">Shared ×{s.shareCount}</Badge>}
                 </span>

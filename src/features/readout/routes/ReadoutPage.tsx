@@ -13,6 +13,7 @@ import { useUnshareShot } from "../api/shareShot";
 import { ExportButtons } from "../components/ExportButtons";
 import { PhaseTimeline } from "../components/PhaseTimeline";
 import { ResultCards } from "../components/ResultCards";
+import { ReviewBar } from "../components/ReviewBar";
 import { ShareDialog } from "../components/ShareDialog";
 import { ShotCharts } from "../components/ShotCharts";
 
@@ -93,6 +94,7 @@ function Readout({ teamId, teamName, r }: { teamId: string; teamName: string; r:
           </>
         }
       />
+      {r.can.edit && <ReviewBar teamId={teamId} r={r} />}
       <div className="mb-6 flex flex-wrap items-center justify-between gap-3">
         <SharedLine r={r} teamId={teamId} />
         <ExportButtons teamId={teamId} shotId={r.shot.id} units={system} hasResults={!!r.results} />

@@ -6,6 +6,7 @@ import { useActiveTeam } from "@/lib/session";
 import { useUnits } from "@/lib/units";
 import { SHOT_TYPES, shotTypeLabels, type ShotType } from "@shared/schemas/readout";
 import { useShots } from "../api/shots";
+import { ReviewSetting } from "../components/ReviewSetting";
 import { ShotsTable } from "../components/ShotsTable";
 
 const PAGE_SIZE = 50;
@@ -14,15 +15,18 @@ const PAGE_SIZE = 50;
 export function Component() {
   const team = useActiveTeam();
   if (!team) return <EmptyState title="No team yet">When a team admin invites you, your team's shots show here.</EmptyState>;
-  return <Shots teamId={team.id} teamName={team.name} staff={isStaff(team.role)} />;
+  return <Shots teamId={team.id} teamName={team.name} staff={isStaff(team.role)} admin={team.role === "admin"} />;
 }
 
-function Shots({ teamId, teamName, staff }: { teamId: string; teamName: string; staff: boolean }) {
+const REVIEW = { waiting: "Waiting for review", published: "Published" } as const;
+
+function Shots({ teamId, teamName, staff, admin }: { teamId: string; teamName: string; staff: boolean; admin: boolean }) {
   // Filters and page live in the address, so a filtered page can be reloaded or sent on.
   const [params, setParams] = useSearchParams();
   const player = params.get("player") ?? "";
   const stick = params.get("stick") ?? "";
   const type = (SHOT_TYPES as readonly string[]).includes(params.get("type") ?? "") ? (params.get("type") as ShotType) : "";
+  const review = staff && (params.get("review") === "waiting" || params.get("review") === "published") ? (params.get("review") as keyof typeof REVIEW) : "";
   const page = Math.max(1, Number(params.get("page")) || 1);
   const update = (patch: Record<string, string>) =>
     setParams((p) => {
@@ -32,8 +36,8 @@ function Shots({ teamId, teamName, staff }: { teamId: string; teamName: string; 
       if (!("page" in patch)) next.delete("page");
       return next;
     });
-  const filtered = !!(player || stick || type);
-  const q = useShots(teamId, { playerId: player || undefined, stickId: stick || undefined, shotType: type || undefined, page, pageSize: PAGE_SIZE });
+  const filtered = !!(player || stick || type || review);
+  const q = useShots(teamId, { playerId: player || undefined, stickId: stick || undefined, shotType: type || undefined, review: review || undefined, page, pageSize: PAGE_SIZE });
   const { system } = useUnits();
   const navigate = useNavigate();
   const [selected, setSelected] = useState<string[]>([]);
@@ -75,6 +79,7 @@ function Shots({ teamId, teamName, staff }: { teamId: string; teamName: string; 
   return (
     <>
       {header}
+      {staff && <ReviewSetting teamId={teamId} canChange={admin} />}
       <Card flush>
         <div className="flex flex-wrap items-end gap-3 border-b border-line px-5 py-4">
           {staff && (
@@ -82,6 +87,7 @@ function Shots({ teamId, teamName, staff }: { teamId: string; teamName: string; 
           )}
           <Filter label="Stick" value={stick} onChange={(v) => update({ stick: v })} options={q.data.sticks.map((s) => [s.id, s.label])} all="All sticks" />
           <Filter label="Shot type" value={type} onChange={(v) => update({ type: v })} options={SHOT_TYPES.map((t) => [t, shotTypeLabels[t]])} all="All types" />
+          {staff && <Filter label="Review" value={review} onChange={(v) => update({ review: v })} options={Object.entries(REVIEW)} all="Any" />}
           <p className="ml-auto text-sm text-ink-muted">
             {q.data.total.toLocaleString("en")} shot{q.data.total === 1 ? "" : "s"}
             {filtered ? " match" : ""}

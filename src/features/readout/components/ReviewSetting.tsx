@@ -1,0 +1,33 @@
+import { toast } from "@/components/ui";
+import { errorMessage } from "@/lib/api";
+import { useReviewSettings, useUpdateReviewSettings } from "../api/reviewSettings";
+
+/** How the team's shots reach players: after a coach's review (default), or as soon as results exist. Team admins change it. */
+export function ReviewSetting({ teamId, canChange }: { teamId: string; canChange: boolean }) {
+  const q = useReviewSettings(teamId);
+  const update = useUpdateReviewSettings(teamId);
+  if (!q.data) return null;
+  // The box shows the choice at once; the server's answer confirms it (or the toast says it failed).
+  const auto = update.isPending ? update.variables.autoPublish : q.data.autoPublish;
+  const set = (autoPublish: boolean) =>
+    update.mutate(
+      { autoPublish },
+      {
+        onSuccess: () => toast.success(autoPublish ? "Shots with results now reach their players by themselves." : "New results now wait for a coach to publish them.", "Review setting saved"),
+        onError: (e) => toast.error(errorMessage(e), "Not saved"),
+      },
+    );
+  return (
+    <div className="mb-4 flex flex-wrap items-center gap-x-4 gap-y-2 rounded-lg border border-line bg-surface px-4 py-2.5 text-sm" data-testid="review-setting">
+      <span className="flex-1 text-ink-muted">
+        {auto ? "Shots reach their players as soon as they have results (no review step)." : "New results wait for a coach to review and publish them before players see them."}
+      </span>
+      {canChange && (
+        <label className="flex items-center gap-2 text-ink">
+          <input type="checkbox" className="size-4 accent-accent" checked={auto} onChange={(e) => set(e.target.checked)} />
+          Publish results automatically
+        </label>
+      )}
+    </div>
+  );
+}
