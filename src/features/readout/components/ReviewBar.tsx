@@ -26,7 +26,7 @@ export function ReviewBar({ teamId, r }: { teamId: string; r: ShotReadout }) {
   if (p)
     return (
       <div className="mb-4 flex flex-wrap items-center gap-x-4 gap-y-2 rounded-lg border border-ok/25 bg-ok-soft px-4 py-2.5 text-sm" data-testid="review-bar" data-state="published">
-        <span className="flex-1 text-ink">
+        <span className="flex-[1_1_16rem] text-ink">
           <b className="font-semibold text-ok">Published</b> to {player ?? "its player"} on {formatDate(p.publishedAt)}
           {p.publishedByName ? ` by ${p.publishedByName}` : " (the team publishes results automatically)"}.
         </span>
@@ -39,7 +39,7 @@ export function ReviewBar({ teamId, r }: { teamId: string; r: ShotReadout }) {
     );
   return (
     <div className="mb-4 flex flex-wrap items-center gap-x-4 gap-y-2 rounded-lg border border-gold/60 bg-gold-soft px-4 py-2.5 text-sm" data-testid="review-bar" data-state="review">
-      <span className="flex-1 text-ink">
+      <span className="flex-[1_1_16rem] text-ink">
         <b className="font-semibold">In review</b> — only staff see this shot.{" "}
         {player ? `${player} sees it once a coach publishes it.` : "Set its player on the Digitise page before publishing."}
       </span>

@@ -19,7 +19,7 @@ export function ReviewSetting({ teamId, canChange }: { teamId: string; canChange
     );
   return (
     <div className="mb-4 flex flex-wrap items-center gap-x-4 gap-y-2 rounded-lg border border-line bg-surface px-4 py-2.5 text-sm" data-testid="review-setting">
-      <span className="flex-1 text-ink-muted">
+      <span className="flex-[1_1_16rem] text-ink-muted">
         {auto ? "Shots reach their players as soon as they have results (no review step)." : "New results wait for a coach to review and publish them before players see them."}
       </span>
       {canChange && (
