@@ -38,6 +38,12 @@ export async function newShot(who: Client, teamId: string, clipId: string, frame
   return r.json.id as string;
 }
 
+/** Publishes a shot to its player (a shot in review is staff-only: tests/api/shot-publishing.test.ts). */
+export async function publish(who: Client, teamId: string, shotId: string) {
+  const r = await who.put(`/api/teams/${teamId}/readout/shots/${shotId}/publication`, { notify: false });
+  expect(r.status, r.text).toBe(200);
+}
+
 /** Seeds = the scene's truth on `frame`. */
 export function seedsOf(truth: { tracks: Record<string, [number, number, number][]> }, frame: number) {
   const seeds: Record<string, [number, number]> = {};

@@ -9,7 +9,7 @@ import path from "node:path";
 import { sql } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { Client, EMAILS, seedWorld, startServer, type TestServer } from "./helpers";
-import { newShot, renderedShot, runOf, seedsOf, untilFinished, uploadReadyClip } from "./tracking-support";
+import { newShot, publish, renderedShot, runOf, seedsOf, untilFinished, uploadReadyClip } from "./tracking-support";
 import { startJobs, stopJobs } from "../../server/jobs/runtime";
 import { db } from "../../server/db/client";
 
@@ -74,7 +74,10 @@ describe("a tracking run from seeds on the first frame", () => {
     const after = (await analyst.get(`${team()}/shots/${shotId}`)).json;
     expect(after.version).toBe(before.version);
     expect(after.marks).toEqual(before.marks);
-    // A player who may see the shot reads the run; a second start after it finished is a new run.
+    // A player who may see the shot reads the run (once published: in review it is a 404 to them);
+    // a second start after it finished is a new run.
+    expect((await player.get(`${team()}/shots/${shotId}/tracking`)).status).toBe(404);
+    await publish(coach, world.teamId, shotId);
     expect((await player.get(`${team()}/shots/${shotId}/tracking`)).status).toBe(200);
     const again = await start(analyst, shotId, body);
     expect(again.status).toBe(202);
@@ -142,6 +145,7 @@ describe("cancel, delete and bad seeds", () => {
       expect(r.status, JSON.stringify(body)).toBe(422);
       expect(r.json.detail).toMatch(message);
     }
+    await publish(coach, world.teamId, shotId);
     expect((await start(player, shotId, { seedFrame: 1, seeds: { puck: [600, 600] } })).status).toBe(403);
     expect(await runOf(analyst, world.teamId, shotId)).toBeNull();
   });
