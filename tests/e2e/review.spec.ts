@@ -12,6 +12,7 @@ async function as(browser: Browser, email: string) {
 }
 
 test("publish, take back, share with a teammate and stop sharing: each person sees exactly what they may", async ({ browser }) => {
+  test.setTimeout(180_000); // three people each signed in in their own browser
   const coach = await as(browser, "coach@ravens.example");
   const me = (await (await coach.request.get("/api/me")).json()) as { activeTeamId: string };
   const list = (await (await coach.request.get(`/api/teams/${me.activeTeamId}/readout/shots?pageSize=200`)).json()) as { shots: { id: string; label: string; playerName: string; published: boolean }[] };
