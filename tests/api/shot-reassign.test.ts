@@ -31,6 +31,9 @@ async function clipWithShots(n: number, playerEmail: string = EMAILS.player) {
   for (let i = 0; i < n; i++) {
     const r = await coach.post(`${T()}/clips/${clipId}/shots`, { frameStart: 1 + i * 10, frameEnd: 9 + i * 10, label: `Shot ${i + 1}` });
     expect(r.status, r.text).toBe(201);
+    // Published, so its player sees it (a shot in review is staff-only: tests/api/shot-publishing.test.ts).
+    const p = await coach.put(`${T()}/readout/shots/${r.json.id}/publication`, { notify: false });
+    expect(p.status, p.text).toBe(200);
     shots.push(r.json.id);
   }
   return { clipId, shots };

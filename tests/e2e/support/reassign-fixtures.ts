@@ -1,5 +1,5 @@
 // A ready clip of Theo (the demo club's first player) with two shots, for tests/e2e/reassign.spec.ts,
-// made in the e2e server's database (DATABASE_URL). No frame files: the pages used only list shots
+// published to him, made in the e2e server's database (DATABASE_URL). No frame files: the pages used only list shots
 // and edit details. Prints { teamId, clipId, shots } as JSON.
 //   node --import tsx tests/e2e/support/reassign-fixtures.ts
 import { and, eq } from "drizzle-orm";
@@ -21,7 +21,7 @@ const [c] = await db()
   .returning({ id: clip.id });
 const shots = await db()
   .insert(shot)
-  .values([1, 2].map((n) => ({ teamId: team.id, clipId: c.id, playerId: theo.id, label: `Reassign shot ${n}`, frameStart: n * 40 - 39, frameEnd: n * 40 })))
+  .values([1, 2].map((n) => ({ teamId: team.id, clipId: c.id, playerId: theo.id, label: `Reassign shot ${n}`, frameStart: n * 40 - 39, frameEnd: n * 40, publishedAt: new Date() })))
   .returning({ id: shot.id });
 process.stdout.write(JSON.stringify({ teamId: team.id, clipId: c.id, title, shots: shots.map((s) => s.id) }));
 await db().pool.end();
