@@ -11,6 +11,9 @@ import { hasPlaceTags, stripMetadata } from "../media/remux";
 import { clipKeys, displayFileName, sha256File } from "../storage";
 import { PLAYBACK_RATE_MAX_FPS, type ClipMeta, type ClipTiming } from "../../shared/schemas/clips";
 import { sendExtract } from "../jobs/clip-queue";
+import { withJobDir } from "../media/ffmpeg";
+import { looksLikeZip } from "./sequence/archive";
+import { sequenceZipToVideo, type SequenceFacts } from "./sequence/to-video";
 import { mediaConfig, storage } from "./deps";
 import * as memberRepo from "../entities/member/repository";
 import * as repo from "./repository";
@@ -51,6 +54,9 @@ export function decideCaptureRate(meta: { captureFps?: number; captureFpsConfirm
   return { captureFps, captureFpsConfirmed: meta.captureFps !== undefined && meta.captureFpsConfirmed ? true : believable };
 }
 
+/** Caps on an uploaded sequence's archive besides its unpacked size (2 × MAX_UPLOAD_BYTES). */
+const SEQUENCE_LIMITS = { maxEntries: 100_000 };
+
 const stripExtension = (name: string) => name.replace(/\.[A-Za-z0-9]{1,5}$/, "");
 
 export interface IngestRequest {
@@ -78,6 +84,7 @@ export async function probeUpload(file: string): Promise<ProbeResult> {
 export async function ingestUpload(r: IngestRequest): Promise<repo.ClipRow> {
   await checkMetaRefs(r.teamId, r.meta);
   const { sha256 } = await sha256File(r.file);
+  if (await looksLikeZip(r.file)) return ingestSequence(r, sha256);
   let facts = await probeUpload(r.file);
   await rejectDuplicate(r.teamId, sha256);
   // The original is served as stored: a place in its tags goes before it is stored. The checksum
@@ -86,13 +93,56 @@ export async function ingestUpload(r: IngestRequest): Promise<repo.ClipRow> {
     await stripMetadata(mediaConfig(), r.file, facts.raw);
     facts = { ...(await probeUpload(r.file)), taggedCaptureFps: facts.taggedCaptureFps };
   }
-  const storedSize = facts.sizeBytes;
+  return storeClip(r, r.file, sha256, facts, {
+    ...decideCaptureRate(r.meta, { storedFps: facts.storedFps, taggedCaptureFps: facts.taggedCaptureFps, clock: facts.timing.clock }),
+    durationS: facts.durationS,
+  });
+}
 
+/** A sequence's capture rate, which the person must type (checked at the start of the upload too). */
+export function requireSequenceRate(meta: Pick<ClipMeta, "captureFps">): number {
+  if (meta.captureFps !== undefined) return meta.captureFps;
+  const message = "Type the rate the camera recorded at: numbered frames carry no rate of their own.";
+  throw new ClipProblem(422, "sequence_rate_missing", `This is a ZIP of frames (an image sequence). ${message}`, { errors: [{ path: "captureFps", message }] });
+}
+
+/**
+ * A ZIP of numbered frames (decision 134): the typed capture rate is required (images carry
+ * none); the frames are checked and copied into one video file, which is stored as the clip's
+ * original. Any refusal names the file at fault, and nothing is stored.
+ */
+async function ingestSequence(r: IngestRequest, sha256: string): Promise<repo.ClipRow> {
+  const captureFps = requireSequenceRate(r.meta);
+  await rejectDuplicate(r.teamId, sha256);
+  const media = mediaConfig();
+  const e = env();
+  return withJobDir({ tmpRoot: media.tmpRoot }, "sequence", async (dir) => {
+    let video: Awaited<ReturnType<typeof sequenceZipToVideo>>;
+    try {
+      video = await sequenceZipToVideo(media, r.file, dir, { ...SEQUENCE_LIMITS, maxUnpackedBytes: 2 * e.MAX_UPLOAD_BYTES, maxPixels: e.MAX_PIXELS });
+    } catch (err) {
+      if (err instanceof MediaInputError) throw new ClipProblem(422, err.code, err.message, err.details);
+      throw err;
+    }
+    const facts = await probeUpload(video.file);
+    if (facts.frameCount !== video.facts.frames) throw new Error(`sequence of ${video.facts.frames} frames became a video of ${facts.frameCount}`);
+    return storeClip(r, video.file, sha256, { ...facts, sequence: video.facts }, { captureFps, captureFpsConfirmed: true, durationS: facts.frameCount / captureFps });
+  });
+}
+
+/** Store the checked file as the clip's original and write the row (the file is moved). */
+async function storeClip(
+  r: IngestRequest,
+  file: string,
+  sha256: string,
+  facts: ProbeResult & { sequence?: SequenceFacts },
+  rate: { captureFps: number; captureFpsConfirmed: boolean; durationS: number | null },
+): Promise<repo.ClipRow> {
   const sessionId = r.meta.sessionId ?? (r.meta.newSession ? await repo.findOrCreateSession(r.teamId, r.meta.newSession) : null);
   const name = displayFileName(r.originalName);
   const id = randomUUID();
   const st = storage();
-  await st.putFile(clipKeys.original(id), r.file, { move: true });
+  await st.putFile(clipKeys.original(id), file, { move: true });
   let row: repo.ClipRow | null;
   try {
     row = await repo.insertClip({
@@ -105,7 +155,8 @@ export async function ingestUpload(r: IngestRequest): Promise<repo.ClipRow> {
       title: r.meta.title || stripExtension(name),
       shotType: r.meta.shotType,
       cameraView: r.meta.cameraView,
-      ...decideCaptureRate(r.meta, { storedFps: facts.storedFps, taggedCaptureFps: facts.taggedCaptureFps, clock: facts.timing.clock }),
+      captureFps: rate.captureFps,
+      captureFpsConfirmed: rate.captureFpsConfirmed,
       storedFps: facts.storedFps || null,
       exposureUs: r.meta.exposureUs ?? null,
       notes: r.meta.notes,
@@ -113,7 +164,7 @@ export async function ingestUpload(r: IngestRequest): Promise<repo.ClipRow> {
       frameCount: facts.frameCount,
       width: facts.width,
       height: facts.height,
-      durationS: facts.durationS,
+      durationS: rate.durationS,
       rotationDeg: facts.rotationDeg,
       variableFrameRate: facts.variableFrameRate,
       timing: facts.timing,
@@ -121,7 +172,7 @@ export async function ingestUpload(r: IngestRequest): Promise<repo.ClipRow> {
       probe: { ...facts, raw: withoutPlaceTags(facts.raw) },
       frameFormat: env().FRAME_FORMAT,
       sha256,
-      sizeBytes: storedSize,
+      sizeBytes: facts.sizeBytes,
       originalName: name,
     });
   } catch (err) {
@@ -136,7 +187,8 @@ export async function ingestUpload(r: IngestRequest): Promise<repo.ClipRow> {
   }
   if (r.enqueue !== false) {
     // The row says "extracting" either way; if the queue is down the sweep queues it later.
-    await sendExtract(row.id, r.reqId).catch((err) => log.error({ err, clipId: row.id }, "could not queue frame extraction"));
+    const clipId = row.id;
+    await sendExtract(clipId, r.reqId).catch((err) => log.error({ err, clipId }, "could not queue frame extraction"));
   }
   return row;
 }

@@ -87,6 +87,8 @@ clipsRouter.get("/clips/:clipId/thumbnail", async (req, res) => {
 
 clipsRouter.get("/clips/:clipId/original", async (req, res) => {
   const j = await svc.visibleClip(actorOf(req), id(req));
-  const probe = j.clip.probe as { formatName?: string } | null;
-  await sendOriginal(req, res, clipKeys.original(j.clip.id), videoMime(probe?.formatName), j.clip.originalName || "clip");
+  const probe = j.clip.probe as { formatName?: string; sequence?: unknown } | null;
+  const name = j.clip.originalName || "clip";
+  // An uploaded ZIP of frames is kept as one Matroska file of those frames (decision 134).
+  await sendOriginal(req, res, clipKeys.original(j.clip.id), videoMime(probe?.formatName), probe?.sequence ? name.replace(/(\.zip)?$/i, ".mkv") : name);
 });

@@ -17,7 +17,7 @@ import { HttpError, PROBLEM_TYPE, problemJson, zodToHttp } from "../http/problem
 import { asUploadProblem } from "../http/upload-problems";
 import { StorageError } from "../storage/types";
 import { ClipMetaSchema, type ClipMeta } from "../../shared/schemas/clips";
-import { checkMetaRefs, ClipProblem, ingestUpload } from "./ingest";
+import { checkMetaRefs, ClipProblem, ingestUpload, requireSequenceRate } from "./ingest";
 import { tusDir } from "./deps";
 import { clipInTeam, teamUsageBytes } from "./repository";
 import { storageAllowance, storageRefusal } from "../billing/limits";
@@ -171,6 +171,7 @@ export function uploadServer(): Server {
         const meta = parseMeta(upload.metadata?.meta);
         const filename = upload.metadata?.filename ?? "";
         await checkMetaRefs(actor.teamId, meta);
+        if (/\.zip$/i.test(filename)) requireSequenceRate(meta);
         // The club's plan sets the storage its teams share (server/billing/limits.ts).
         const { allowance, used } = await storageInUse(store, actor.teamId);
         if (used + size > allowance.limitBytes)

@@ -12,6 +12,17 @@ export const mediaInputCodes = [
   "image_not_video",
   "no_decodable_frames",
   "pixel_size_over_limit",
+  // image sequences (decision 134), each naming the file at fault
+  "sequence_rate_missing",
+  "sequence_not_images",
+  "sequence_mixed",
+  "sequence_unnumbered",
+  "sequence_gap",
+  "sequence_too_short",
+  "sequence_mixed_sizes",
+  "sequence_unreadable_image",
+  "sequence_unsafe_archive",
+  "sequence_too_large",
 ] as const;
 export type MediaInputCode = (typeof mediaInputCodes)[number];
 
