@@ -325,3 +325,17 @@ export const trackingRun = pgTable(
     uniqueIndex("tracking_run_live_idx").on(t.shotId).where(sql`${t.status} in ('queued', 'running')`),
   ],
 );
+
+/**
+ * Hit counters of the per-address limits (server/security/rate-limit-store.ts), one fixed window
+ * per key: kept here rather than in each process, so several web processes count together.
+ */
+export const rateLimitHit = pgTable(
+  "rate_limit_hit",
+  {
+    key: text("key").primaryKey(),
+    hits: integer("hits").notNull(),
+    resetAt: timestamp("reset_at", { withTimezone: true }).notNull(),
+  },
+  (t) => [index("rate_limit_hit_reset_idx").on(t.resetAt)],
+);

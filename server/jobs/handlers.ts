@@ -6,6 +6,7 @@ import { sweepClips } from "./clip-sweep";
 import { runTracking } from "./shot-track";
 import { sweepTracking } from "./track-sweep";
 import { announceGraceEnded } from "../billing/sync";
+import { removeEndedWindows } from "../security/rate-limit-store";
 
 export interface JobContext {
   jobId: string;
@@ -22,6 +23,7 @@ export const handlers: { [N in JobName]?: JobHandler<N> } = {
     await sweepClips(ctx.log);
     await sweepTracking(ctx.log);
     await announceGraceEnded(ctx.log);
+    await removeEndedWindows();
   },
   "shot.track": async ({ runId }, ctx) => {
     await runTracking(runId, { jobId: ctx.jobId, log: ctx.log, lastAttempt: ctx.retryCount >= jobPolicies["shot.track"].retryLimit });

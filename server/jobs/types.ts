@@ -3,7 +3,7 @@
 export interface JobTypes {
   /** Probe-then-extract every frame of an uploaded clip. */
   "clip.extract": { clipId: string; reqId?: string };
-  /** Repair pass: re-queue clips that lack frames, remove orphaned files; hand back tracking runs whose worker died; announce grace that ended by the clock. */
+  /** Repair pass: re-queue clips that lack frames, remove orphaned files; hand back tracking runs whose worker died; announce grace that ended by the clock; drop ended limit windows. */
   "clip.sweep": Record<string, never>;
   /** Track every seeded landmark of a shot and propose its events (one tracking_run). */
   "shot.track": { runId: string; shotId: string; reqId?: string };

@@ -1,10 +1,11 @@
 // Per-address limits on the routes a stranger could hammer: signing in, sending invitations and
 // starting uploads. Each answers 429 problem+json with a RateLimit header (IETF draft 8) that
-// says when to try again. Memory-backed: with several web processes each counts on its own,
-// which bounds one address to N × the limit — enough against guessing passwords.
+// says when to try again. Counted in PostgreSQL (rate-limit-store.ts), so several web processes
+// share one count per address.
 import type { Express, RequestHandler } from "express";
 import { ipKeyGenerator, rateLimit } from "express-rate-limit";
 import { sendProblem } from "../http/problem";
+import { PostgresRateLimitStore } from "./rate-limit-store";
 
 export const RATE_LIMITS = {
   /** Sign-in attempts per client address per minute, whichever accounts they name. */
@@ -22,10 +23,14 @@ export const RATE_LIMITS = {
   uploads: 60,
 } as const;
 
-function limiter(limit: number, what: string, enabled: boolean, o: Partial<Parameters<typeof rateLimit>[0]> = {}): RequestHandler {
+function limiter(name: string, limit: number, what: string, enabled: boolean, o: Partial<Parameters<typeof rateLimit>[0]> = {}): RequestHandler {
   return rateLimit({
     windowMs: 60_000,
     limit,
+    store: new PostgresRateLimitStore(name),
+    // The database away must not lock everyone out of signing in: the request goes on to the
+    // route, which answers 503 by itself when it needs the database.
+    passOnStoreError: true,
     ...o,
     standardHeaders: "draft-8",
     // A forwarded header from a client we do not trust is ignored on purpose (TRUST_PROXY unset).
@@ -44,7 +49,7 @@ const postsOnly = (h: RequestHandler): RequestHandler => (req, res, next) => (re
  * parsed and checked the body. A correct password does not count (skipSuccessfulRequests).
  */
 export function signInFailureLimit(enabled: boolean): RequestHandler {
-  return limiter(RATE_LIMITS.signInFailuresPerAccount, "failed sign-ins for this account", enabled, {
+  return limiter("sign-in-failures", RATE_LIMITS.signInFailuresPerAccount, "failed sign-ins for this account", enabled, {
     windowMs: 15 * 60_000,
     skipSuccessfulRequests: true,
     keyGenerator: (req) => `${String((req.body as { email?: unknown } | undefined)?.email ?? "")}|${ipKeyGenerator(req.ip ?? "")}`,
@@ -57,10 +62,10 @@ export function signInFailureLimit(enabled: boolean): RequestHandler {
 export function applyRateLimits(app: Express, enabled: boolean) {
   // Every limit keys on req.ip: the connecting address, or the forwarded one only when
   // TRUST_PROXY names the proxy in front (decision 112).
-  app.use("/api/auth/sign-in", limiter(RATE_LIMITS.signIn, "sign-in attempts", enabled));
-  app.use(["/api/auth/request-password-reset", "/api/auth/reset-password"], postsOnly(limiter(RATE_LIMITS.passwordReset, "password-reset requests", enabled)));
-  app.use("/api/teams/:teamId/invitations", writesOnly(limiter(RATE_LIMITS.invitations, "invitation changes", enabled)));
-  app.use("/api/signup", postsOnly(limiter(RATE_LIMITS.signups, "sign-up requests", enabled)));
+  app.use("/api/auth/sign-in", limiter("sign-in", RATE_LIMITS.signIn, "sign-in attempts", enabled));
+  app.use(["/api/auth/request-password-reset", "/api/auth/reset-password"], postsOnly(limiter("password-reset", RATE_LIMITS.passwordReset, "password-reset requests", enabled)));
+  app.use("/api/teams/:teamId/invitations", writesOnly(limiter("invitations", RATE_LIMITS.invitations, "invitation changes", enabled)));
+  app.use("/api/signup", postsOnly(limiter("signups", RATE_LIMITS.signups, "sign-up requests", enabled)));
   // tus: POST creates an upload; its PATCH chunks and HEAD resumes are not counted.
-  app.use("/api/uploads", postsOnly(limiter(RATE_LIMITS.uploads, "uploads", enabled)));
+  app.use("/api/uploads", postsOnly(limiter("uploads", RATE_LIMITS.uploads, "uploads", enabled)));
 }
