@@ -121,13 +121,14 @@ export async function secondServer() {
     child = spawn(process.execPath, ["--import", "tsx", "server/index.ts"], { cwd: root, env: envs, stdio: ["ignore", "ignore", "pipe"] });
     let stderr = "";
     child.stderr?.on("data", (d) => (stderr += d));
-    for (let i = 0; i < 200; i++) {
+    // A deadline in time, not a count of tries: a busy shared machine starts tsx slowly.
+    for (const t0 = Date.now(); Date.now() - t0 < 90_000; ) {
       const ok = await fetch(`${base}/api/health`).then((r) => r.ok, () => false);
       if (ok) return;
       if (child.exitCode !== null) throw new Error(`second server exited: ${stderr}`);
       await new Promise((r) => setTimeout(r, 100));
     }
-    throw new Error(`second server did not answer on ${base}: ${stderr}`);
+    throw new Error(`second server did not answer on ${base} within 90 s: ${stderr}`);
   };
   const kill = async () => {
     const c = child;

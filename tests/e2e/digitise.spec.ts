@@ -113,6 +113,7 @@ test("an edit made just before a reload is kept and saved; undo and redo go thro
 });
 
 test("with the server killed, edits wait in the browser and reach the server when it is back", async ({ page }) => {
+  test.setTimeout(240_000); // two server starts of up to 90 s each on a busy machine
   const srv = await secondServer();
   await srv.start();
   try {
