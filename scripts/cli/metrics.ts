@@ -9,7 +9,7 @@ const USAGE = `usage: npm run --silent metrics -- shot.json|- [--trials N] [--se
 The document: { captureFps, calibration, pixelErrorPx?, calibrationErrorRel?, cutoffHz?, frameRange?,
 frameCount?, tracks: { puck, bladeHeel?, bladeToe?, bottomHand?, topHand? }, events, stick? }.
 --trials  Monte Carlo trials for the uncertainties (default ${DEFAULT_TRIALS}, at least 20)
---seed    seed of the trials (same document and seed, same results)
+--seed    seed of the trials (default: from the document; same document and seed, same results)
 --no-series  leave the time series out`;
 
 const fail: Fail = failWith("metrics");

@@ -4,10 +4,15 @@ import type { Vec2 } from "./homography";
 
 /** Angle in degrees between top hand → bottom hand and bottom hand → blade heel (0° = straight). */
 export function bendAngleDeg(top: Vec2, bottom: Vec2, heel: Vec2): number {
-  const ux = bottom[0] - top[0];
-  const uy = bottom[1] - top[1];
-  const vx = heel[0] - bottom[0];
-  const vy = heel[1] - bottom[1];
+  return bendAngleXY(top[0], top[1], bottom[0], bottom[1], heel[0], heel[1]);
+}
+
+/** bendAngleDeg on plain coordinates (no arrays: the bend series runs it on every frame). */
+export function bendAngleXY(tx: number, ty: number, bx: number, by: number, hx: number, hy: number): number {
+  const ux = bx - tx;
+  const uy = by - ty;
+  const vx = hx - bx;
+  const vy = hy - by;
   return (Math.atan2(Math.abs(ux * vy - uy * vx), ux * vx + uy * vy) * 180) / Math.PI;
 }
 

@@ -74,6 +74,11 @@ function pass(q: Biquad, buf: Float64Array, zi: [number, number], backward: bool
   }
 }
 
+/** One pass over buf from rest (zero state): the building block of impulse responses and adjoints. */
+export function passFromRest(q: Biquad, buf: Float64Array, backward: boolean): void {
+  pass(q, buf, [0, 0], backward);
+}
+
 let scratch = new Float64Array(1024);
 
 /** Odd extension by p samples each side followed by both passes, in a shared scratch buffer. */
@@ -104,13 +109,16 @@ export function filtfilt(q: Biquad, x: ArrayLike<number>, padlen = FILTFILT_PADL
   return runFiltfilt(q, x, Math.min(padlen, n - 1)).slice();
 }
 
-/** Σ (x − filtfilt(x))² without keeping the filtered copy (residual analysis runs this often). */
-export function filtfiltResidualSS(q: Biquad, x: ArrayLike<number>, padlen = FILTFILT_PADLEN): number {
+/**
+ * Σ (x − filtfilt(x))² over samples skip … n − 1 − skip, without keeping the filtered copy
+ * (residual analysis runs this often).
+ */
+export function filtfiltResidualSS(q: Biquad, x: ArrayLike<number>, padlen = FILTFILT_PADLEN, skip = 0): number {
   const n = x.length;
   if (n < 2) return 0;
   const y = runFiltfilt(q, x, Math.min(padlen, n - 1));
   let ss = 0;
-  for (let i = 0; i < n; i++) ss += (x[i] - y[i]) ** 2;
+  for (let i = skip; i < n - skip; i++) ss += (x[i] - y[i]) ** 2;
   return ss;
 }
 

@@ -1,27 +1,12 @@
-import { EigenvalueDecomposition, Matrix } from "ml-matrix";
-import { endPadLength, lfilterZi, zeroLagDesignCached, type Biquad } from "./butterworth";
+import { endPadLength, lfilterZi, passFromRest, zeroLagDesignCached, type Biquad } from "./butterworth";
 import type { CalibrationMap } from "./calibration";
 import type { Source } from "./sources";
-import { gradientWeights, type GridSegment, type SmoothSegment } from "./track-smoothing";
+import { gradientWeights, subSegment, type GridSegment, type SmoothSegment } from "./track-smoothing";
 
 // Gap filling, the zero-lag filter and differencing are all linear in the world marks, so a
 // smoothed position or velocity at one frame is a weighted sum of the marks. The weights (one row
 // of the operator) come from one adjoint pass over the segment; a Monte Carlo trial then costs a
 // few multiply-adds instead of re-filtering — see docs/decisions/011-uncertainty-monte-carlo.md.
-
-function causalPass(q: Biquad, buf: Float64Array, reverse: boolean): void {
-  const n = buf.length;
-  let z0 = 0;
-  let z1 = 0;
-  for (let k = 0; k < n; k++) {
-    const i = reverse ? n - 1 - k : k;
-    const x = buf[i];
-    const y = q.b0 * x + z0;
-    z0 = q.b1 * x - q.a1 * y + z1;
-    z1 = q.b2 * x - q.a2 * y;
-    buf[i] = y;
-  }
-}
 
 /** Output of the filter with no input, started from the lfilter_zi state. */
 function zeroInputResponse(q: Biquad, n: number): Float64Array {
@@ -51,12 +36,12 @@ export function filtfiltAdjoint(q: Biquad, v: Float64Array, padlen: number): Flo
   // (F + e_last·(Rg)ᵀ) u
   let s1 = 0;
   for (let i = 0; i < N; i++) s1 += g[N - 1 - i] * u[i];
-  causalPass(q, u, false);
+  passFromRest(q, u, false);
   u[N - 1] += s1;
   // (RFR + e_0·gᵀ) u
   let s2 = 0;
   for (let i = 0; i < N; i++) s2 += g[i] * u[i];
-  causalPass(q, u, true);
+  passFromRest(q, u, true);
   u[0] += s2;
   // Eᵀ u
   const x = u.slice(p, p + n);
@@ -117,119 +102,183 @@ export interface State {
   vy: number;
 }
 
+/** Weights below this fraction of the largest are dropped: the filter's memory has died out. */
+const WEIGHT_FLOOR = 1e-12;
+
+/** Lower-triangular L with L·Lᵀ = C for a symmetric positive semi-definite 4×4 (row-major). */
+export function cholesky4(C: Float64Array): Float64Array {
+  const L = new Float64Array(16);
+  const scale = Math.max(C[0], C[5], C[10], C[15]);
+  for (let j = 0; j < 4; j++) {
+    let d = C[j * 5];
+    for (let k = 0; k < j; k++) d -= L[j * 4 + k] ** 2;
+    if (!(d > 1e-14 * scale)) continue;
+    const ljj = Math.sqrt(d);
+    L[j * 5] = ljj;
+    for (let i = j + 1; i < 4; i++) {
+      let v = C[i * 4 + j];
+      for (let k = 0; k < j; k++) v -= L[i * 4 + k] * L[j * 4 + k];
+      L[i * 4 + j] = v / ljj;
+    }
+  }
+  return L;
+}
+
+/** A grid index on a smoothed piece of the source. */
+export interface StateAt {
+  seg: SmoothSegment;
+  i: number;
+}
+
+export interface LinearStates {
+  nominal: State[];
+  /**
+   * State s under a trial calibration plus one draw of digitising noise. A trial uses one state (one
+   * cut, one cutoff), so each is drawn from its own distribution; how the states' noise correlates
+   * does not enter.
+   */
+  sample(cal: CalibrationMap, normal: () => number, s?: number): State;
+}
+
+/** Margin around a grid index beyond which the filter's weights have died out (its end padding: decay to 1e-6). */
+function weightWindow(seg: SmoothSegment): number {
+  return seg.cutoffHz === null || seg.x.length < 3 ? 2 : endPadLength(zeroLagDesignCached(seg.cutoffHz, seg.fsHz)) + 2;
+}
+
+/**
+ * Weights on the marks of `seg` for the state at grid index i, computed on the marks within the
+ * filter's reach of it only (the rest weigh less than 1e-6 of the largest): the cost stays flat on
+ * long tracks. Returned with the index of the first mark they apply to.
+ */
+function localWeights(seg: SmoothSegment, i: number): { pos: Float64Array; vel: Float64Array | null; firstMark: number } {
+  const reach = weightWindow(seg);
+  if (seg.frames.length <= 2 * reach + 1) return { ...stateWeights(seg, i), firstMark: seg.i0 };
+  const { sub, offset } = subSegment(seg, i - reach, i + reach);
+  return { ...stateWeights(sub, i - offset), firstMark: sub.i0 };
+}
+
+/**
+ * Smoothed states of `src` at grid indices of smoothed pieces (e.g. one track cut at different
+ * frames, or smoothed at different cutoffs), as linear functions of the marks. Digitising noise
+ * enters as a Gaussian: its exact covariance through the linear smoothing, with the calibration's
+ * Jacobian at each mark; the calibration's own error by re-mapping the marks.
+ */
+export function linearStates(src: Source, at: StateAt[], nominalCal: CalibrationMap, sigmaPx: number): LinearStates {
+  const nomAff = nominalCal.affine;
+  const share = 1 / src.parts.length;
+  const samplers = at.map(({ seg, i }) => {
+    const { pos, vel, firstMark } = localWeights(seg, i);
+    let maxP = 0;
+    let maxV = 0;
+    for (let k = 0; k < pos.length; k++) {
+      maxP = Math.max(maxP, Math.abs(pos[k]));
+      maxV = Math.max(maxV, vel ? Math.abs(vel[k]) : 0);
+    }
+    const px: number[] = [];
+    const py: number[] = [];
+    const wp: number[] = [];
+    const wv: number[] = [];
+    const nx: number[] = [];
+    const ny: number[] = [];
+    // Covariance of [x, y, vx, vy] from digitising noise (row-major 4×4).
+    const C = new Float64Array(16);
+    for (let k = 0; k < pos.length; k++) {
+      const vk = vel ? vel[k] : 0;
+      if (Math.abs(pos[k]) <= WEIGHT_FLOOR * maxP && Math.abs(vk) <= WEIGHT_FLOOR * maxV) continue;
+      for (const part of src.parts) {
+        const m = firstMark + k;
+        const p: [number, number] = [part.x[m], part.y[m]];
+        const a = [pos[k] * share, vk * share];
+        const [X, Y] = nominalCal.toWorld(p);
+        px.push(p[0]);
+        py.push(p[1]);
+        wp.push(a[0]);
+        wv.push(a[1]);
+        nx.push(X);
+        ny.push(Y);
+        const [j00, j01, j10, j11] = nominalCal.jacobian(p);
+        const jj = [j00 * j00 + j01 * j01, j00 * j10 + j01 * j11, j00 * j10 + j01 * j11, j10 * j10 + j11 * j11];
+        const s2 = sigmaPx * sigmaPx;
+        for (let al = 0; al < 2; al++)
+          for (let be = 0; be < 2; be++) {
+            const f = s2 * a[al] * a[be];
+            for (let c = 0; c < 2; c++) for (let d = 0; d < 2; d++) C[(al * 2 + c) * 4 + be * 2 + d] += f * jj[c * 2 + d];
+          }
+      }
+    }
+    // Noise = L·z with z ~ N(0, I₄), L the Cholesky factor (a zero pivot — a state with no
+    // velocity, say — leaves its column zero).
+    const L = cholesky4(C);
+    const nominal: State = { x: seg.sx[i], y: seg.sy[i], vx: seg.vx[i], vy: seg.vy[i] };
+    const sums = { pxp: 0, pyp: 0, wp: 0, pxv: 0, pyv: 0, wv: 0 };
+    for (let t = 0; t < px.length; t++) {
+      sums.pxp += wp[t] * px[t];
+      sums.pyp += wp[t] * py[t];
+      sums.wp += wp[t];
+      sums.pxv += wv[t] * px[t];
+      sums.pyv += wv[t] * py[t];
+      sums.wv += wv[t];
+    }
+    return {
+      nominal,
+      sample(cal: CalibrationMap, normal: () => number): State {
+        let dx = 0;
+        let dy = 0;
+        let dvx = 0;
+        let dvy = 0;
+        if (cal.affine && nomAff) {
+          const M = cal.affine.M;
+          const N = nomAff.M;
+          const dM0 = M[0] - N[0];
+          const dM1 = M[1] - N[1];
+          const dM2 = M[2] - N[2];
+          const dM3 = M[3] - N[3];
+          const dt0 = cal.affine.t[0] - nomAff.t[0];
+          const dt1 = cal.affine.t[1] - nomAff.t[1];
+          dx = dM0 * sums.pxp + dM1 * sums.pyp + dt0 * sums.wp;
+          dy = dM2 * sums.pxp + dM3 * sums.pyp + dt1 * sums.wp;
+          dvx = dM0 * sums.pxv + dM1 * sums.pyv + dt0 * sums.wv;
+          dvy = dM2 * sums.pxv + dM3 * sums.pyv + dt1 * sums.wv;
+        } else {
+          const H = cal.H;
+          for (let t = 0; t < px.length; t++) {
+            let X: number;
+            let Y: number;
+            if (H) {
+              const w = H[6] * px[t] + H[7] * py[t] + H[8];
+              X = (H[0] * px[t] + H[1] * py[t] + H[2]) / w;
+              Y = (H[3] * px[t] + H[4] * py[t] + H[5]) / w;
+            } else [X, Y] = cal.toWorld([px[t], py[t]]);
+            dx += wp[t] * (X - nx[t]);
+            dy += wp[t] * (Y - ny[t]);
+            dvx += wv[t] * (X - nx[t]);
+            dvy += wv[t] * (Y - ny[t]);
+          }
+        }
+        const z0 = normal();
+        const z1 = normal();
+        const z2 = normal();
+        const z3 = normal();
+        return {
+          x: nominal.x + dx + L[0] * z0 + L[1] * z1 + L[2] * z2 + L[3] * z3,
+          y: nominal.y + dy + L[4] * z0 + L[5] * z1 + L[6] * z2 + L[7] * z3,
+          vx: nominal.vx + dvx + L[8] * z0 + L[9] * z1 + L[10] * z2 + L[11] * z3,
+          vy: nominal.vy + dvy + L[12] * z0 + L[13] * z1 + L[14] * z2 + L[15] * z3,
+        };
+      },
+    };
+  });
+  return { nominal: samplers.map((s) => s.nominal), sample: (cal, normal, s = 0) => samplers[s].sample(cal, normal) };
+}
+
 export interface LinearState {
   nominal: State;
   /** The state under a trial calibration plus digitising noise of every contributing mark. */
   sample(cal: CalibrationMap, normal: () => number): State;
 }
 
-/** Weights below this fraction of the largest are dropped: the filter's memory has died out. */
-const WEIGHT_FLOOR = 1e-12;
-
-/**
- * Smoothed state of `src` at grid index i of `seg`, as a linear function of the marks. Digitising
- * noise enters as one 4-D Gaussian (its exact covariance through the linear smoothing, with the
- * calibration's Jacobian at each mark); the calibration's own error by re-mapping the marks.
- */
+/** One smoothed state of `src` at grid index i of `seg` (see linearStates). */
 export function linearState(src: Source, seg: SmoothSegment, i: number, nominalCal: CalibrationMap, sigmaPx: number): LinearState {
-  const { pos, vel } = stateWeights(seg, i);
-  let maxP = 0;
-  let maxV = 0;
-  for (let k = 0; k < pos.length; k++) {
-    maxP = Math.max(maxP, Math.abs(pos[k]));
-    maxV = Math.max(maxV, vel ? Math.abs(vel[k]) : 0);
-  }
-  const px: number[] = [];
-  const py: number[] = [];
-  const wp: number[] = [];
-  const wv: number[] = [];
-  const nx: number[] = [];
-  const ny: number[] = [];
-  const C = new Matrix(4, 4);
-  const share = 1 / src.parts.length;
-  for (let k = 0; k < pos.length; k++) {
-    const vk = vel ? vel[k] : 0;
-    if (Math.abs(pos[k]) <= WEIGHT_FLOOR * maxP && Math.abs(vk) <= WEIGHT_FLOOR * maxV) continue;
-    for (const part of src.parts) {
-      const p: [number, number] = [part.x[seg.i0 + k], part.y[seg.i0 + k]];
-      const a = [pos[k] * share, vk * share];
-      const [X, Y] = nominalCal.toWorld(p);
-      px.push(p[0]);
-      py.push(p[1]);
-      wp.push(a[0]);
-      wv.push(a[1]);
-      nx.push(X);
-      ny.push(Y);
-      const [j00, j01, j10, j11] = nominalCal.jacobian(p);
-      const jj = [
-        [j00 * j00 + j01 * j01, j00 * j10 + j01 * j11],
-        [j00 * j10 + j01 * j11, j10 * j10 + j11 * j11],
-      ];
-      for (let al = 0; al < 2; al++)
-        for (let be = 0; be < 2; be++)
-          for (let c = 0; c < 2; c++)
-            for (let d = 0; d < 2; d++) C.set(al * 2 + c, be * 2 + d, C.get(al * 2 + c, be * 2 + d) + sigmaPx * sigmaPx * a[al] * a[be] * jj[c][d]);
-    }
-  }
-  const evd = new EigenvalueDecomposition(C, { assumeSymmetric: true });
-  const V = evd.eigenvectorMatrix;
-  // Noise = L·z with z ~ N(0, I₄), L = V·√Λ (row-major).
-  const L = Float64Array.from(V.mulRowVector(evd.realEigenvalues.map((l) => Math.sqrt(Math.max(0, l)))).to1DArray());
-
-  const nominal: State = { x: seg.sx[i], y: seg.sy[i], vx: seg.vx[i], vy: seg.vy[i] };
-  const sums = { pxp: 0, pyp: 0, wp: 0, pxv: 0, pyv: 0, wv: 0 };
-  for (let t = 0; t < px.length; t++) {
-    sums.pxp += wp[t] * px[t];
-    sums.pyp += wp[t] * py[t];
-    sums.wp += wp[t];
-    sums.pxv += wv[t] * px[t];
-    sums.pyv += wv[t] * py[t];
-    sums.wv += wv[t];
-  }
-  const nomAff = nominalCal.affine;
-
-  return {
-    nominal,
-    sample(cal, normal) {
-      let dx = 0;
-      let dy = 0;
-      let dvx = 0;
-      let dvy = 0;
-      if (cal.affine && nomAff) {
-        const dM = cal.affine.M.map((m, k) => m - nomAff.M[k]);
-        const dt0 = cal.affine.t[0] - nomAff.t[0];
-        const dt1 = cal.affine.t[1] - nomAff.t[1];
-        dx = dM[0] * sums.pxp + dM[1] * sums.pyp + dt0 * sums.wp;
-        dy = dM[2] * sums.pxp + dM[3] * sums.pyp + dt1 * sums.wp;
-        dvx = dM[0] * sums.pxv + dM[1] * sums.pyv + dt0 * sums.wv;
-        dvy = dM[2] * sums.pxv + dM[3] * sums.pyv + dt1 * sums.wv;
-      } else if (cal.H) {
-        const H = cal.H;
-        for (let t = 0; t < px.length; t++) {
-          const w = H[6] * px[t] + H[7] * py[t] + H[8];
-          const X = (H[0] * px[t] + H[1] * py[t] + H[2]) / w;
-          const Y = (H[3] * px[t] + H[4] * py[t] + H[5]) / w;
-          dx += wp[t] * (X - nx[t]);
-          dy += wp[t] * (Y - ny[t]);
-          dvx += wv[t] * (X - nx[t]);
-          dvy += wv[t] * (Y - ny[t]);
-        }
-      } else {
-        for (let t = 0; t < px.length; t++) {
-          const [X, Y] = cal.toWorld([px[t], py[t]]);
-          dx += wp[t] * (X - nx[t]);
-          dy += wp[t] * (Y - ny[t]);
-          dvx += wv[t] * (X - nx[t]);
-          dvy += wv[t] * (Y - ny[t]);
-        }
-      }
-      const z0 = normal();
-      const z1 = normal();
-      const z2 = normal();
-      const z3 = normal();
-      const n = [0, 0, 0, 0];
-      for (let r = 0; r < 4; r++) n[r] = L[4 * r] * z0 + L[4 * r + 1] * z1 + L[4 * r + 2] * z2 + L[4 * r + 3] * z3;
-      return { x: nominal.x + dx + n[0], y: nominal.y + dy + n[1], vx: nominal.vx + dvx + n[2], vy: nominal.vy + dvy + n[3] };
-    },
-  };
+  const one = linearStates(src, [{ seg, i }], nominalCal, sigmaPx);
+  return { nominal: one.nominal[0], sample: (cal, normal) => one.sample(cal, normal, 0) };
 }

@@ -9,6 +9,26 @@ export const MAX_PLAUSIBLE_SPEED_MPS = 52;
 export const CONTACT_MS_RANGE: [number, number] = [5, 60];
 /** Lowest high-speed rate used in shot studies (240 Hz) [CP]: below it the number may be a playback rate. */
 export const MIN_HIGH_SPEED_FPS = 240;
+/**
+ * Largest plausible peak bend between the shaft's halves. [calc] A bench flex test bends a shaft by
+ * one inch over 1 m, 2·atan(25.4/500) ≈ 5.8°; 20° on the 1.3 m chord of the synthetic shot means
+ * ~0.2 m of deflection at the bottom hand, several times what a flex rating is measured at. [CP]
+ * Larger values come from a bottom-hand or top-hand mark off the shaft.
+ */
+export const MAX_PLAUSIBLE_BEND_DEG = 20;
+/**
+ * Largest plausible deflection as a share of the chord (top hand → blade heel). [calc] 20° with the
+ * bottom hand near mid-chord is a deflection of about 17 % of the chord.
+ */
+export const MAX_PLAUSIBLE_DEFLECTION_SHARE = 0.17;
+/**
+ * Largest plausible energy stored in the shaft, J. [calc] The puck of the fastest recorded
+ * skills-competition shot, 48.64 m/s (REFERENCES.md), carried ½·0.170 kg·(48.64 m/s)² ≈ 201 J at
+ * the heaviest regulation mass (IIHF Rule 13.1); a shaft storing more than the fastest puck ever
+ * received is a mis-mark or a wrong flex. Measured shaft energies in lab shots are tens of joules
+ * at most (Worobets, Fairbairn & Stefanyshyn, Sports Eng 9:191–200, 2006) [M].
+ */
+export const MAX_PLAUSIBLE_ENERGY_J = 0.5 * 0.17 * 48.64 ** 2;
 /** Relative standard uncertainty above which a result is flagged. */
 export const LARGE_RELATIVE_U = 0.1;
 /** Flight marks scattered this many times the digitising error off a straight line suggest a mis-mark. */
@@ -69,5 +89,27 @@ export function plausibilityNotes(r: Omit<ShotResults, "notes">, ctx: Plausibili
     notes.push({ code: "PUCK_SPEED_UNCERTAIN", message: `puck exit speed uncertainty is over ${LARGE_RELATIVE_U * 100} % of the value` });
   if (b && relLarge(b.valueMps, b.uncertaintyMps))
     notes.push({ code: "BLADE_SPEED_UNCERTAIN", message: `blade speed uncertainty is over ${LARGE_RELATIVE_U * 100} % of the value` });
+  const bend = r.peakBend;
+  if (bend && bend.angleDeg > MAX_PLAUSIBLE_BEND_DEG)
+    notes.push({
+      code: "BEND_IMPLAUSIBLE",
+      message: `peak bend ${bend.angleDeg.toFixed(1)}° is above ${MAX_PLAUSIBLE_BEND_DEG}°, more than a shaft bends in a shot: check that the top-hand, bottom-hand and blade-heel marks sit on the shaft`,
+    });
+  const d = r.shaftDeflection;
+  if (d && d.valueMm > MAX_PLAUSIBLE_DEFLECTION_SHARE * (d.aMm + d.bMm))
+    notes.push({
+      code: "BEND_DEFLECTION_IMPLAUSIBLE",
+      message: `shaft deflection ${d.valueMm.toFixed(0)} mm is over ${MAX_PLAUSIBLE_DEFLECTION_SHARE * 100} % of the ${(d.aMm + d.bMm).toFixed(0)} mm from top hand to blade heel: check the bottom-hand mark`,
+    });
+  const e = r.storedEnergy;
+  if (e && e.valueJ > MAX_PLAUSIBLE_ENERGY_J)
+    notes.push({
+      code: "STORED_ENERGY_IMPLAUSIBLE",
+      message: `stored energy ${e.valueJ.toFixed(0)} J is more than the ${MAX_PLAUSIBLE_ENERGY_J.toFixed(0)} J the puck of the fastest recorded shot carried: check the bend marks and the stick's flex`,
+    });
+  if (bend && relLarge(bend.angleDeg, bend.uncertaintyDeg))
+    notes.push({ code: "BEND_UNCERTAIN", message: `peak bend uncertainty is over ${LARGE_RELATIVE_U * 100} % of the value` });
+  if (e && relLarge(e.valueJ, e.uncertaintyJ))
+    notes.push({ code: "STORED_ENERGY_UNCERTAIN", message: `stored energy uncertainty is over ${LARGE_RELATIVE_U * 100} % of the value` });
   return notes;
 }

@@ -1,9 +1,9 @@
-import type { SegmentLabel } from "../schemas/shot-results";
 import { maxWantedCutoff } from "./butterworth";
 import { MechanicsInputError } from "./errors";
 import { residualAnalysisCutoff, type ResidualSeries } from "./residual-analysis";
-import type { Source } from "./sources";
-import type { GridSegment } from "./track-smoothing";
+import type { SourceKey } from "./sources";
+import type { TimeBase } from "./time-base";
+import { gridSegments, type GridSegment, type PieceLabel, type WorldTrack } from "./track-smoothing";
 
 // Per-source smoothing: where the track is cut and which cutoff it gets.
 
@@ -11,31 +11,83 @@ export type CutoffMode = "auto" | "raw" | number;
 
 export interface Cuts {
   splits: number[];
-  labels: SegmentLabel[];
+  labels: PieceLabel[];
 }
 
-/** The puck is also cut at release (contact force ends there); stick landmarks at puck strike only. */
-export function cutsFor(key: Source["key"], puckStrike: number, release: number): Cuts {
-  return key === "puck"
-    ? { splits: [puckStrike, release], labels: ["beforeStrike", "contact", "afterRelease"] }
-    : { splits: [puckStrike], labels: ["beforeStrike", "afterStrike"] };
+/** The stick's landmarks, smoothed together for the shaft's shape. */
+export const STICK_KEYS = ["bladeHeel", "bottomHand", "topHand"] as const;
+export type StickKey = (typeof STICK_KEYS)[number];
+export const isStickKey = (k: SourceKey): k is StickKey => (STICK_KEYS as readonly string[]).includes(k);
+
+/**
+ * Where each source's track is cut (Gonzalez & Knudson, ISBS 2019: never filter through an impact
+ * whose speed change you measure). The puck is cut at puck strike and release, the blade at puck
+ * strike. The stick's landmarks are not cut: the shaft's shape is continuous through the impact,
+ * and with one filter for all three the rigid motion that does jump there cancels in the shape
+ * (a linear filter of a difference is the difference of the filtered tracks).
+ */
+export function cutsFor(key: SourceKey, puckStrike: number, release: number): Cuts {
+  if (key === "puck") return { splits: [puckStrike, release], labels: ["beforeStrike", "contact", "afterRelease"] };
+  if (key === "blade") return { splits: [puckStrike], labels: ["beforeStrike", "afterStrike"] };
+  return { splits: [], labels: ["whole"] };
 }
 
-/** Residual analysis looks at the samples nearest puck strike, where the results are measured. */
+/** Residual analysis looks at most at this many samples per piece, those nearest the window's centre. */
 export const RESIDUAL_CAP = 1024;
 
-function residualSeries(grids: GridSegment[]): ResidualSeries[] {
+/** Frames [from, to] whose motion a result is measured from: residual analysis looks only there. */
+export type FrameWindow = [number, number];
+
+function residualSeries(grids: GridSegment[], window: FrameWindow): ResidualSeries[] {
   const out: ResidualSeries[] = [];
+  const centre = (window[0] + window[1]) / 2;
   for (const g of grids) {
     const n = g.x.length;
-    const [a, b] = n <= RESIDUAL_CAP ? [0, n] : g.label === "beforeStrike" ? [n - RESIDUAL_CAP, n] : [0, RESIDUAL_CAP];
-    out.push({ fsHz: g.fsHz, values: g.x.subarray(a, b) }, { fsHz: g.fsHz, values: g.y.subarray(a, b) });
+    let a = Math.max(0, Math.ceil((window[0] - g.frames[0]) / g.step));
+    let b = Math.min(n, Math.floor((window[1] - g.frames[0]) / g.step) + 1);
+    if (b - a > RESIDUAL_CAP) {
+      const at = Math.round((centre - g.frames[0]) / g.step);
+      a = Math.min(b - RESIDUAL_CAP, Math.max(a, at - RESIDUAL_CAP / 2));
+      b = a + RESIDUAL_CAP;
+    }
+    if (b > a) out.push({ fsHz: g.fsHz, values: g.x.subarray(a, b) }, { fsHz: g.fsHz, values: g.y.subarray(a, b) });
   }
   return out;
 }
 
+/**
+ * The shaft's shape over the frames where every given stick landmark is marked: each landmark
+ * relative to the first (for one landmark, its own track). This is what the bend is measured from,
+ * so its residual analysis sets the stick's cutoff.
+ */
+export function shapeTracks(tracks: WorldTrack[]): WorldTrack[] {
+  if (tracks.length === 1) return tracks;
+  const [ref, ...rest] = tracks;
+  const rows: { i: number; j: number[] }[] = [];
+  const at = rest.map(() => 0);
+  for (let i = 0; i < ref.frames.length; i++) {
+    const f = ref.frames[i];
+    const j = rest.map((t, k) => {
+      while (at[k] < t.frames.length && t.frames[at[k]] < f) at[k]++;
+      return at[k] < t.frames.length && t.frames[at[k]] === f ? at[k] : -1;
+    });
+    if (j.every((v) => v >= 0)) rows.push({ i, j });
+  }
+  const frames = Int32Array.from(rows, (r) => ref.frames[r.i]);
+  return rest.map((t, k) => ({
+    frames,
+    x: Float64Array.from(rows, (r) => t.x[r.j[k]] - ref.x[r.i]),
+    y: Float64Array.from(rows, (r) => t.y[r.j[k]] - ref.y[r.i]),
+  }));
+}
+
+export function cutoffFromTracks(tracks: WorldTrack[], cuts: Cuts, captureFps: number, time: TimeBase, window: FrameWindow, mode: CutoffMode, name: string) {
+  const grids = tracks.flatMap((t) => gridSegments(t, cuts.splits, cuts.labels, captureFps, undefined, time));
+  return chooseCutoff(grids, mode, name, window);
+}
+
 /** Cutoff for one source: analyst's (checked against each segment's Nyquist rate), residual analysis, or raw. */
-export function chooseCutoff(grids: GridSegment[], mode: CutoffMode, name: string): { cutoffHz: number | null; tooFew: boolean } {
+export function chooseCutoff(grids: GridSegment[], mode: CutoffMode, name: string, window: FrameWindow): { cutoffHz: number | null; tooFew: boolean } {
   if (mode === "raw") return { cutoffHz: null, tooFew: false };
   if (typeof mode === "number") {
     for (const g of grids) {
@@ -48,6 +100,6 @@ export function chooseCutoff(grids: GridSegment[], mode: CutoffMode, name: strin
     }
     return { cutoffHz: mode, tooFew: false };
   }
-  const choice = residualAnalysisCutoff(residualSeries(grids));
+  const choice = residualAnalysisCutoff(residualSeries(grids, window));
   return choice ? { cutoffHz: choice.cutoffHz, tooFew: false } : { cutoffHz: null, tooFew: true };
 }

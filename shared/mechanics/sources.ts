@@ -1,6 +1,6 @@
 import type { CalibrationMap } from "./calibration";
 import { MechanicsInputError } from "./errors";
-import type { WorldTrack } from "./track-smoothing";
+import { lowerBound, type WorldTrack } from "./track-smoothing";
 import type { ImageTrack } from "./validate-shot";
 
 // A smoothed "source" is one landmark, or the mean of two (the blade midpoint from heel and toe),
@@ -72,18 +72,6 @@ export function bladeSource(heel: ImageTrack | undefined, toe: ImageTrack | unde
   const usable = options.filter((o) => o.source.parts[0].frames.length > 0);
   if (usable.length === 0) return null;
   return usable.find((o) => marksUpTo(o.source.parts[0], puckStrike) >= 3) ?? usable.reduce((a, b) => (b.source.parts[0].frames.length > a.source.parts[0].frames.length ? b : a));
-}
-
-/** First index with frame ≥ f. */
-export function lowerBound(frames: Int32Array, f: number): number {
-  let lo = 0;
-  let hi = frames.length;
-  while (lo < hi) {
-    const m = (lo + hi) >> 1;
-    if (frames[m] < f) lo = m + 1;
-    else hi = m;
-  }
-  return lo;
 }
 
 /** World track of the source's marks with lo ≤ frame ≤ hi (at most `limit` of them). */

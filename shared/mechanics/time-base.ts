@@ -90,3 +90,13 @@ export function timesOf(tb: TimeBase, frames: ArrayLike<number>): Float64Array {
   for (let i = 0; i < frames.length; i++) out[i] = tb.t(frames[i]);
   return out;
 }
+
+/** Seconds from frame f to frame f + 1, or one nominal interval where the clock has no time for them. */
+export function frameStepS(tb: TimeBase, f: number): number {
+  try {
+    const s = tb.between(f, f + 1);
+    return s > 0 ? s : tb.nominalS;
+  } catch {
+    return tb.nominalS;
+  }
+}

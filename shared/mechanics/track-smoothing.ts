@@ -13,8 +13,11 @@ export interface WorldTrack {
   y: Float64Array;
 }
 
+/** A piece of a track between cuts; "whole" for a track smoothed through the impacts (the stick's landmarks). */
+export type PieceLabel = SegmentLabel | "whole";
+
 export interface GridSegment {
-  label: SegmentLabel;
+  label: PieceLabel;
   /** Frames between grid samples: the greatest common divisor of the marked frame gaps. */
   step: number;
   fsHz: number;
@@ -54,7 +57,7 @@ function gcd(a: number, b: number): number {
 export function gridSegments(
   track: WorldTrack,
   splits: number[],
-  labels: SegmentLabel[],
+  labels: PieceLabel[],
   captureFps: number,
   step?: number,
   time: TimeBase = rateTimeBase(captureFps),
@@ -75,7 +78,7 @@ export function gridSegments(
 }
 
 /** `wanted` (a part of a longer track keeps that track's grid) is used when it divides every gap. */
-function gridPiece(t: WorldTrack, i0: number, i1: number, label: SegmentLabel, captureFps: number, time: TimeBase, wanted?: number): GridSegment {
+function gridPiece(t: WorldTrack, i0: number, i1: number, label: PieceLabel, captureFps: number, time: TimeBase, wanted?: number): GridSegment {
   let step = 0;
   for (let i = i0 + 1; i < i1; i++) step = gcd(step, t.frames[i] - t.frames[i - 1]);
   if (step === 0) step = wanted ?? 1;
@@ -169,4 +172,44 @@ export function smoothSegment(seg: GridSegment, cutoffHz: number | null): Smooth
 export function gridIndex(seg: GridSegment, frame: number): number {
   const g = (frame - seg.frames[0]) / seg.step;
   return Number.isInteger(g) && g >= 0 && g < seg.frames.length ? g : -1;
+}
+
+/**
+ * The part of a piece between grid samples near a and b, widened to the nearest marked samples so
+ * it is a piece of its own (its i0/i1 name the marks it holds); `offset` is its first sample's
+ * index in `seg`. Smoothed fields, when present, are cut alike.
+ */
+export function subSegment<T extends GridSegment>(seg: T, a: number, b: number): { sub: T; offset: number } {
+  a = Math.max(0, a);
+  b = Math.min(seg.frames.length - 1, b);
+  while (a > 0 && !seg.marked[a]) a--;
+  while (b < seg.frames.length - 1 && !seg.marked[b]) b++;
+  let i0 = seg.i0;
+  for (let k = 0; k < a; k++) if (seg.marked[k]) i0++;
+  let marks = 0;
+  for (let k = a; k <= b; k++) if (seg.marked[k]) marks++;
+  const cut = <A extends Float64Array | Int32Array | Uint8Array>(v: A) => v.subarray(a, b + 1) as A;
+  const sub = { ...seg, frames: cut(seg.frames), tS: cut(seg.tS), x: cut(seg.x), y: cut(seg.y), marked: cut(seg.marked), i0, i1: i0 + marks } as T;
+  const sm = seg as unknown as Partial<SmoothSegment>;
+  if (sm.sx && sm.sy && sm.vx && sm.vy) Object.assign(sub, { sx: cut(sm.sx), sy: cut(sm.sy), vx: cut(sm.vx), vy: cut(sm.vy) });
+  return { sub, offset: a };
+}
+
+/** First index with frame ≥ f. */
+export function lowerBound(frames: Int32Array, f: number): number {
+  let lo = 0;
+  let hi = frames.length;
+  while (lo < hi) {
+    const m = (lo + hi) >> 1;
+    if (frames[m] < f) lo = m + 1;
+    else hi = m;
+  }
+  return lo;
+}
+
+/** The track's marks with frames in [from, to] (views, no copy) and the index of the first. */
+export function marksBetween(world: WorldTrack, from: number, to: number): { track: WorldTrack; offset: number } {
+  const a = lowerBound(world.frames, from);
+  const b = lowerBound(world.frames, to + 1);
+  return { track: { frames: world.frames.subarray(a, b), x: world.x.subarray(a, b), y: world.y.subarray(a, b) }, offset: a };
 }

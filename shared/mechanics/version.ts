@@ -1,2 +1,2 @@
 /** Stored with every result; bump when any result for the same document would change. */
-export const ENGINE_VERSION = "mechanics-1.1.0";
+export const ENGINE_VERSION = "mechanics-1.2.0";

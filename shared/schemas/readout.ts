@@ -266,12 +266,13 @@ export const METRICS: readonly MetricDef[] = [
   {
     key: "loadTime", label: "Load time", kind: "time", best: "max", bestLabel: "Longest load",
     hint: "Ice strike → puck strike: how long the stick was loaded against the ice.",
-    read: (r) => (r.loadTimeMs === null ? null : { value: r.loadTimeMs, u: r.frameTimeMs }),
+    // Results from engines before mechanics-1.2.0 carry no time uncertainty: one frame then.
+    read: (r) => (r.loadTimeMs === null ? null : { value: r.loadTimeMs, u: r.loadTimeUncertaintyMs ?? r.frameTimeMs }),
   },
   {
     key: "contactTime", label: "Contact time", kind: "time", best: "min", bestLabel: "Quickest release",
     hint: "Puck strike → release: how long the puck stayed on the blade.",
-    read: (r) => ({ value: r.contactTimeMs, u: r.frameTimeMs }),
+    read: (r) => ({ value: r.contactTimeMs, u: r.contactTimeUncertaintyMs ?? r.frameTimeMs }),
   },
   {
     key: "storedEnergy", label: "Stored energy", kind: "energy", best: "max", bestLabel: "Most energy",
@@ -338,6 +339,16 @@ export function metricText(def: MetricDef, r: ShotResults | null, system: UnitSy
     unit: unitOf(def.kind, system),
     full: formatWithU(def.kind, v.value, v.u, system),
   };
+}
+
+/**
+ * How the times' uncertainty arises, one wording for the readout, the PDF and the CSV: "each event
+ * marked to ±1 frame (1.00 ms)". Results from engines before mechanics-1.2.0 say one frame.
+ */
+export function eventTimingText(r: Pick<ShotResults, "frameTimeMs" | "uncertainty">): string {
+  const e = r.uncertainty.eventErrorFrames;
+  if (e === undefined) return `good to one frame (${r.frameTimeMs.toFixed(2)} ms)`;
+  return `from events each marked to ±${e} frame${e === 1 ? "" : "s"} (${(e * r.frameTimeMs).toFixed(2)} ms)`;
 }
 
 /** Which result a plausibility note (by its engine code) belongs to; null = the whole shot. */

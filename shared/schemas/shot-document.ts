@@ -10,6 +10,9 @@ export { DEFAULT_BENCH_SPAN_MM };
 /** A regulation puck is 76.2 mm (3 in) across: IIHF Rule 13.1 [P]. */
 export const PUCK_DIAMETER_MM = 76.2;
 export const DEFAULT_PIXEL_ERROR_PX = 0.5;
+/** An event marked on a frame is taken as good to one frame either way [CP]. */
+export const DEFAULT_EVENT_ERROR_FRAMES = 1;
+export const MAX_EVENT_ERROR_FRAMES = 10;
 
 // Messages name no field: the error's path does, and a form shows the message next to the field.
 const needs = (what: string) => (iss: { code?: string; input: unknown; keys?: string[] }) =>
@@ -136,6 +139,15 @@ export const ShotDocument = z.strictObject({
   calibration: Calibration,
   /** Standard uncertainty of one digitised coordinate, in pixels. */
   pixelErrorPx: z.number({ error: needs("a number of pixels") }).nonnegative({ error: "must be 0 or more" }).default(DEFAULT_PIXEL_ERROR_PX),
+  /**
+   * How far, in frames either way, each marked event (ice strike, puck strike, release) may be from
+   * the true instant: the analyst's judgement, a uniform spread in the uncertainties. 0 = exact.
+   */
+  eventErrorFrames: z
+    .number({ error: needs("a number of frames") })
+    .min(0, { error: "must be 0 or more" })
+    .max(MAX_EVENT_ERROR_FRAMES, { error: `is at most ${MAX_EVENT_ERROR_FRAMES} frames` })
+    .default(DEFAULT_EVENT_ERROR_FRAMES),
   /** Relative standard uncertainty of the calibration's scale, e.g. 0.005 for 0.5 %. */
   calibrationErrorRel: z
     .number({ error: needs("a fraction") })

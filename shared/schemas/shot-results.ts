@@ -4,6 +4,9 @@ import { z } from "zod";
 // drawn by the Shot readout page, printed by `npm run metrics`. SI throughout (speeds m/s, lengths
 // mm, energies J, times ms); angles in degrees. `uncertainty*` is the standard uncertainty u
 // (value ± u); `interval95*` the 95 % coverage interval; null where it could not be estimated.
+// `smoothingBias*` is the smoothing's estimated bias at that result (value − truth), already inside
+// u and the interval (docs/decisions/140-cutoff-and-smoothing-bias.md). Fields marked optional are
+// missing from results stored by engines before mechanics-1.2.0.
 
 const u = z.number().nonnegative().nullable();
 const interval = z.tuple([z.number(), z.number()]).nullable();
@@ -44,13 +47,17 @@ export const ShotResults = z.object({
       valueMps: z.number(),
       uncertaintyMps: u,
       interval95Mps: interval,
-      /** Frame the speed is taken at (the puck-strike frame, or the blade's last mark within one marking step before it). */
+      /**
+       * Last frame of the approach the speed is read from: ⌈eventErrorFrames⌉ frames before puck
+       * strike (or the blade's last mark within one marking step before that), carried on to the strike.
+       */
       frame: z.number().int(),
       /** Blade point used: midpoint of heel and toe, or the one that was marked. */
       point: z.enum(["midpoint", "heel", "toe"]),
+      smoothingBiasMps: z.number().optional(),
     })
     .nullable(),
-  peakBend: z.object({ angleDeg: z.number(), uncertaintyDeg: u, interval95Deg: interval, frame: z.number().int() }).nullable(),
+  peakBend: z.object({ angleDeg: z.number(), uncertaintyDeg: u, interval95Deg: interval, frame: z.number().int(), smoothingBiasDeg: z.number().optional() }).nullable(),
   shaftDeflection: z
     .object({
       valueMm: z.number(),
@@ -60,10 +67,16 @@ export const ShotResults = z.object({
       /** Along the chord from the top hand / from the blade heel to the foot of the perpendicular. */
       aMm: z.number(),
       bMm: z.number(),
+      smoothingBiasMm: z.number().optional(),
     })
     .nullable(),
   loadTimeMs: z.number().nullable(),
+  /** From the marked events' own uncertainty (eventErrorFrames); null without an ice strike. */
+  loadTimeUncertaintyMs: u.optional(),
+  loadTimeInterval95Ms: interval.optional(),
   contactTimeMs: z.number(),
+  contactTimeUncertaintyMs: u.optional(),
+  contactTimeInterval95Ms: interval.optional(),
   /** One frame at the capture rate: the resolution of the times. */
   frameTimeMs: z.number(),
   storedEnergy: z
@@ -75,6 +88,7 @@ export const ShotResults = z.object({
       /** Shaft stiffness for a load at the bottom hand, and EI from the flex (bench span). */
       shotStiffnessNPerM: z.number(),
       eiNm2: z.number(),
+      smoothingBiasJ: z.number().optional(),
     })
     .nullable(),
   series: z.object({
@@ -96,6 +110,8 @@ export const ShotResults = z.object({
     seed: z.string(),
     pixelErrorPx: z.number(),
     calibrationErrorRel: z.number(),
+    /** Frames either way each marked event may be off (uniform). */
+    eventErrorFrames: z.number().optional(),
     coverage: z.literal(0.95),
   }),
   calibration: z.object({

@@ -36,14 +36,15 @@ const expected = {
   imperial: { speed: (v: number) => [v / 0.44704, "mph"], energy: (v: number) => [v / 1.3558179483, "ft·lbf"] },
 } as const;
 
-async function expectCards(page: Page, r: { puckExitSpeed: { valueMps: number; uncertaintyMps: number }; bladeSpeedAtStrike: { valueMps: number; uncertaintyMps: number }; peakBend: { angleDeg: number; uncertaintyDeg: number }; loadTimeMs: number; contactTimeMs: number; frameTimeMs: number; storedEnergy: { valueJ: number; uncertaintyJ: number } }, units: "metric" | "imperial") {
+async function expectCards(page: Page, r: { puckExitSpeed: { valueMps: number; uncertaintyMps: number }; bladeSpeedAtStrike: { valueMps: number; uncertaintyMps: number }; peakBend: { angleDeg: number; uncertaintyDeg: number }; loadTimeMs: number; contactTimeMs: number; loadTimeUncertaintyMs?: number; contactTimeUncertaintyMs?: number; frameTimeMs: number; storedEnergy: { valueJ: number; uncertaintyJ: number } }, units: "metric" | "imperial") {
   const e = expected[units];
   const rows: [string, number, number, "speed" | "energy" | null, string][] = [
     ["puckExitSpeed", r.puckExitSpeed.valueMps, r.puckExitSpeed.uncertaintyMps, "speed", ""],
     ["bladeSpeedAtStrike", r.bladeSpeedAtStrike.valueMps, r.bladeSpeedAtStrike.uncertaintyMps, "speed", ""],
     ["peakBend", r.peakBend.angleDeg, r.peakBend.uncertaintyDeg, null, "°"],
-    ["loadTime", r.loadTimeMs, r.frameTimeMs, null, "ms"],
-    ["contactTime", r.contactTimeMs, r.frameTimeMs, null, "ms"],
+    // Each time carries its two events' ± (engine mechanics-1.2.0 on), one frame before that.
+    ["loadTime", r.loadTimeMs, r.loadTimeUncertaintyMs ?? r.frameTimeMs, null, "ms"],
+    ["contactTime", r.contactTimeMs, r.contactTimeUncertaintyMs ?? r.frameTimeMs, null, "ms"],
     ["storedEnergy", r.storedEnergy.valueJ, r.storedEnergy.uncertaintyJ, "energy", ""],
   ];
   for (const [key, v, u, kind, fixedUnit] of rows) {

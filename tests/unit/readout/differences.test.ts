@@ -7,7 +7,11 @@ import type { ShotResults } from "../../../shared/schemas/shot-results";
 
 const names = { a: "Shot A", b: "Shot B" };
 const base = computeShot(syntheticShot({ noisePx: 0.2, seed: "diff", flex: null }).doc, { trials: 40 });
-const withTimes = (load: number, contact: number, frameMs = 0.3125): ShotResults => ({ ...base, loadTimeMs: load, contactTimeMs: contact, frameTimeMs: frameMs });
+// Each event marked to ±1 frame: a time between two events has u = √(2/3) frame (event-timing.ts).
+const withTimes = (load: number, contact: number, frameMs = 0.3125): ShotResults => {
+  const u = frameMs * Math.sqrt(2 / 3);
+  return { ...base, loadTimeMs: load, contactTimeMs: contact, frameTimeMs: frameMs, loadTimeUncertaintyMs: u, contactTimeUncertaintyMs: u };
+};
 
 describe("differences", () => {
   it("says which shot loaded the stick longer and which released sooner", () => {
@@ -21,7 +25,7 @@ describe("differences", () => {
   });
 
   it("a difference within twice the combined uncertainty names no winner", () => {
-    // One frame at 1000 fps on each side: u = √2 ms combined; 2 ms is inside 2u = 2.83 ms.
+    // 1000 fps, events to ±1 frame: u = 0.82 ms a shot, 1.15 ms combined; 2 ms is inside 2u = 2.31 ms.
     const d = difference(metricDef("loadTime"), withTimes(25, 30, 1), withTimes(27, 30, 1), "metric", names);
     expect(d).toMatchObject({ clear: false, winner: null, sentence: "Load time about the same (within the measurement)" });
   });
