@@ -7,6 +7,7 @@ import { runTracking } from "./shot-track";
 import { sweepTracking } from "./track-sweep";
 import { announceGraceEnded } from "../billing/sync";
 import { removeEndedWindows } from "../security/rate-limit-store";
+import { recomputeOutdatedResults } from "../shots/results";
 
 export interface JobContext {
   jobId: string;
@@ -24,6 +25,8 @@ export const handlers: { [N in JobName]?: JobHandler<N> } = {
     await sweepTracking(ctx.log);
     await announceGraceEnded(ctx.log);
     await removeEndedWindows();
+    const recomputed = await recomputeOutdatedResults();
+    if (recomputed) ctx.log.info({ recomputed }, "results from an earlier engine computed again");
   },
   "shot.track": async ({ runId }, ctx) => {
     await runTracking(runId, { jobId: ctx.jobId, log: ctx.log, lastAttempt: ctx.retryCount >= jobPolicies["shot.track"].retryLimit });

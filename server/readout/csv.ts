@@ -3,7 +3,7 @@
 // fields quoted only when they hold a comma, quote or line break (docs/decisions/092-*).
 import { makeCalibration, type CalibrationMap } from "../../shared/mechanics/calibration";
 import { engineCalibration, LANDMARKS, landmarkLabels, type ClipCalibration, type ShotMarks } from "../../shared/schemas/shots";
-import { METRICS, convert, frameTimeMs, unitOf } from "../../shared/schemas/readout";
+import { METRICS, convert, eventTimingText, frameTimeMs, unitOf } from "../../shared/schemas/readout";
 import type { ShotResults } from "../../shared/schemas/shot-results";
 import type { UnitSystem } from "../../shared/units";
 
@@ -66,15 +66,17 @@ export function resultsCsv(r: ShotResults, units: UnitSystem): string {
     bladeSpeedAtStrike: r.bladeSpeedAtStrike?.interval95Mps ?? null,
     peakBend: r.peakBend?.interval95Deg ?? null,
     storedEnergy: r.storedEnergy?.interval95J ?? null,
+    loadTime: r.loadTimeInterval95Ms ?? null,
+    contactTime: r.contactTimeInterval95Ms ?? null,
   };
   const notes = (prefix: string) => r.notes.filter((n) => n.code.startsWith(prefix)).map((n) => n.message).join("; ") || null;
   const noteFor: Record<string, string | null> = {
     puckExitSpeed: notes("PUCK_"),
     bladeSpeedAtStrike: notes("BLADE_"),
-    peakBend: null,
-    loadTime: "uncertainty is one frame at the capture rate",
-    contactTime: [notes("CONTACT_"), "uncertainty is one frame at the capture rate"].filter(Boolean).join("; "),
-    storedEnergy: null,
+    peakBend: notes("BEND_"),
+    loadTime: `times ${eventTimingText(r)}`,
+    contactTime: [notes("CONTACT_"), `times ${eventTimingText(r)}`].filter(Boolean).join("; "),
+    storedEnergy: notes("STORED_"),
   };
   for (const m of METRICS) {
     const v = m.read(r);
@@ -92,6 +94,6 @@ export function resultsCsv(r: ShotResults, units: UnitSystem): string {
     rows.push(["Shaft deflection", c(d.valueMm), d.uncertaintyMm === null ? null : c(d.uncertaintyMm), d.interval95Mm ? c(d.interval95Mm[0]) : null, d.interval95Mm ? c(d.interval95Mm[1]) : null, unitOf("length", units), null]);
   }
   rows.push(["Frame time", r3(r.frameTimeMs), null, null, null, "ms", "one frame at the capture rate"]);
-  for (const n of r.notes.filter((x) => !/^(PUCK_|BLADE_|CONTACT_)/.test(x.code))) rows.push(["Note", null, null, null, null, null, n.message]);
+  for (const n of r.notes.filter((x) => !/^(PUCK_|BLADE_|CONTACT_|BEND_|STORED_)/.test(x.code))) rows.push(["Note", null, null, null, null, null, n.message]);
   return csvLines([header, ...rows]);
 }

@@ -125,6 +125,17 @@ export async function shotIdsOfClip(clipId: string) {
   return (await db().select({ id: shot.id }).from(shot).where(eq(shot.clipId, clipId))).map((r) => r.id);
 }
 
+/** Shots whose stored result came from another engine version (oldest first), at most `limit`. */
+export async function shotIdsWithResultsOtherThan(engineVersion: string, limit: number) {
+  const rows = await db()
+    .select({ id: shotResult.shotId })
+    .from(shotResult)
+    .where(sql`${shotResult.engineVersion} <> ${engineVersion}`)
+    .orderBy(asc(shotResult.computedAt))
+    .limit(limit);
+  return rows.map((r) => r.id);
+}
+
 export async function shotIdsOfStick(stickId: string) {
   return (await db().select({ id: shot.id }).from(shot).where(eq(shot.stickId, stickId))).map((r) => r.id);
 }

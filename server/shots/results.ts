@@ -58,6 +58,16 @@ export async function recomputeShot(shotId: string): Promise<StoredResult | null
   });
 }
 
+/**
+ * Results stored by an earlier engine are computed again (a batch per clip sweep), so the readout,
+ * the PDF and the CSV show what the Digitise preview — always the current engine — shows.
+ */
+export async function recomputeOutdatedResults(limit = 200): Promise<number> {
+  const ids = await repo.shotIdsWithResultsOtherThan(ENGINE_VERSION, limit);
+  for (const id of ids) await recomputeShot(id);
+  return ids.length;
+}
+
 /** After the clip's calibration changed. */
 export async function recomputeShotsOfClip(clipId: string): Promise<void> {
   for (const id of await repo.shotIdsOfClip(clipId)) await recomputeShot(id);

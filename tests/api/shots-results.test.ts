@@ -116,4 +116,19 @@ describe("recompute on every change", () => {
     expect(r.json.storedResult.results).toBeNull();
     expect(r.json.storedResult.error).toMatch(/at least 3 puck marks from release on \(2 so far\)/);
   });
+
+  it("results stored by an earlier engine are computed again by the clip sweep's batch", async () => {
+    const { clipId, shotId, s } = await digitisedShot();
+    await analyst.put(`${T()}/clips/${clipId}/calibration`, { calibration: s.calibration });
+    const { db } = await import("../../server/db/client");
+    const { shotResult } = await import("../../server/db/schema");
+    const { eq } = await import("drizzle-orm");
+    await db().update(shotResult).set({ engineVersion: "mechanics-0.9.0" }).where(eq(shotResult.shotId, shotId));
+    expect((await analyst.get(`${T()}/shots/${shotId}`)).json.storedResult.engineVersion).toBe("mechanics-0.9.0");
+    const { recomputeOutdatedResults } = await import("../../server/shots/results");
+    expect(await recomputeOutdatedResults(1000)).toBeGreaterThanOrEqual(1);
+    const got = (await analyst.get(`${T()}/shots/${shotId}`)).json.storedResult;
+    expect(got.engineVersion).toBe(ENGINE_VERSION);
+    expect(got.results.contactTimeUncertaintyMs).toBeGreaterThan(0);
+  });
 });

@@ -1,7 +1,7 @@
 import { FLIGHT_WINDOW_MS } from "../../../shared/mechanics/compute-shot";
 import { Document, Image, Page, StyleSheet, Text, View } from "@react-pdf/renderer";
 import { eventLabels, type ShotEventKey } from "../../../shared/schemas/shots";
-import { METRICS, convert, formatValue, metricText, noteMetric, shotTitle, shotTypeLabels, unitOf, type ShotReadout } from "../../../shared/schemas/readout";
+import { METRICS, convert, eventTimingText, formatValue, metricText, noteMetric, shotTitle, shotTypeLabels, unitOf, type ShotReadout } from "../../../shared/schemas/readout";
 import type { UnitSystem } from "../../../shared/units";
 import { ReportChart } from "./charts";
 import { FONT } from "./fonts";
@@ -134,8 +134,8 @@ export function ShotReport({ readout: r, units, teamName, url, generatedAt, thum
         )}
         <Text style={[s.small, { marginTop: 8 }]}>
           Method: zero-lag 2nd-order Butterworth (two passes) on the digitised marks; puck exit speed from a straight-line fit to the puck marks of the first {FLIGHT_WINDOW_MS} ms of flight
-          after release; uncertainties from {res.uncertainty.trials} Monte Carlo trials at {res.uncertainty.pixelErrorPx} px per mark. Times are good to one frame (
-          {res.frameTimeMs.toFixed(2)} ms). {shaftLine(r, units)}
+          after release; uncertainties from {res.uncertainty.trials} Monte Carlo trials at {res.uncertainty.pixelErrorPx} px per mark, with the smoothing's
+          estimated bias; times {eventTimingText(res)}. {shaftLine(r, units)}
         </Text>
 
         <View style={s.footer} fixed>

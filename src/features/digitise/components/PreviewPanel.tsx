@@ -1,4 +1,5 @@
 import type { StoredResult } from "@shared/schemas/shots";
+import { formatWithU, metricDef, metricText, type MetricKey } from "@shared/schemas/readout";
 import type { ShotResults } from "@shared/schemas/shot-results";
 import { useUnits } from "@/lib/units";
 import type { Preview } from "../preview/usePreview";
@@ -33,19 +34,25 @@ export function PreviewPanel({ preview, stored, version }: { preview: Preview; s
 }
 
 function Numbers({ r, px, units }: { r: ShotResults; px: boolean; units: ReturnType<typeof useUnits> }) {
-  // Without a calibration the engine ran at 1 mm per px: "m/s" then means px per ms.
-  const speed = (v: number | undefined, u: number | null | undefined) =>
-    v === undefined ? "—" : px ? `${nf(v * 1000, 0)}${u ? ` ± ${nf(u * 1000, 0)}` : ""} px/s` : units.formatPm("speed", v, u);
+  // Calibrated: the readout's own wording (metricText), so a number and its ± read the same here,
+  // on the readout, in the PDF and in the CSV. Without a calibration the engine ran at 1 mm per px:
+  // "m/s" then means px per ms.
+  const metric = (key: MetricKey) => metricText(metricDef(key), r, units.system)?.full ?? "—";
+  const pxSpeed = (v: number | undefined, u: number | null | undefined) => (v === undefined ? "—" : `${nf(v * 1000, 0)}${u ? ` ± ${nf(u * 1000, 0)}` : ""} px/s`);
   const length = (v: number | undefined, u: number | null | undefined) =>
-    v === undefined ? "—" : px ? `${nf(v, 1)}${u ? ` ± ${nf(u, 1)}` : ""} px` : units.formatPm("length", v, u);
+    v === undefined ? "—" : px ? `${nf(v, 1)}${u ? ` ± ${nf(u, 1)}` : ""} px` : formatWithU("length", v, u, units.system);
   const rows: [string, string, string?][] = [
-    ["Puck exit speed", speed(r.puckExitSpeed.valueMps, r.puckExitSpeed.uncertaintyMps), `${r.puckExitSpeed.marksUsed} marks from frame ${r.puckExitSpeed.fromFrame}`],
-    ["Blade speed at strike", r.bladeSpeedAtStrike ? speed(r.bladeSpeedAtStrike.valueMps, r.bladeSpeedAtStrike.uncertaintyMps) : "—", r.bladeSpeedAtStrike ? `frame ${r.bladeSpeedAtStrike.frame}` : undefined],
-    ["Peak bend", r.peakBend ? `${nf(r.peakBend.angleDeg, 1)}°${r.peakBend.uncertaintyDeg ? ` ± ${nf(r.peakBend.uncertaintyDeg, 1)}°` : ""}` : "—", r.peakBend ? `frame ${r.peakBend.frame}` : undefined],
+    ["Puck exit speed", px ? pxSpeed(r.puckExitSpeed.valueMps, r.puckExitSpeed.uncertaintyMps) : metric("puckExitSpeed"), `${r.puckExitSpeed.marksUsed} marks from frame ${r.puckExitSpeed.fromFrame}`],
+    [
+      "Blade speed at strike",
+      r.bladeSpeedAtStrike ? (px ? pxSpeed(r.bladeSpeedAtStrike.valueMps, r.bladeSpeedAtStrike.uncertaintyMps) : metric("bladeSpeedAtStrike")) : "—",
+      r.bladeSpeedAtStrike ? `frame ${r.bladeSpeedAtStrike.frame}` : undefined,
+    ],
+    ["Peak bend", metric("peakBend"), r.peakBend ? `frame ${r.peakBend.frame}` : undefined],
     ["Shaft deflection", r.shaftDeflection ? length(r.shaftDeflection.valueMm, r.shaftDeflection.uncertaintyMm) : "—"],
-    ["Load time", r.loadTimeMs === null ? "—" : `${nf(r.loadTimeMs, 1)} ms`],
-    ["Contact time", `${nf(r.contactTimeMs, 1)} ms`, `± ${nf(r.frameTimeMs, 2)} ms a frame`],
-    ["Stored energy", r.storedEnergy && !px ? units.formatPm("energy", r.storedEnergy.valueJ, r.storedEnergy.uncertaintyJ) : "—", r.storedEnergy ? undefined : "needs a stick with a flex"],
+    ["Load time", metric("loadTime")],
+    ["Contact time", metric("contactTime"), `events ±${r.uncertainty.eventErrorFrames ?? 1} frame`],
+    ["Stored energy", r.storedEnergy && !px ? metric("storedEnergy") : "—", r.storedEnergy ? undefined : "needs a stick with a flex"],
   ];
   return (
     <>

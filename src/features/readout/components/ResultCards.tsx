@@ -1,4 +1,4 @@
-import { METRICS, formatValue, metricText, noteMetric, type MetricKey, type ShotReadout } from "@shared/schemas/readout";
+import { METRICS, eventTimingText, formatValue, metricText, noteMetric, type MetricKey, type ShotReadout } from "@shared/schemas/readout";
 import type { ShotResults } from "@shared/schemas/shot-results";
 import type { UnitSystem } from "@shared/units";
 import type { ShotStickInfo } from "@shared/schemas/shots";
@@ -54,7 +54,7 @@ export function ResultCards({ results, units, stick }: { results: ShotResults; u
             )}
             <p className="mt-2 text-sm text-ink-faint">
               {m.hint}
-              {(m.key === "loadTime" || m.key === "contactTime") && t ? " ± one frame." : ""}
+              {(m.key === "loadTime" || m.key === "contactTime") && t ? ` Times ${eventTimingText(results)}.` : ""}
             </p>
             {m.key === "peakBend" && results.shaftDeflection && (
               <p className="mt-1 text-sm text-ink-muted">Shaft deflection {formatValue("length", results.shaftDeflection.valueMm, units)}</p>

@@ -7,7 +7,7 @@ import { errorMessage, isApiError } from "@/lib/api";
 import { formatDate } from "@/lib/format";
 import { useActiveTeam } from "@/lib/session";
 import { useUnits } from "@/lib/units";
-import { noteMetric, shotTitle, shotTypeLabels, type ShotReadout } from "@shared/schemas/readout";
+import { eventTimingText, noteMetric, shotTitle, shotTypeLabels, type ShotReadout } from "@shared/schemas/readout";
 import { useReadout } from "../api/readout";
 import { useUnshareShot } from "../api/shareShot";
 import { ExportButtons } from "../components/ExportButtons";
@@ -116,8 +116,8 @@ function Readout({ teamId, teamName, r }: { teamId: string; teamName: string; r:
           <PhaseTimeline teamId={teamId} readout={r} />
           <ShotCharts readout={r} results={r.results} units={system} />
           <p className="text-sm text-ink-faint">
-            Values are ± one standard uncertainty ({r.results.uncertainty.trials} Monte Carlo trials at {r.results.uncertainty.pixelErrorPx} px per mark); times are good to one frame
-            ({r.results.frameTimeMs.toFixed(2)} ms at {r.clip.captureFps.toLocaleString()} fps). Computed {r.computedAt ? formatDate(r.computedAt) : ""} by {r.results.engineVersion}.
+            Values are ± one standard uncertainty ({r.results.uncertainty.trials} Monte Carlo trials at {r.results.uncertainty.pixelErrorPx} px per mark, with the smoothing's estimated
+            bias); times {eventTimingText(r.results)} at {r.clip.captureFps.toLocaleString()} fps. Computed {r.computedAt ? formatDate(r.computedAt) : ""} by {r.results.engineVersion}.
           </p>
         </div>
       ) : (
