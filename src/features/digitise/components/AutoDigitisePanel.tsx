@@ -30,8 +30,9 @@ export function AutoDigitisePanel({ store, teamId, shotId, canEdit }: Props) {
   const live = run?.status === "queued" || run?.status === "running";
   return (
     <Panel title="Auto-digitise" aside={run?.status === "done" ? <span className="text-xs text-ink-faint">seeds on frame {run.seedFrame}</span> : undefined}>
-      {live && run ? <Progress run={run} teamId={teamId} shotId={shotId} canEdit={canEdit} /> : <Seeds store={store} teamId={teamId} shotId={shotId} canEdit={canEdit} again={!!run} />}
+      {/* What the last run proposed comes first; seeds for another run below it. */}
       {run && !live && <Outcome run={run} store={store} canEdit={canEdit} />}
+      {live && run ? <Progress run={run} teamId={teamId} shotId={shotId} canEdit={canEdit} /> : <Seeds store={store} teamId={teamId} shotId={shotId} canEdit={canEdit} again={!!run} />}
     </Panel>
   );
 }
@@ -44,7 +45,7 @@ function Seeds({ store, teamId, shotId, canEdit, again }: Props & { again: boole
   const placed = LANDMARKS.filter((k) => markAt(s.marks[k], s.frame));
   const seeds = Object.fromEntries(placed.map((k) => [k, [markAt(s.marks[k], s.frame)![1], markAt(s.marks[k], s.frame)![2]]]));
   return (
-    <div className="flex flex-col gap-2" data-testid="auto-seeds">
+    <div className={cn("flex flex-col gap-2", again && "mt-3 border-t border-line pt-3")} data-testid="auto-seeds">
       {s.seeding ? (
         <div className="rounded-md border border-accent/40 bg-accent-soft px-3 py-2 text-sm text-ink" role="status" data-testid="seed-prompt">
           Click the <b style={{ color: "inherit" }}>{landmarkLabels[s.active].toLowerCase()}</b> on the picture.
@@ -58,9 +59,11 @@ function Seeds({ store, teamId, shotId, canEdit, again }: Props & { again: boole
           </span>
         </div>
       ) : (
-        <p className="text-sm text-ink-muted">
-          Place the landmarks on one frame; the server follows each through the whole shot and proposes the events.
-        </p>
+        !again && (
+          <p className="text-sm text-ink-muted">
+            Place the landmarks on one frame; the server follows each through the whole shot and proposes the events.
+          </p>
+        )
       )}
       <ul className="flex flex-wrap gap-1" aria-label={`Landmarks on frame ${s.frame}`}>
         {LANDMARKS.map((k) => {
@@ -157,7 +160,26 @@ function Review({ p, store, canEdit }: { p: TrackingProposals; store: DigitiseSt
     store.acceptProposals(a.marks, a.events, bar ?? undefined);
   };
   return (
-    <div className="mt-3 flex flex-col gap-3" data-testid="proposals">
+    <div className="flex flex-col gap-3" data-testid="proposals">
+      {canEdit && (
+        <div className="flex flex-wrap gap-1.5 ">
+          <button type="button" className={primary} disabled={nothingLeft} onClick={acceptAll} data-testid="accept-all">
+            Accept all{bar ? " with the scale bar" : ""}
+          </button>
+          <button
+            type="button"
+            className={btn}
+            disabled={!pending}
+            onClick={() => {
+              const a = acceptance(p, doc, { upTo: s.frame });
+              store.acceptProposals(a.marks, a.events);
+            }}
+          >
+            Accept up to frame {s.frame}
+          </button>
+        </div>
+      )}
+      {nothingLeft && <p className="text-xs text-ink-muted">Everything proposed is in the shot. Move any mark or event that is off; the numbers follow.</p>}
       <ul className="flex flex-col gap-0.5" aria-label="Proposed tracks">
         {tracked.map((k) => {
           const t = p.tracks[k]!;
@@ -237,25 +259,6 @@ function Review({ p, store, canEdit }: { p: TrackingProposals; store: DigitiseSt
           )}
         </div>
       )}
-      {canEdit && (
-        <div className="flex flex-wrap gap-1.5 border-t border-line pt-2">
-          <button type="button" className={primary} disabled={nothingLeft} onClick={acceptAll} data-testid="accept-all">
-            Accept all{bar ? " with the scale bar" : ""}
-          </button>
-          <button
-            type="button"
-            className={btn}
-            disabled={!pending}
-            onClick={() => {
-              const a = acceptance(p, doc, { upTo: s.frame });
-              store.acceptProposals(a.marks, a.events);
-            }}
-          >
-            Accept up to frame {s.frame}
-          </button>
-        </div>
-      )}
-      {nothingLeft && <p className="text-xs text-ink-muted">Everything proposed is in the shot. Move any mark or event that is off; the numbers follow.</p>}
     </div>
   );
 }

@@ -23,7 +23,7 @@ declare global {
  */
 export function FrameViewer({ store, cache, extraOverlay }: { store: DigitiseStore; cache: FrameCache<ImageBitmap>; extraOverlay?: React.ReactNode }) {
   const box = useRef<HTMLDivElement>(null);
-  const s = useDigitise(store, (st) => ({ frame: st.frame, view: st.view, stage: st.stage, frameSize: st.frameSize, cursor: st.cursor }));
+  const s = useDigitise(store, (st) => ({ frame: st.frame, view: st.view, stage: st.stage, frameSize: st.frameSize, cursor: st.cursor, seeding: st.seeding }));
   const [, rerender] = useReducer((n: number) => n + 1, 0);
   const shown = useRef<{ frame: number; img: ImageBitmap } | null>(null);
 
@@ -39,6 +39,11 @@ export function FrameViewer({ store, cache, extraOverlay }: { store: DigitiseSto
   useEffect(() => {
     void cache.focus(s.frame).catch(() => {});
   }, [cache, s.frame]);
+  // Placing seeds starts from a panel that sits below the picture on phones: bring the picture back
+  // into view, clear of the sticky header (scroll-mt).
+  useEffect(() => {
+    if (s.seeding) box.current?.scrollIntoView?.({ block: "nearest" });
+  }, [s.seeding]);
   useEffect(() => cache.onLoaded((f) => f === store.getState().frame && rerender()), [cache, store]);
 
   const img = cache.get(s.frame);
@@ -137,7 +142,7 @@ export function FrameViewer({ store, cache, extraOverlay }: { store: DigitiseSto
       data-frame={current?.frame ?? ""}
       data-cached-frames={cache.size}
       data-view={`${view.zoom} ${view.panX} ${view.panY}`}
-      className="relative h-full w-full touch-none overflow-hidden bg-[#101517] outline-none select-none"
+      className="relative h-full w-full scroll-mt-28 touch-none overflow-hidden bg-[#101517] outline-none select-none"
       style={{ cursor: s.cursor }}
     >
       {stage.width > 0 && (
