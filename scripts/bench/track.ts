@@ -4,7 +4,11 @@
 // run: the tracker's own matchTemplate calls replayed alone, and one 68×68 window in OpenCV and in
 // plain JavaScript (the same score). Prints figures; asserts nothing. Matching runs on one core; sharp is limited to
 // one thread per image, though the two frames fetched ahead may decode at once in the libuv pool.
-//   npm run bench:track [-- --frames 240 --rounds 3]
+// Then the auto-digitise job end to end beside its own raw baseline (track-job.ts), which needs
+// the private cluster: without PG_ADMIN_URL this re-runs itself through scripts/with-db.
+//   npm run bench:track [-- --frames 240 --rounds 3 --only assist|job]
+//   npm run bench:track -- --only job --smoke   (the job part on a 44-frame shot, once: checks the bench runs)
+import { spawnSync } from "node:child_process";
 import { closeSync, openSync, readSync } from "node:fs";
 import { mkdtemp, readdir, rm, writeFile } from "node:fs/promises";
 import os from "node:os";
@@ -18,6 +22,13 @@ import type { FrameSource, GrayFrame, TrackRequest } from "../../shared/tracking
 import { errorStats } from "../../tests/unit/tracking/support/metrics";
 import { directNcc } from "../../tests/unit/tracking/support/direct-ncc";
 import { ballistic, barClip, discClip, memorySource, renderGray, type ClipSpec } from "../../tests/unit/tracking/support/synthetic-clips";
+import { TRACK_SHOTS } from "../../tests/unit/tracking/support/shot-clips";
+import { benchTrackJob } from "./track-job";
+
+if (!process.env.PG_ADMIN_URL && !process.argv.includes("assist")) {
+  const r = spawnSync("scripts/with-db", [process.execPath, "--import", "tsx", "scripts/bench/track.ts", ...process.argv.slice(2)], { stdio: "inherit" });
+  process.exit(r.status ?? 1);
+}
 
 const arg = (name: string, fallback: number) => {
   const i = process.argv.indexOf(`--${name}`);
@@ -25,6 +36,7 @@ const arg = (name: string, fallback: number) => {
 };
 const FRAMES = arg("frames", 240);
 const ROUNDS = arg("rounds", 5);
+const ONLY = process.argv.includes("--only") ? process.argv[process.argv.indexOf("--only") + 1] : null;
 const [W, H] = [1280, 720];
 const TEMPLATE = 48;
 
@@ -78,6 +90,12 @@ async function runTrackWith(spec: ClipSpec, frames: FrameSource, turning: boolea
 }
 
 async function main() {
+  if (ONLY !== "job") await assist();
+  if (process.argv.includes("--smoke")) await benchTrackJob(1, TRACK_SHOTS[240]);
+  else if (ONLY !== "assist") await benchTrackJob(Math.max(3, Math.min(ROUNDS, 5)));
+}
+
+async function assist() {
   sharp.concurrency(1);
   const dir = await mkdtemp(path.join(os.tmpdir(), "bench-track-"));
   try {
