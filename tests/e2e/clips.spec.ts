@@ -1,5 +1,5 @@
 import { execFileSync } from "node:child_process";
-import { mkdtempSync } from "node:fs";
+import { mkdirSync, mkdtempSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { expect, test } from "@playwright/test";
@@ -82,4 +82,33 @@ test("thirty quick arrow presses on the Clip page move exactly thirty frames, an
   await expect(box).toHaveValue("120");
   await expect(page.getByTestId("frame-image")).toHaveAttribute("data-frame", "120");
   await expect(page).toHaveURL(/frame=120/);
+});
+
+test("a folder of numbered lab frames goes up as one ZIP: the capture rate is asked for, then every frame is extracted", async ({ page }) => {
+  const dir = path.join(mkdtempSync(path.join(os.tmpdir(), "lf-e2e-")), "lab-run-12");
+  mkdirSync(dir);
+  execFileSync("ffmpeg", ["-hide_banner", "-loglevel", "error", "-nostdin", "-y", "-f", "lavfi", "-i", "testsrc2=size=320x240:rate=25",
+    "-frames:v", "24", path.join(dir, "run12_%05d.png")]);
+  writeFileSync(path.join(dir, "camera-settings.txt"), "shutter 1/20000");
+  await signIn(page, "coach@ravens.example");
+  await page.goto("/clips");
+  await page.getByTestId("clip-folder-input").setInputFiles(dir);
+
+  const item = page.getByRole("listitem", { name: "Upload of lab-run-12.zip" });
+  await expect(item.getByText("Image sequence")).toBeVisible();
+  await expect(item.getByText("24 frames", { exact: false })).toBeVisible();
+  await item.getByLabel("Player").selectOption({ label: "Theo Marchetti" });
+  await item.getByLabel("Shot type").selectOption("slap");
+  await item.getByLabel("Venue").fill("Lakeport Arena, lab corner");
+  await item.getByRole("button", { name: "Upload" }).click();
+  await expect(item.getByText("Type the rate the camera recorded at", { exact: false })).toBeVisible();
+  await item.getByLabel("Capture frame rate (fps)").fill("2000");
+  await item.getByRole("button", { name: "Upload" }).click();
+
+  await expect(item.getByText("Stored", { exact: true })).toBeVisible({ timeout: 30_000 });
+  await expect(item.getByText("captured at 2,000 fps", { exact: false })).toBeVisible();
+  await expect(item.getByRole("progressbar")).toHaveAttribute("aria-valuenow", "100", { timeout: 30_000 });
+  const row = page.locator("tr", { hasText: "lab-run-12" });
+  await expect(row).toContainText("2,000 fps");
+  await expect(row).toContainText("24");
 });

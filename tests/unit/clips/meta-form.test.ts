@@ -16,6 +16,19 @@ describe("the upload form on the shared schema", () => {
     const r = validateMeta({ ...emptyMeta(), playerId: "u1", shotType: "slap", captureFpsConfirmed: true });
     expect(r.meta?.captureFpsConfirmed).toBe(false);
   });
+  it("an image sequence needs its rate typed, and typing it confirms it", () => {
+    const base = { ...emptyMeta(), playerId: "u1", shotType: "slap" as const };
+    expect(validateMeta(base, { sequence: true }).errors?.captureFps).toMatch(/rate the camera recorded at/);
+    expect(validateMeta({ ...base, captureFps: "5000" }, { sequence: true }).meta).toMatchObject({ captureFps: 5000, captureFpsConfirmed: true });
+    expect(validateMeta(base).meta?.captureFps).toBeUndefined();
+  });
+  it("a sequence's refusals are unusable files; its missing rate goes to the rate field", () => {
+    const res = (status: number, body: unknown) => ({ originalResponse: { getStatus: () => status, getBody: () => JSON.stringify(body) } });
+    expect(classifyUploadError(res(422, { code: "sequence_gap", detail: "r_2.png is followed by r_5.png" }))).toMatchObject({ kind: "invalid_file", message: "r_2.png is followed by r_5.png" });
+    const rate = classifyUploadError(res(422, { code: "sequence_rate_missing", detail: "x", errors: [{ path: "captureFps", message: "Type the rate" }] }));
+    expect(rate.kind).toBe("invalid_details");
+    expect(errorsFrom(rate.fields)).toEqual({ captureFps: "Type the rate" });
+  });
   it("maps server field paths to form fields", () => {
     expect(errorsFrom([{ path: "sessionId", message: "x" }, { path: "newSession.venue", message: "y" }])).toEqual({ session: "x", newVenue: "y" });
   });

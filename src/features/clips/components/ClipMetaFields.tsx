@@ -11,10 +11,12 @@ interface Props {
   disabled?: boolean;
   /** Prefix for element ids, one per form on the page. */
   idPrefix: string;
+  /** An image sequence: the capture rate is required and typing it confirms it. */
+  sequence?: boolean;
 }
 
 /** The details of one clip: who shoots, when and where, the camera and, above all, its capture rate. */
-export function ClipMetaFields({ values: v, errors: e, options, onChange, disabled, idPrefix }: Props) {
+export function ClipMetaFields({ values: v, errors: e, options, onChange, disabled, idPrefix, sequence }: Props) {
   const id = (name: string) => `${idPrefix}-${name}`;
   const text = (name: keyof MetaFormValues) => ({
     id: id(name), value: v[name] as string, disabled,
@@ -75,29 +77,36 @@ export function ClipMetaFields({ values: v, errors: e, options, onChange, disabl
 
       <Field
         label="Capture frame rate (fps)"
+        required={sequence}
         error={e.captureFps}
-        hint="The rate the camera recorded at, e.g. 3,200 for a lab camera or 240 for phone slow motion. Leave empty to decide once the file is checked."
+        hint={
+          sequence
+            ? "Numbered frames carry no rate: type the rate the camera recorded at (e.g. 3,200). Each frame's time is its number ÷ this rate."
+            : "The rate the camera recorded at, e.g. 3,200 for a lab camera or 240 for phone slow motion. Leave empty to decide once the file is checked."
+        }
         className="sm:col-span-2 lg:col-span-1"
       >
         <Input inputMode="decimal" placeholder="e.g. 3200" {...text("captureFps")} />
       </Field>
-      <div className="flex items-start pt-7 sm:col-span-2 lg:col-span-2">
-        <label className="flex items-start gap-2 text-sm text-ink">
-          <input
-            type="checkbox"
-            className="mt-0.5 size-4 accent-[var(--color-accent)]"
-            checked={v.captureFpsConfirmed}
-            disabled={disabled || v.captureFps.trim() === ""}
-            onChange={(ev) => onChange({ captureFpsConfirmed: ev.target.checked })}
-          />
-          <span>
-            I confirm this is the capture rate
-            <span className="block text-ink-muted">
-              Files often store a playback rate (30 or 60 fps). Every speed is worked out from the capture rate, so only tick this when you know it.
+      {!sequence && (
+        <div className="flex items-start pt-7 sm:col-span-2 lg:col-span-2">
+          <label className="flex items-start gap-2 text-sm text-ink">
+            <input
+              type="checkbox"
+              className="mt-0.5 size-4 accent-[var(--color-accent)]"
+              checked={v.captureFpsConfirmed}
+              disabled={disabled || v.captureFps.trim() === ""}
+              onChange={(ev) => onChange({ captureFpsConfirmed: ev.target.checked })}
+            />
+            <span>
+              I confirm this is the capture rate
+              <span className="block text-ink-muted">
+                Files often store a playback rate (30 or 60 fps). Every speed is worked out from the capture rate, so only tick this when you know it.
+              </span>
             </span>
-          </span>
-        </label>
-      </div>
+          </label>
+        </div>
+      )}
 
       <Field label="Stick" error={e.stickId}>
         <Select {...text("stickId")}>

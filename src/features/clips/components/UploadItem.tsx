@@ -8,6 +8,7 @@ import { useClipProgress } from "../api/clipProgress";
 import { clipOptionsKey, clipsKey } from "../api/keys";
 import { formatBytes, formatCount, formatFps } from "../format";
 import { createClipUpload, rememberedMeta, type ClipUpload, type UploadProblem } from "../upload/clipUpload";
+import { isSequenceFile } from "../upload/folderZip";
 import { errorsFrom, fromMeta, validateMeta, type MetaErrors, type MetaFormValues } from "../upload/metaForm";
 import { CaptureRateConfirm } from "./CaptureRateConfirm";
 import { ClipMetaFields } from "./ClipMetaFields";
@@ -31,9 +32,12 @@ interface Props {
   onValues: (v: MetaFormValues) => void;
   onRemove: () => void;
   idPrefix: string;
+  /** Frames in a folder zipped here (an image sequence). */
+  frames?: number;
 }
 
-export function UploadItem({ file, teamId, options, initial, startAll, onValues, onRemove, idPrefix }: Props) {
+export function UploadItem({ file, teamId, options, initial, startAll, onValues, onRemove, idPrefix, frames }: Props) {
+  const sequence = isSequenceFile(file);
   const qc = useQueryClient();
   const [values, setValues] = useState<MetaFormValues>(initial);
   const [errors, setErrors] = useState<MetaErrors>({});
@@ -56,7 +60,7 @@ export function UploadItem({ file, teamId, options, initial, startAll, onValues,
   }, [file, teamId]);
 
   const begin = async () => {
-    const checked = validateMeta(values);
+    const checked = validateMeta(values, { sequence });
     if (!checked.meta) {
       setErrors(checked.errors);
       return;
@@ -114,7 +118,10 @@ export function UploadItem({ file, teamId, options, initial, startAll, onValues,
       <header className="flex flex-wrap items-center justify-between gap-2 border-b border-line px-5 py-3">
         <div className="min-w-0">
           <p className="truncate font-medium text-ink" title={file.name}>{file.name}</p>
-          <p className="text-xs text-ink-muted">{formatBytes(file.size)}</p>
+          <p className="text-xs text-ink-muted">
+            {sequence && <Badge tone="accent" className="mr-2">Image sequence</Badge>}
+            {frames ? `${formatCount(frames)} frames · ` : ""}{formatBytes(file.size)}
+          </p>
         </div>
         <div className="flex items-center gap-2">
           {phase.name === "details" && (
@@ -145,7 +152,7 @@ export function UploadItem({ file, teamId, options, initial, startAll, onValues,
                 An earlier upload of this file was interrupted. Its details are filled in; press Resume upload to continue from where it stopped.
               </Alert>
             )}
-            <ClipMetaFields idPrefix={idPrefix} values={values} errors={errors} options={options} onChange={(p) => setValues((v) => ({ ...v, ...p }))} />
+            <ClipMetaFields idPrefix={idPrefix} sequence={sequence} values={values} errors={errors} options={options} onChange={(p) => setValues((v) => ({ ...v, ...p }))} />
           </>
         )}
         {phase.name === "uploading" && (
@@ -163,8 +170,8 @@ export function UploadItem({ file, teamId, options, initial, startAll, onValues,
             <ProgressBar value={share} tone="warn" label={`Paused · ${bytes}`} />
           </div>
         )}
-        {phase.name === "checking" && <Spinner showLabel label="Checking the video and storing it…" />}
-        {phase.name === "error" && <UploadError problem={phase.problem} sentLabel={bytes} share={share} />}
+        {phase.name === "checking" && <Spinner showLabel label={sequence ? "Checking every frame and storing the sequence…" : "Checking the video and storing it…"} />}
+        {phase.name === "error" && <UploadError problem={phase.problem} sentLabel={bytes} share={share} sequence={sequence} />}
         {phase.name === "done" && <UploadDone teamId={teamId} clip={phase.clip} />}
       </div>
     </li>
@@ -176,11 +183,11 @@ const problemTitle: Record<UploadProblem["kind"], string> = {
   invalid_details: "Check the details", signed_out: "Signed out", not_allowed: "Not allowed", server: "Upload failed",
 };
 
-function UploadError({ problem, sentLabel, share }: { problem: UploadProblem; sentLabel: string; share: number }) {
+function UploadError({ problem, sentLabel, share, sequence }: { problem: UploadProblem; sentLabel: string; share: number; sequence: boolean }) {
   return (
     <div className="flex flex-col gap-2">
       {problem.kind === "network" && <ProgressBar value={share} tone="warn" label={sentLabel} />}
-      <Alert tone={problem.kind === "network" ? "warn" : "danger"} title={problemTitle[problem.kind]}>
+      <Alert tone={problem.kind === "network" ? "warn" : "danger"} title={sequence && problem.kind === "invalid_file" ? "Not a usable sequence" : problemTitle[problem.kind]}>
         <p>{problem.message}</p>
         {problem.existingClipId && (
           <p className="mt-1">

@@ -51,7 +51,9 @@ export function classifyUploadError(err: unknown): UploadProblem {
   if (code === "read_only_unpaid") return p("not_allowed", "The club is read-only until its overdue payment is made.");
   if (code === "too_large" || status === 413) return { ...p("too_large", "The file is too large to upload."), code: "too_large" };
   if (code === "duplicate_clip") return { ...p("duplicate", "This file is already in the team."), existingClipId: body?.existingClipId as string | undefined };
-  if (invalidFileCodes.has(code)) return p("invalid_file", "This file cannot be used as a clip.");
+  // An image sequence without its capture rate: shown at the rate field.
+  if (code === "sequence_rate_missing" && fields.length) return p("invalid_details", "Type the capture rate of this sequence.");
+  if (invalidFileCodes.has(code) || code.startsWith("sequence_")) return p("invalid_file", "This file cannot be used as a clip.");
   if (code === "validation_failed") return p("invalid_details", "Some of the clip's details are not valid.");
   if (status === 401) return p("signed_out", "Your session has ended. Sign in again, then choose the file again to continue.");
   if (status === 403 || status === 404) return p("not_allowed", "You cannot upload clips to this team.");

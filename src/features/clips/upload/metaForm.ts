@@ -59,10 +59,16 @@ export function errorsFrom(problems: FieldProblem[]): MetaErrors {
   return out;
 }
 
-export function validateMeta(v: MetaFormValues): { meta: ClipMeta; errors?: undefined } | { meta?: undefined; errors: MetaErrors } {
-  const r = ClipMetaSchema.safeParse(toInput(v));
-  if (r.success) return { meta: r.data };
-  return { errors: errorsFrom(r.error.issues.map((i) => ({ path: i.path.join("."), message: i.message }))) };
+/**
+ * The form checked against the shared schema. An image sequence (`sequence`) carries no rate of
+ * its own: the typed capture rate is required, and typing it is the confirmation.
+ */
+export function validateMeta(v: MetaFormValues, o: { sequence?: boolean } = {}): { meta: ClipMeta; errors?: undefined } | { meta?: undefined; errors: MetaErrors } {
+  const r = ClipMetaSchema.safeParse(toInput(o.sequence ? { ...v, captureFpsConfirmed: true } : v));
+  const errors = r.success ? {} : errorsFrom(r.error.issues.map((i) => ({ path: i.path.join("."), message: i.message })));
+  if (o.sequence && v.captureFps.trim() === "") errors.captureFps ??= "Type the rate the camera recorded at: numbered frames carry no rate of their own.";
+  if (r.success && !errors.captureFps) return { meta: r.data };
+  return { errors };
 }
 
 /** Back from a remembered upload's details (to resume after a reload without retyping). */
