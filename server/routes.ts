@@ -11,6 +11,7 @@ import { sticksRouter } from "./sticks/routes";
 import { readoutRouter } from "./readout/routes";
 import { billingRouter } from "./billing/routes";
 import { signupRouter } from "./signup/routes";
+import { homeRouter } from "./home/routes";
 
 // Every API router, in one list. Team-scoped features mount on `team` and find the caller's
 // role in req.actor (set by requireTeamMember: non-members get 404, so nothing leaks).
@@ -31,6 +32,7 @@ export function apiRouter() {
   team.use(sticksRouter);
   team.use(readoutRouter);
   team.use(billingRouter);
+  team.use(homeRouter);
   api.use("/teams/:teamId", team);
   return api;
 }

@@ -31,6 +31,13 @@ export async function withSeatLock<T>(teamId: string, fn: () => Promise<T>): Pro
   return withNamedLock(`staff-seats:${club.id}`, fn);
 }
 
+/** How many of the club's staff seats are taken, for the team admin's home. */
+export async function staffSeatUse(teamId: string): Promise<{ used: number; seats: number; planName: string; clubName: string }> {
+  const club = await clubFor(teamId);
+  const plan = PLANS[club.plan];
+  return { used: (await repo.staffEmailsOfClub(club.id)).size, seats: plan.staffSeats, planName: plan.name, clubName: club.name };
+}
+
 /** Refuses a staff role for `email` in the team when the club's plan has no seat left for a new person. */
 export async function assertStaffSeat(teamId: string, email: string, role: string) {
   if (!STAFF.has(role)) return;

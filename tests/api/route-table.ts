@@ -65,6 +65,7 @@ const coreRoutes: RouteCase[] = [
   { name: "cancel invitation", method: "DELETE", path: (c) => `/api/teams/${c.teamId}/invitations/${c.ids.invitationId}`, allowed: ADMIN, teamScoped: true, fixture: invitationFixture },
   { name: "change role", method: "PATCH", path: (c) => `/api/teams/${c.teamId}/members/${c.ids.memberId}`, body: () => ({ role: "analyst" }), allowed: ADMIN, teamScoped: true, fixture: spareMemberFixture },
   { name: "remove member", method: "DELETE", path: (c) => `/api/teams/${c.teamId}/members/${c.ids.memberId}`, allowed: ADMIN, teamScoped: true, fixture: spareMemberFixture },
+  { name: "home", method: "GET", path: (c) => `/api/teams/${c.teamId}/home`, allowed: ALL, teamScoped: true },
   { name: "audit log", method: "GET", path: (c) => `/api/teams/${c.teamId}/audit`, allowed: ADMIN, teamScoped: true },
 ];
 

@@ -1,9 +1,13 @@
 import { Link, useLocation } from "react-router-dom";
-import { Badge, EmptyState, PageHeader } from "@/components/ui";
+import { Badge, EmptyState, LoadError, PageHeader, Spinner } from "@/components/ui";
 import { visibleNav } from "@/app/nav";
 import { roleLabel, roleMeaning } from "@/lib/roles";
 import { useActiveTeam, useSession } from "@/lib/session";
+import { useHome } from "../api/home";
+import { PlayerHome } from "../components/PlayerHome";
+import { TaskList } from "../components/TaskList";
 
+/** Home answers "what needs me now?" for the member's role, then lists the areas they can open. */
 export function Component() {
   const me = useSession();
   const team = useActiveTeam();
@@ -22,6 +26,7 @@ export function Component() {
     );
   }
 
+  const player = team.role === "player";
   return (
     <>
       <PageHeader
@@ -33,6 +38,13 @@ export function Component() {
           </>
         }
       />
+      <section aria-labelledby="home-now" className="mb-8">
+        <h2 id="home-now" className="mb-3 text-lg font-semibold text-ink">
+          {player ? "Your shots" : "Needs you now"}
+        </h2>
+        <HomeNow teamId={team.id} />
+      </section>
+      <h2 className="mb-3 text-lg font-semibold text-ink">{player ? "Where to look" : "Everything else"}</h2>
       <ul className="grid gap-4 sm:grid-cols-2 xl:grid-cols-3">
         {visibleNav(team.role).map((item) => (
           <li key={item.to}>
@@ -46,11 +58,18 @@ export function Component() {
                   →
                 </span>
               </span>
-              <span className="mt-1.5 text-sm text-ink-muted">{item.description}</span>
+              <span className="mt-1.5 text-sm text-ink-muted">{(player && item.playerDescription) || item.description}</span>
             </Link>
           </li>
         ))}
       </ul>
     </>
   );
+}
+
+function HomeNow({ teamId }: { teamId: string }) {
+  const home = useHome(teamId);
+  if (home.isPending) return <Spinner label="Looking for what needs you" />;
+  if (home.isError) return <LoadError title="Could not load what needs you" error={home.error} onRetry={() => void home.refetch()} />;
+  return home.data.player ? <PlayerHome home={home.data.player} /> : <TaskList tasks={home.data.tasks} />;
 }
