@@ -154,9 +154,83 @@ test("two people on one shot: the second save gets a conflict message, not a sil
   await clickPuck(b, 216);
   await expect(b.getByTestId("conflict-banner")).toContainText("Priya Lindqvist saved this shot");
   expect((await storedPuck(a, "", s.teamId, s.shotId)).map((m: number[]) => m[0])).toEqual([215]);
-  await b.getByRole("button", { name: /Load theirs/ }).click();
+  await b.getByRole("button", { name: /Use theirs/ }).click();
   await saved(b);
   await expect(b.getByTestId("landmark-puck")).toHaveAttribute("data-count", "1");
+});
+
+/** The clip's shots page row of one shot: its puck count as the page shows it. */
+const rowPuckCount = (page: Page, label: string) =>
+  page.getByTestId("clip-shot-row").filter({ hasText: label }).locator("[title^='Puck: ']");
+
+test("coming back to a shot within minutes shows the latest version, and the next edit saves without a conflict with oneself", async ({ page }) => {
+  await signIn(page, ANALYST);
+  const s = await newShot(page, "", [205, 240], "Come back check");
+  const marksAnswers: number[] = [];
+  page.on("response", (r) => {
+    if (r.request().method() === "PUT" && r.url().endsWith("/marks")) marksAnswers.push(r.status());
+  });
+  // Everything below moves inside the app (links, no reload), so the page's cache lives on.
+  await page.goto(`/clips/${s.clipId}/shots`);
+  await expect(rowPuckCount(page, "Come back check")).toHaveAttribute("title", /^Puck: 0/);
+  await page.getByRole("link", { name: "Come back check" }).click();
+  await expect(page.getByTestId("hud-frame")).toHaveText("Frame 205");
+  await clickPuck(page, 205);
+  await saved(page);
+
+  // Leave for the clip's shots: the list already counts the new mark (no 30 s of old numbers).
+  await page.getByRole("navigation", { name: "Breadcrumb" }).getByRole("link").nth(1).click();
+  await expect(rowPuckCount(page, "Come back check")).toHaveAttribute("title", /^Puck: 1/, { timeout: 3_000 });
+
+  // Come back a few seconds later: the page starts from the saved version, not the first visit's.
+  await page.getByRole("link", { name: "Come back check" }).click();
+  await expect(page.getByTestId("landmark-puck")).toHaveAttribute("data-count", "1", { timeout: 3_000 });
+  await page.keyboard.press("ArrowRight");
+  await clickPuck(page, 206);
+  await saved(page);
+  await expect(page.getByTestId("conflict-banner")).toHaveCount(0);
+  expect((await storedPuck(page, "", s.teamId, s.shotId)).map((m: number[]) => m[0])).toEqual([205, 206]);
+  expect(marksAnswers.length).toBeGreaterThan(0);
+  expect(marksAnswers).not.toContain(409);
+});
+
+test("deleting a shot takes it off the Shots list at once, not 30 s later", async ({ page }) => {
+  await signIn(page, ANALYST);
+  const s = await newShot(page, "", [190, 240], "Delete check");
+  const shotsLink = page.getByRole("navigation", { name: "Areas" }).getByRole("link", { name: "Shots", exact: true });
+  const total = page.getByText(/^[\d,]+ shots?$/);
+  // Moves inside the app only (links and history), so the Shots list's cached page lives on.
+  await page.goto(`/clips/${s.clipId}/shots`);
+  await shotsLink.click();
+  await expect(total).toBeVisible();
+  const before = Number((await total.textContent())!.replace(/\D/g, ""));
+  await page.goBack();
+  await page.getByTestId("clip-shot-row").filter({ hasText: "Delete check" }).getByRole("button", { name: "Delete" }).click();
+  await page.getByRole("button", { name: "Delete shot" }).click();
+  await expect(page.getByTestId("clip-shot-row").filter({ hasText: "Delete check" })).toHaveCount(0);
+  await shotsLink.click();
+  await expect(total).toHaveText(`${(before - 1).toLocaleString("en")} shot${before - 1 === 1 ? "" : "s"}`, { timeout: 3_000 });
+});
+
+test("two people on different landmarks: both edits are kept, merged per landmark, and the page says so", async ({ browser }) => {
+  const a = await (await browser.newContext()).newPage();
+  const b = await (await browser.newContext()).newPage();
+  await signIn(a, ANALYST);
+  await signIn(b, "coach@ravens.example");
+  const s = await newShot(a, "", [190, 240], "Merge check");
+  await open(a, s.url, 215);
+  await open(b, s.url, 216);
+  await clickPuck(a, 215);
+  await saved(a);
+  // The coach sets puck strike on frame 216 meanwhile: another part of the shot.
+  await b.keyboard.press("p");
+  await saved(b);
+  await expect(b.getByTestId("conflict-banner")).toHaveCount(0);
+  await expect(b.getByText(/Priya Lindqvist's puck kept with your edits/)).toBeVisible();
+  await expect(b.getByTestId("landmark-puck")).toHaveAttribute("data-count", "1");
+  const stored = await getJson(a, `/api/teams/${s.teamId}/shots/${s.shotId}`);
+  expect(stored.marks.puck.map((m: number[]) => m[0])).toEqual([215]);
+  expect(stored.events).toEqual({ puckStrike: 216 });
 });
 
 test("a player sees their shot read-only", async ({ page }) => {

@@ -1,6 +1,6 @@
 // Autosave as a state machine with a fake server, fake timers and an in-memory local storage.
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
-import { Autosave, contentKey, localKey, readLocal, recover, SaveError, type MarksContent } from "@/features/digitise/model/autosave";
+import { Autosave, contentKey, localKey, readLocal, recover, SaveError, type MarksContent, type MergeNotice } from "@/features/digitise/model/autosave";
 import type { SaveMarksBody } from "@shared/schemas/shots";
 
 class MemoryStorage {
@@ -34,6 +34,7 @@ class FakeServer {
   }
 }
 
+const heel: [number, number, number][] = [[1, 100, 200], [2, 101, 201]];
 const puck = (n: number): MarksContent => ({ marks: { puck: Array.from({ length: n }, (_, i) => [i + 1, 10 + i, 20] as [number, number, number]) }, events: {} });
 
 let server: FakeServer, storage: MemoryStorage, statuses: string[];
@@ -110,13 +111,13 @@ describe("autosave", () => {
     server.content = puck(9);
     a.edit(puck(1));
     await vi.advanceTimersByTimeAsync(500);
-    expect(a.status).toEqual({ kind: "conflict", conflict: { currentVersion: 5, savedBy: "Morgan Ashby", savedAt: "2026-03-01T10:00:00Z" } });
+    expect(a.status).toEqual({ kind: "conflict", conflict: { currentVersion: 5, savedBy: "Morgan Ashby", savedAt: "2026-03-01T10:00:00Z" }, overlaps: ["puck"] });
     expect(server.content).toEqual(puck(9));
     a.edit(puck(2));
     await vi.advanceTimersByTimeAsync(5000);
     expect(server.calls).toHaveLength(1);
     expect(readLocal(storage, "s1")?.content).toEqual(puck(2));
-    a.keepMine(5);
+    await a.keepMine();
     await vi.advanceTimersByTimeAsync(0);
     expect(server.content).toEqual(puck(2));
     expect(a.status).toEqual({ kind: "saved", version: 6 });
@@ -128,9 +129,56 @@ describe("autosave", () => {
     server.content = puck(4);
     a.edit(puck(1));
     await vi.advanceTimersByTimeAsync(500);
-    a.takeTheirs(await server.current());
+    await a.takeTheirs();
     expect(a.status).toEqual({ kind: "saved", version: 3 });
     expect(storage.m.size).toBe(0);
+  });
+
+  it("someone else's save on other landmarks is merged, not a conflict: both edits are kept", async () => {
+    const notices: MergeNotice[] = [];
+    const a = new Autosave(
+      { shotId: "s1", send: (b) => server.send(b), fetchCurrent: () => server.current(), storage, debounceMs: 500, onMerged: (n) => notices.push(n) },
+      { ...server.content, version: server.version },
+    );
+    // Morgan marks the blade heel and the puck strike meanwhile (version 2); we mark the puck.
+    server.version = 2;
+    server.content = { marks: { bladeHeel: heel }, events: { puckStrike: 3 } };
+    a.edit(puck(2));
+    await vi.advanceTimersByTimeAsync(500);
+    await settle();
+    expect(server.content).toEqual({ marks: { puck: puck(2).marks.puck, bladeHeel: heel }, events: { puckStrike: 3 } });
+    expect(a.status).toEqual({ kind: "saved", version: 3 });
+    expect(notices.map((n) => [n.savedBy, n.theirs])).toEqual([["Morgan Ashby", ["bladeHeel", "puckStrike"]]]);
+  });
+
+  it("keeping mine where both changed the puck still keeps their blade heel, and says what it replaced", async () => {
+    const notices: MergeNotice[] = [];
+    const a = new Autosave(
+      { shotId: "s1", send: (b) => server.send(b), fetchCurrent: () => server.current(), storage, debounceMs: 500, onMerged: (n) => notices.push(n) },
+      { ...server.content, version: server.version },
+    );
+    server.version = 2;
+    server.content = { marks: { puck: puck(5).marks.puck, bladeHeel: heel }, events: {} };
+    a.edit(puck(1));
+    await vi.advanceTimersByTimeAsync(500);
+    await settle();
+    expect(a.status.kind === "conflict" && a.status.overlaps).toEqual(["puck"]);
+    await a.keepMine();
+    await settle();
+    expect(server.content).toEqual({ marks: { puck: puck(1).marks.puck, bladeHeel: heel }, events: {} });
+    expect(notices.at(-1)).toMatchObject({ theirs: ["bladeHeel"], replaced: ["puck"] });
+  });
+
+  it("taking theirs where both changed the puck keeps our other edits", async () => {
+    const a = make();
+    server.version = 2;
+    server.content = puck(5);
+    a.edit({ marks: { puck: puck(1).marks.puck, bladeToe: heel }, events: {} });
+    await vi.advanceTimersByTimeAsync(500);
+    await settle();
+    await a.takeTheirs();
+    await settle();
+    expect(server.content).toEqual({ marks: { puck: puck(5).marks.puck, bladeToe: heel }, events: {} });
   });
 
   it("undoing back to the saved content needs no save", async () => {
@@ -146,16 +194,24 @@ describe("autosave", () => {
 describe("recovering local edits after a reload", () => {
   const rec = (baseVersion: number, content: MarksContent, sentKeys: string[] = []) => ({ v: 1 as const, baseVersion, content, sentKeys, savedAt: 0 });
   it("same version: put the edits back", () => {
-    expect(recover(rec(4, puck(3)), { ...puck(2), version: 4 })).toEqual({ action: "restore", content: puck(3), baseVersion: 4 });
+    expect(recover(rec(4, puck(3)), { ...puck(2), version: 4 })).toEqual({ action: "restore", content: puck(3), baseVersion: 4, mergedTheirs: [] });
   });
   it("already on the server: nothing to do", () => {
     expect(recover(rec(4, puck(3)), { ...puck(3), version: 5 })).toEqual({ action: "none" });
   });
   it("the server moved on with something we sent: restore on top of it", () => {
-    expect(recover(rec(4, puck(3), [contentKey(puck(2))]), { ...puck(2), version: 5 })).toEqual({ action: "restore", content: puck(3), baseVersion: 5 });
+    expect(recover(rec(4, puck(3), [contentKey(puck(2))]), { ...puck(2), version: 5 })).toEqual({ action: "restore", content: puck(3), baseVersion: 5, mergedTheirs: [] });
   });
   it("the server moved on with someone else's edits: a conflict", () => {
-    expect(recover(rec(4, puck(3)), { ...puck(7), version: 6 })).toEqual({ action: "conflict", content: puck(3) });
+    expect(recover(rec(4, puck(3)), { ...puck(7), version: 6 })).toEqual({ action: "conflict", content: puck(3), base: null, overlaps: [] });
+  });
+  it("the server moved on elsewhere, and the record knows its base: merged per landmark", () => {
+    const base = puck(2);
+    const theirs = { marks: { ...puck(2).marks, bladeHeel: heel }, events: {}, version: 6 };
+    expect(recover({ ...rec(4, puck(3)), base }, theirs)).toEqual({
+      action: "restore", content: { marks: { puck: puck(3).marks.puck, bladeHeel: heel }, events: {} }, baseVersion: 6, mergedTheirs: ["bladeHeel"],
+    });
+    expect(recover({ ...rec(4, puck(3)), base }, { ...puck(7), version: 6 })).toEqual({ action: "conflict", content: puck(3), base, overlaps: ["puck"] });
   });
   it("nothing stored, or garbage stored", () => {
     expect(recover(null, { ...puck(1), version: 1 })).toEqual({ action: "none" });

@@ -2,7 +2,7 @@ import { useEffect, useState } from "react";
 import { useQueryClient } from "@tanstack/react-query";
 import { env } from "@/lib/env";
 import type { ClipProgress } from "@shared/schemas/clips";
-import { clipKey, clipPath, clipsKey } from "./keys";
+import { clipChanged, clipPath } from "@/entities/clip";
 
 /**
  * GET /api/teams/:teamId/clips/:clipId/progress as Server-Sent Events while `live`: each event
@@ -15,8 +15,7 @@ export function useClipProgress(teamId: string, clipId: string, live: boolean): 
     if (!live) return;
     const source = new EventSource(`${env.apiBase}${clipPath(teamId, clipId)}/progress`);
     const refresh = () => {
-      void qc.invalidateQueries({ queryKey: clipKey(teamId, clipId) });
-      void qc.invalidateQueries({ queryKey: clipsKey(teamId) });
+      void clipChanged(qc, teamId);
     };
     source.addEventListener("progress", (e) => {
       const p = JSON.parse((e as MessageEvent<string>).data) as ClipProgress;

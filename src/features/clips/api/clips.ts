@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
 import { apiGet, type Query } from "@/lib/api";
 import type { ClipListQuery, ClipPage } from "@shared/schemas/clips";
-import { clipPath, clipsKey } from "./keys";
+import { clipKeys, clipPath } from "@/entities/clip";
 
 // GET /api/teams/:teamId/clips — filtered, sorted and paged on the server.
 export const fetchClips = (teamId: string, q: ClipListQuery, signal?: AbortSignal) =>
@@ -9,7 +9,7 @@ export const fetchClips = (teamId: string, q: ClipListQuery, signal?: AbortSigna
 
 export const clipsQueryOptions = (teamId: string, q: ClipListQuery) =>
   queryOptions({
-    queryKey: [...clipsKey(teamId), "list", q],
+    queryKey: [...clipKeys.all(teamId), "list", q],
     queryFn: ({ signal }) => fetchClips(teamId, q, signal),
     placeholderData: keepPreviousData,
     // While a clip is being extracted its bar moves: poll until nothing is in progress.

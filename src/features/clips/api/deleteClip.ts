@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiDelete } from "@/lib/api";
-import { clipPath, clipsKey } from "./keys";
+import { clipChanged, clipPath } from "@/entities/clip";
 
 /** DELETE /api/teams/:teamId/clips/:clipId — removes the clip, its frames, files and shots. */
 export const deleteClip = (teamId: string, clipId: string) => apiDelete(clipPath(teamId, clipId));
@@ -9,6 +9,6 @@ export function useDeleteClip(teamId: string) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (clipId: string) => deleteClip(teamId, clipId),
-    onSuccess: () => qc.invalidateQueries({ queryKey: clipsKey(teamId) }),
+    onSuccess: () => clipChanged(qc, teamId),
   });
 }

@@ -5,7 +5,6 @@ import type { ClipOptions, ClipSummary } from "@shared/schemas/clips";
 import { useQueryClient } from "@tanstack/react-query";
 import { useClip } from "../api/clip";
 import { useClipProgress } from "../api/clipProgress";
-import { clipOptionsKey, clipsKey } from "../api/keys";
 import { formatBytes, formatCount, formatFps } from "../format";
 import { createClipUpload, rememberedMeta, type ClipUpload, type UploadProblem } from "../upload/clipUpload";
 import { isSequenceFile } from "../upload/folderZip";
@@ -13,6 +12,7 @@ import { errorsFrom, fromMeta, validateMeta, type MetaErrors, type MetaFormValue
 import { CaptureRateConfirm } from "./CaptureRateConfirm";
 import { ClipMetaFields } from "./ClipMetaFields";
 import { ProgressBar } from "./ProgressBar";
+import { clipChanged } from "@/entities/clip";
 
 type Phase =
   | { name: "details" }
@@ -76,8 +76,7 @@ export function UploadItem({ file, teamId, options, initial, startAll, onValues,
       onRetrying: (attempt) => setPhase({ name: "uploading", retrying: attempt }),
       onSuccess: (clip) => {
         setPhase({ name: "done", clip });
-        void qc.invalidateQueries({ queryKey: clipsKey(teamId) });
-        void qc.invalidateQueries({ queryKey: clipOptionsKey(teamId) });
+        void clipChanged(qc, teamId, { options: true });
       },
       onError: (problem) => {
         if (problem.kind === "invalid_details") {

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiGet } from "@/lib/api";
 import { SHOTS_PAGE_MAX, type ShotListResponse } from "@shared/schemas/readout";
+import { shotKeys } from "@/entities/shot";
 
 /**
  * The shots one may put side by side (GET /api/teams/:teamId/readout/shots): the newest
@@ -8,7 +9,7 @@ import { SHOTS_PAGE_MAX, type ShotListResponse } from "@shared/schemas/readout";
  */
 export const shotChoicesQueryOptions = (teamId: string) =>
   queryOptions({
-    queryKey: ["teams", teamId, "readout", "shots", { pageSize: SHOTS_PAGE_MAX }],
+    queryKey: shotKeys.list(teamId, { pageSize: SHOTS_PAGE_MAX }),
     queryFn: ({ signal }) => apiGet<ShotListResponse>(`/teams/${encodeURIComponent(teamId)}/readout/shots`, { pageSize: SHOTS_PAGE_MAX }, signal),
   });
 

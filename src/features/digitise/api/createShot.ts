@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiPost } from "@/lib/api";
 import type { CreateShotBody, ShotDetail } from "@shared/schemas/shots";
-import { clipShotsKey, shotKey, teamPath } from "./keys";
+import { teamPath } from "@/entities/team";
+import { shotKeys, shotsChanged } from "@/entities/shot";
 
 /** POST /api/teams/:teamId/clips/:clipId/shots — player and stick default to the clip's. */
 export const createShot = (teamId: string, clipId: string, body: CreateShotBody) =>
@@ -12,8 +13,8 @@ export function useCreateShot(teamId: string, clipId: string) {
   return useMutation({
     mutationFn: (body: CreateShotBody) => createShot(teamId, clipId, body),
     onSuccess: (shot) => {
-      qc.setQueryData(shotKey(teamId, shot.id), shot);
-      return qc.invalidateQueries({ queryKey: clipShotsKey(teamId, clipId) });
+      qc.setQueryData(shotKeys.document(teamId, shot.id), shot);
+      return shotsChanged(qc, teamId, { keepDocument: shot.id });
     },
   });
 }

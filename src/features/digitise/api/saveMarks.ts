@@ -1,7 +1,7 @@
 import { env } from "@/lib/env";
 import type { ClipCalibration, SaveMarksBody, SaveMarksResponse, VersionConflict } from "@shared/schemas/shots";
 import { SaveError } from "../model/autosave";
-import { teamPath } from "./keys";
+import { teamPath } from "@/entities/team";
 
 // The autosave's two calls. Plain fetch rather than src/lib/api: a 409 carries who saved last as
 // extension members, and a save sent while the tab closes needs `keepalive`.

@@ -1,12 +1,13 @@
 import { useEffect, useMemo, useState } from "react";
 import { Link, useSearchParams } from "react-router-dom";
-import type { ShotDetail } from "@shared/schemas/shots";
+import { eventLabels, landmarkLabels, type Landmark, type ShotDetail, type ShotEventKey } from "@shared/schemas/shots";
 import { Button } from "@/components/ui";
 import { formatDateTime } from "@/lib/format";
 import { frameUrl } from "@/components/shot/frames";
 import { capacityFor, FrameCache } from "@/components/shot/stepping/frame-cache";
 import { createFrameLoader } from "@/components/shot/stepping/frame-loader";
 import { isFrameCommand, runFrameCommand } from "@/components/shot/stepping/frame-keys";
+import type { MergePart } from "../model/merge";
 import { checkDraft } from "../model/calibration-draft";
 import { commandFor, isTypingTarget, type Command } from "../model/keymap";
 import { DigitiseStore } from "../model/store";
@@ -29,6 +30,9 @@ import { usePlayback } from "./usePlayback";
 import { initialDoc, useShotSaving } from "./useShotSaving";
 
 /** The Digitise page for one shot: frame viewer, transport and strip on the left, panels on the right. */
+const partsText = (parts: MergePart[]) => parts.map((p) => (p in landmarkLabels ? landmarkLabels[p as Landmark] : eventLabels[p as ShotEventKey]).toLowerCase()).join(", ");
+const overlapText = (parts: MergePart[]) => (parts.length ? `, and you both changed the ${partsText(parts)}` : "");
+
 export function Workspace({ teamId, shot }: { teamId: string; shot: ShotDetail }) {
   const [search] = useSearchParams();
   const [start] = useState(() => initialDoc(shot));
@@ -169,13 +173,13 @@ export function Workspace({ teamId, shot }: { teamId: string; shot: ShotDetail }
         <div role="alert" className="mb-2 flex flex-wrap items-center gap-3 rounded-lg border border-danger/30 bg-danger-soft px-4 py-2.5 text-sm text-danger-strong" data-testid="conflict-banner">
           <p className="flex-1">
             <b>{saving.status.conflict.savedBy ?? "Someone"}</b> saved this shot at {formatDateTime(saving.status.conflict.savedAt)} (version {saving.status.conflict.currentVersion}) while you were
-            editing. Your edits are kept here and have not been saved.
+            editing{overlapText(saving.status.overlaps)}. Everything else of both is kept; your edits are here and not saved yet.
           </p>
-          <Button size="sm" variant="danger" onClick={saving.keepMine}>
-            Keep mine — save over theirs
+          <Button size="sm" variant="danger" onClick={() => void saving.keepMine()}>
+            Keep mine{saving.status.overlaps.length ? ` — replaces their ${partsText(saving.status.overlaps)}` : " — save over theirs"}
           </Button>
           <Button size="sm" variant="secondary" onClick={() => void saving.takeTheirs()}>
-            Load theirs — drop mine
+            Use theirs{saving.status.overlaps.length ? ` — drops your ${partsText(saving.status.overlaps)} edits` : " — drop mine"}
           </Button>
         </div>
       )}

@@ -1,8 +1,14 @@
 import { useEffect, useState } from "react";
+import { useQueryClient } from "@tanstack/react-query";
+import { landmarkLabels, eventLabels } from "@shared/schemas/shots";
+import { clipChanged } from "@/entities/clip";
+import { shotMarksSaved } from "@/entities/shot";
+import { toast } from "@/components/ui/toast-store";
 import type { ShotDetail, StoredResult } from "@shared/schemas/shots";
 import { fetchShot } from "../api/shot";
 import { saveCalibration, saveMarks } from "../api/saveMarks";
-import { Autosave, readLocal, recover, type AutosaveStatus } from "../model/autosave";
+import { Autosave, readLocal, recover, type AutosaveStatus, type MergeNotice } from "../model/autosave";
+import type { MergePart } from "../model/merge";
 import { checkDraft, draftFromClip } from "../model/calibration-draft";
 import { CalibrationSaver, type CalibrationStatus } from "../model/calibration-save";
 import type { DigitiseDoc, DigitiseStore } from "../model/store";
@@ -28,6 +34,16 @@ export function initialDoc(shot: ShotDetail): { doc: DigitiseDoc; recovery: Retu
   };
 }
 
+const partLabel = (p: MergePart) => (p in landmarkLabels ? landmarkLabels[p as keyof typeof landmarkLabels] : eventLabels[p as keyof typeof eventLabels]).toLowerCase();
+const partList = (parts: MergePart[]) => parts.map(partLabel).join(", ");
+
+/** What a merge did, in one sentence: nothing anyone saved is dropped without saying so. */
+export function mergeMessage(n: Pick<MergeNotice, "savedBy" | "theirs" | "replaced">): string {
+  const who = n.savedBy ?? "Someone";
+  const kept = n.theirs.length ? `${who}'s ${partList(n.theirs)} kept with your edits` : `${who}'s save merged with your edits`;
+  return n.replaced.length ? `${kept}; your ${partList(n.replaced)} replaced theirs.` : `${kept}.`;
+}
+
 /**
  * Autosave of marks and events (versioned) and of the clip's calibration, wired to the store.
  * Read-only shots get no saver at all.
@@ -37,6 +53,7 @@ export function useShotSaving(teamId: string, shot: ShotDetail, store: DigitiseS
   const [calStatus, setCalStatus] = useState<CalibrationStatus>({ kind: "saved" });
   const [stored, setStored] = useState<StoredResult | null>(shot.storedResult);
   const [saver, setSaver] = useState<{ marks: Autosave; cal: CalibrationSaver } | null>(null);
+  const qc = useQueryClient();
 
   useEffect(() => {
     if (!shot.canEdit) return;
@@ -47,7 +64,15 @@ export function useShotSaving(teamId: string, shot: ShotDetail, store: DigitiseS
         fetchCurrent: () => fetchShot(teamId, shot.id),
         storage: storage(),
         onStatus: setStatus,
-        onSaved: (r) => r.storedResult && setStored(r.storedResult),
+        onSaved: (r, saved) => {
+          if (r.storedResult) setStored(r.storedResult);
+          // Written through: coming back starts from this version, and the other pages refetch.
+          void shotMarksSaved(qc, teamId, shot.id, saved, r);
+        },
+        onMerged: (n) => {
+          store.replaceDoc({ ...store.getState().doc, marks: n.content.marks, events: n.content.events });
+          toast.info(mergeMessage(n));
+        },
       },
       shot,
     );
@@ -56,7 +81,8 @@ export function useShotSaving(teamId: string, shot: ShotDetail, store: DigitiseS
         clipId: shot.clip.id,
         send: async (c) => {
           await saveCalibration(teamId, shot.clip.id, c);
-          // The server recomputed every shot of the clip: pick up this one's result.
+          // Every shot of the clip gets new numbers: every view of shots refetches.
+          void clipChanged(qc, teamId);
           const fresh = await fetchShot(teamId, shot.id).catch(() => null);
           if (fresh?.storedResult) setStored(fresh.storedResult);
         },
@@ -66,11 +92,12 @@ export function useShotSaving(teamId: string, shot: ShotDetail, store: DigitiseS
       shot.clip.calibration,
     );
     const r = start.recovery;
-    if (r.action === "restore") marks.adoptRecovered(r.content, r.baseVersion);
-    if (r.action === "conflict") {
-      const local = readLocal(storage(), shot.id);
-      marks.holdConflict(r.content, local?.baseVersion ?? shot.version, { currentVersion: shot.version, savedBy: shot.updatedByName, savedAt: shot.updatedAt });
+    if (r.action === "restore") {
+      marks.adoptRecovered(r.content, r.baseVersion);
+      if (r.mergedTheirs.length) toast.info(mergeMessage({ savedBy: shot.updatedByName, theirs: r.mergedTheirs, replaced: [] }));
     }
+    if (r.action === "conflict")
+      marks.holdConflict(r.content, r.base, r.overlaps, { currentVersion: shot.version, savedBy: shot.updatedByName, savedAt: shot.updatedAt });
     if (start.calRecovered) {
       const check = checkDraft(store.getState().doc.calibration, store.getState().frameSize);
       if (check.state === "ready" || check.state === "none") cal.set(check.calibration);
@@ -97,23 +124,16 @@ export function useShotSaving(teamId: string, shot: ShotDetail, store: DigitiseS
       document.removeEventListener("visibilitychange", onVisibility);
       marks.flush({ keepalive: true });
       marks.stop();
+      cal.stop(); // its retry timer must not outlive the page
     };
     // One saver per shot for the life of the page.
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [shot.id]);
 
-  /** After a conflict: keep the local edits and save them over the other version, on purpose. */
-  const keepMine = () => {
-    if (status?.kind === "conflict") saver?.marks.keepMine(status.conflict.currentVersion);
-  };
-  /** After a conflict: take the server's copy and drop the local edits. */
-  const takeTheirs = async () => {
-    if (!saver) return;
-    const fresh = await fetchShot(teamId, shot.id);
-    store.replaceDoc({ ...store.getState().doc, marks: fresh.marks, events: fresh.events });
-    saver.marks.takeTheirs(fresh);
-    if (fresh.storedResult) setStored(fresh.storedResult);
-  };
+  /** After a conflict: our edits win where both changed the same parts; everything else of theirs stays. */
+  const keepMine = () => saver?.marks.keepMine();
+  /** After a conflict: their marks win where both changed the same parts; our other edits stay. */
+  const takeTheirs = () => saver?.marks.takeTheirs();
 
   return { status, calStatus, stored, version: saver?.marks.version ?? shot.version, keepMine, takeTheirs };
 }

@@ -1,10 +1,13 @@
+import { mergeMarks, type MergePart } from "./merge";
 import { canonicalMarks, type SaveMarksBody, type SaveMarksResponse, type ShotEventsDraft, type ShotMarks, type VersionConflict } from "@shared/schemas/shots";
 
 // Autosave of a shot's marks and events, as a small state machine:
 //
 //   saved ──edit──▶ pending ──debounce──▶ saving ──ok──▶ saved (or saving again if edits came in)
 //                                          ├──network / 5xx──▶ offline ──retry, or "online"──▶ saving
-//                                          ├──409──▶ (was it our own earlier save? then go on) ▶ conflict
+//                                          ├──409──▶ our own earlier save? go on. Else merge per landmark
+//                                          │          with what was saved meanwhile: no overlap ▶ saving;
+//                                          │          an overlap ▶ conflict (the analyst chooses)
 //                                          └──422 / 403──▶ error
 //
 // Every edit is written to local storage before anything goes on the network, so a reload, a
@@ -34,8 +37,19 @@ export type AutosaveStatus =
   | { kind: "pending" }
   | { kind: "saving" }
   | { kind: "offline"; attempt: number; retryInMs: number }
-  | { kind: "conflict"; conflict: VersionConflict }
+  /** Both sides changed `overlaps` differently; the rest is merged already. */
+  | { kind: "conflict"; conflict: VersionConflict; overlaps: MergePart[] }
   | { kind: "error"; message: string };
+
+/** What a merge with someone else's save did, for the page to show and apply. */
+export interface MergeNotice {
+  content: MarksContent;
+  savedBy: string | null;
+  /** Parts taken from the other save. */
+  theirs: MergePart[];
+  /** Parts where the analyst's choice replaced the other save's marks. */
+  replaced: MergePart[];
+}
 
 export interface Timers {
   set(fn: () => void, ms: number): unknown;
@@ -57,7 +71,10 @@ export interface AutosaveDeps {
   timers?: Timers;
   debounceMs?: number;
   onStatus?(s: AutosaveStatus): void;
-  onSaved?(r: SaveMarksResponse): void;
+  /** The server now holds `saved` at `r.version`. */
+  onSaved?(r: SaveMarksResponse, saved: MarksContent): void;
+  /** The working document changed by a merge: the page shows `content` from now on. */
+  onMerged?(n: MergeNotice): void;
 }
 
 /** What local storage holds for a shot with unsaved edits. */
@@ -65,6 +82,8 @@ export interface LocalRecord {
   v: 1;
   baseVersion: number;
   content: MarksContent;
+  /** What the server held at baseVersion, so a later visit can merge per landmark. */
+  base?: MarksContent;
   /** Keys of documents sent whose answer never came: if the server has one of them, it was ours. */
   sentKeys: string[];
   savedAt: number;
@@ -87,18 +106,24 @@ export function readLocal(storage: KeyValueStore | null, shotId: string): LocalR
 
 export type Recovery =
   | { action: "none" }
-  /** Local edits to put back and save, on top of `baseVersion`. */
-  | { action: "restore"; content: MarksContent; baseVersion: number }
-  /** Local edits made on an older version that someone else has since changed. */
-  | { action: "conflict"; content: MarksContent };
+  /** Local edits to put back and save, on top of `baseVersion` (merged per landmark when the server moved on). */
+  | { action: "restore"; content: MarksContent; baseVersion: number; mergedTheirs: MergePart[] }
+  /** Local edits made on an older version that someone else has since changed in the same places. */
+  | { action: "conflict"; content: MarksContent; base: MarksContent | null; overlaps: MergePart[] };
 
 /** On opening a shot: what to do with edits left in local storage by an earlier visit. */
 export function recover(local: LocalRecord | null, server: MarksContent & { version: number }): Recovery {
   if (!local) return { action: "none" };
   const serverKey = contentKey(server);
   if (contentKey(local.content) === serverKey) return { action: "none" };
-  if (local.baseVersion === server.version || local.sentKeys.includes(serverKey)) return { action: "restore", content: local.content, baseVersion: server.version };
-  return { action: "conflict", content: local.content };
+  if (local.baseVersion === server.version || local.sentKeys.includes(serverKey))
+    return { action: "restore", content: local.content, baseVersion: server.version, mergedTheirs: [] };
+  if (local.base) {
+    const m = mergeMarks(local.base, local.content, server);
+    if (!m.overlaps.length) return { action: "restore", content: m.content, baseVersion: server.version, mergedTheirs: m.theirsOnly };
+    return { action: "conflict", content: local.content, base: local.base, overlaps: m.overlaps };
+  }
+  return { action: "conflict", content: local.content, base: null, overlaps: [] };
 }
 
 const browserTimers: Timers = { set: (fn, ms) => setTimeout(fn, ms), clear: (id) => clearTimeout(id as ReturnType<typeof setTimeout>) };
@@ -109,6 +134,9 @@ export class Autosave {
   private key: string;
   /** Content the server is known to hold at baseVersion. */
   private ackedKey: string;
+  private acked: MarksContent;
+  /** The other save while a conflict is held. */
+  private theirs: (MarksContent & { version: number; savedBy: string | null }) | null = null;
   private sentKeys: string[] = [];
   private inFlight: Promise<void> | null = null;
   private timer: unknown = null;
@@ -125,7 +153,7 @@ export class Autosave {
     this.timers = deps.timers ?? browserTimers;
     this.debounceMs = deps.debounceMs ?? 600;
     this.baseVersion = server.version;
-    this.content = server;
+    this.content = this.acked = { marks: server.marks, events: server.events };
     this.key = this.ackedKey = contentKey(server);
     this.statusNow = { kind: "saved", version: server.version };
   }
@@ -151,7 +179,7 @@ export class Autosave {
     try {
       if (!this.dirty) this.deps.storage.removeItem(localKey(this.deps.shotId));
       else {
-        const r: LocalRecord = { v: 1, baseVersion: this.baseVersion, content: this.content, sentKeys: this.sentKeys, savedAt: Date.now() };
+        const r: LocalRecord = { v: 1, baseVersion: this.baseVersion, content: this.content, base: this.acked, sentKeys: this.sentKeys, savedAt: Date.now() };
         this.deps.storage.setItem(localKey(this.deps.shotId), JSON.stringify(r));
       }
     } catch {
@@ -165,12 +193,18 @@ export class Autosave {
     this.edit(content);
   }
 
-  /** Local edits from an earlier visit clash with a newer server version: hold them until the analyst chooses. */
-  holdConflict(content: MarksContent, baseVersion: number, conflict: VersionConflict) {
+  /**
+   * Local edits from an earlier visit clash with a newer server version (`theirs`, which this
+   * saver was made with): hold them until the analyst chooses. `base` is what they were made on.
+   */
+  holdConflict(content: MarksContent, base: MarksContent | null, overlaps: MergePart[], conflict: VersionConflict) {
+    this.theirs = { ...this.acked, version: this.baseVersion, savedBy: conflict.savedBy };
+    // Without the base (a record from before bases were kept) every part counts as overlapping.
+    this.acked = base ?? { marks: {}, events: {} };
     this.content = content;
     this.key = contentKey(content);
-    this.baseVersion = baseVersion;
-    this.setStatus({ kind: "conflict", conflict });
+    this.persist();
+    this.setStatus({ kind: "conflict", conflict, overlaps });
   }
 
   /** A new state of the document; saved after a pause in editing. */
@@ -236,9 +270,10 @@ export class Autosave {
       this.attempt = 0;
       this.baseVersion = r.version;
       this.ackedKey = key;
+      this.acked = { marks: body.marks, events: body.events };
       this.sentKeys = [];
       this.persist();
-      this.deps.onSaved?.(r);
+      this.deps.onSaved?.(r, this.acked);
       if (this.dirty) this.schedule(0);
       else this.setStatus({ kind: "saved", version: r.version });
     } catch (e) {
@@ -263,40 +298,73 @@ export class Autosave {
       return;
     }
     // 409: if the server holds something we sent earlier (its answer was lost), build on it.
+    let cur: (MarksContent & { version: number }) | null = null;
     try {
-      const cur = await this.deps.fetchCurrent();
-      if (this.sentKeys.includes(contentKey(cur)) && contentKey(cur) !== key) {
-        this.baseVersion = cur.version;
-        this.ackedKey = contentKey(cur);
-        this.sentKeys = [];
-        this.persist();
-        this.schedule(0);
-        return;
-      }
+      cur = await this.deps.fetchCurrent();
     } catch {
       // fall through to the conflict: the analyst decides
     }
-    this.setStatus({ kind: "conflict", conflict: f.conflict });
+    if (cur && this.sentKeys.includes(contentKey(cur)) && contentKey(cur) !== key) {
+      this.adoptServer(cur);
+      this.schedule(0);
+      return;
+    }
+    if (!cur) return this.setStatus({ kind: "conflict", conflict: f.conflict, overlaps: [] });
+    // Someone else saved: merge per landmark. Parts only they changed are kept, parts only we
+    // changed are saved on top; only parts both changed differently wait for the analyst.
+    const theirs = { ...cur, savedBy: f.conflict.savedBy };
+    const m = mergeMarks(this.acked, this.content, cur);
+    if (m.overlaps.length) {
+      this.theirs = theirs;
+      return this.setStatus({ kind: "conflict", conflict: f.conflict, overlaps: m.overlaps });
+    }
+    this.applyMerge(theirs, m.content, m.theirsOnly, []);
   }
 
-  /** After a conflict: save these edits on top of the other person's version, on purpose. */
-  keepMine(currentVersion: number) {
-    this.baseVersion = currentVersion;
-    this.sentKeys = [];
-    this.setStatus({ kind: "pending" });
-    this.persist();
-    this.schedule(0);
-  }
-
-  /** After a conflict: drop local edits and take the server's copy. */
-  takeTheirs(server: MarksContent & { version: number }) {
-    this.cancelTimer();
+  /** The server's copy becomes the base of further saves. */
+  private adoptServer(server: MarksContent & { version: number }) {
     this.baseVersion = server.version;
-    this.content = server;
-    this.key = this.ackedKey = contentKey(server);
+    this.acked = { marks: server.marks, events: server.events };
+    this.ackedKey = contentKey(server);
     this.sentKeys = [];
+  }
+
+  /** Continue from a merge with `theirs`: the page shows `content`, which is saved on top. */
+  private applyMerge(theirs: MarksContent & { version: number; savedBy: string | null }, content: MarksContent, fromTheirs: MergePart[], replaced: MergePart[]) {
+    this.theirs = null;
+    this.adoptServer(theirs);
+    this.content = content;
+    this.key = contentKey(content);
     this.persist();
-    this.setStatus({ kind: "saved", version: server.version });
+    this.deps.onMerged?.({ content, savedBy: theirs.savedBy, theirs: fromTheirs, replaced });
+    if (this.dirty) {
+      this.setStatus({ kind: "pending" });
+      this.schedule(0);
+    } else this.setStatus({ kind: "saved", version: this.baseVersion });
+  }
+
+  /** The other save held by a conflict, fetched now if the conflict could not read it then. */
+  private async otherSave() {
+    if (this.statusNow.kind !== "conflict") return null;
+    if (this.theirs) return this.theirs;
+    const cur = await this.deps.fetchCurrent();
+    return { ...cur, savedBy: this.statusNow.conflict.savedBy };
+  }
+
+  /** After a conflict: our edits win where both changed the same parts; the other save's other parts stay. */
+  async keepMine() {
+    const t = await this.otherSave();
+    if (!t) return;
+    const m = mergeMarks(this.acked, this.content, t, "mine");
+    this.applyMerge(t, m.content, m.theirsOnly, m.overlaps);
+  }
+
+  /** After a conflict: the other save wins where both changed the same parts; our other edits stay. */
+  async takeTheirs() {
+    const t = await this.otherSave();
+    if (!t) return;
+    const m = mergeMarks(this.acked, this.content, t, "theirs");
+    this.applyMerge(t, m.content, [...m.theirsOnly, ...m.overlaps], []);
   }
 
   stop() {

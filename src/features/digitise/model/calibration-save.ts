@@ -32,6 +32,7 @@ export class CalibrationSaver {
   private attempt = 0;
   private timer: unknown = null;
   private busy = false;
+  private stopped = false;
   private readonly timers: Timers;
   status: CalibrationStatus = { kind: "saved" };
 
@@ -70,6 +71,7 @@ export class CalibrationSaver {
   }
 
   set(value: ClipCalibration | null) {
+    if (this.stopped) return;
     this.value = value;
     this.wanted = text(value);
     try {
@@ -90,9 +92,16 @@ export class CalibrationSaver {
     if (this.status.kind === "offline") void this.send();
   }
 
+  /** The page is gone: no retry may fire after it (the local copy stays for the next visit). */
+  stop() {
+    this.stopped = true;
+    if (this.timer !== null) this.timers.clear(this.timer);
+    this.timer = null;
+  }
+
   private async send() {
     this.timer = null;
-    if (this.busy || !this.dirty) return;
+    if (this.stopped || this.busy || !this.dirty) return;
     this.busy = true;
     const sending = this.wanted;
     const value = this.value;
@@ -114,7 +123,7 @@ export class CalibrationSaver {
       }
       const ms = RETRY_MS[Math.min(this.attempt++, RETRY_MS.length - 1)];
       this.setStatus({ kind: "offline" });
-      this.timer = this.timers.set(() => void this.send(), ms);
+      if (!this.stopped) this.timer = this.timers.set(() => void this.send(), ms);
     }
   }
 }

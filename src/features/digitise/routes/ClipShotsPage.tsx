@@ -49,12 +49,12 @@ export function Component() {
 
 function ShotRow({ teamId, clipId, shot, canEdit }: { teamId: string; clipId: string; shot: ShotSummary; canEdit: boolean }) {
   const units = useUnits();
-  const del = useDeleteShot(teamId, clipId);
+  const del = useDeleteShot(teamId);
   const [confirm, setConfirm] = useState(false);
   const [people, setPeople] = useState(false);
   const events = EVENTS.filter((k) => shot.events[k] !== undefined).length;
   return (
-    <Card>
+    <Card data-testid="clip-shot-row">
       <div className="flex flex-wrap items-center gap-x-6 gap-y-3">
       <div className="min-w-48 flex-1">
         <Link to={`/clips/${clipId}/shots/${shot.id}/digitise`} className="font-semibold text-ink hover:text-accent-strong hover:underline">

@@ -11,7 +11,7 @@ export function Component() {
   const team = useActiveTeam();
   const shot = useShot(team?.id ?? "", shotId);
   if (!team) return <EmptyState title="No team yet">Shots belong to a team; ask a team admin for an invitation.</EmptyState>;
-  if (shot.isPending) return <PageSpinner label="Opening the shot…" />;
+  if (shot.isPending || (!shot.current && !shot.isError)) return <PageSpinner label="Opening the shot…" />;
   if (shot.isError)
     return (
       <Alert tone="danger" title={isApiError(shot.error) && shot.error.status === 404 ? "This shot is not available" : "Couldn't open the shot"}>
@@ -21,11 +21,11 @@ export function Component() {
         </ButtonLink>
       </Alert>
     );
-  if (shot.data.clip.id !== clipId || shot.data.clip.status !== "ready" || !shot.data.clip.width)
+  if (!shot.current || shot.current.clip.id !== clipId || shot.current.clip.status !== "ready" || !shot.current.clip.width)
     return (
       <Alert tone="warn" title="The frames of this clip are not ready">
         Digitising opens once every frame of the clip has been extracted.
       </Alert>
     );
-  return <Workspace key={shot.data.id} teamId={team.id} shot={shot.data} />;
+  return <Workspace key={shot.current.id} teamId={team.id} shot={shot.current} />;
 }

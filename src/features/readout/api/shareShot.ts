@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiDelete, apiPost } from "@/lib/api";
 import type { ShareResponse, ShareShotBody } from "@shared/schemas/readout";
-import { readoutKey } from "./keys";
+import { shotsChanged } from "@/entities/shot";
 
 /** POST /api/teams/:teamId/readout/shots/:shotId/shares — coach or team admin. */
 export const shareShot = (teamId: string, shotId: string, body: ShareShotBody) =>
@@ -11,7 +11,7 @@ export function useShareShot(teamId: string, shotId: string) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (body: ShareShotBody) => shareShot(teamId, shotId, body),
-    onSettled: () => qc.invalidateQueries({ queryKey: readoutKey(teamId) }),
+    onSettled: () => shotsChanged(qc, teamId),
   });
 }
 
@@ -20,6 +20,6 @@ export function useUnshareShot(teamId: string, shotId: string) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (userId: string) => apiDelete(`/teams/${encodeURIComponent(teamId)}/readout/shots/${encodeURIComponent(shotId)}/shares/${encodeURIComponent(userId)}`),
-    onSettled: () => qc.invalidateQueries({ queryKey: readoutKey(teamId) }),
+    onSettled: () => shotsChanged(qc, teamId),
   });
 }

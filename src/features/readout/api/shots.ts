@@ -1,13 +1,13 @@
 import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
 import { apiGet } from "@/lib/api";
 import type { ShotListPageQuery, ShotListResponse } from "@shared/schemas/readout";
-import { shotsKey } from "./keys";
+import { shotKeys } from "@/entities/shot";
 
 /** GET /api/teams/:teamId/readout/shots — staff: the team's shots; a player: own and shared ones. */
 export const fetchShots = (teamId: string, f: ShotListPageQuery, signal?: AbortSignal) =>
   apiGet<ShotListResponse>(`/teams/${encodeURIComponent(teamId)}/readout/shots`, { ...f }, signal);
 
 export const shotsQueryOptions = (teamId: string, f: ShotListPageQuery) =>
-  queryOptions({ queryKey: shotsKey(teamId, f), queryFn: ({ signal }) => fetchShots(teamId, f, signal), placeholderData: keepPreviousData });
+  queryOptions({ queryKey: shotKeys.list(teamId, f), queryFn: ({ signal }) => fetchShots(teamId, f, signal), placeholderData: keepPreviousData });
 
 export const useShots = (teamId: string, f: ShotListPageQuery) => useQuery(shotsQueryOptions(teamId, f));

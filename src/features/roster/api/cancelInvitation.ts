@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiDelete } from "@/lib/api";
-import { rosterKey } from "./keys";
+import { memberKeys } from "@/entities/member";
 
 /** DELETE /api/teams/:teamId/invitations/:invitationId */
 export const cancelInvitation = (teamId: string, invitationId: string) =>
@@ -10,6 +10,6 @@ export function useCancelInvitation(teamId: string) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (invitationId: string) => cancelInvitation(teamId, invitationId),
-    onSuccess: () => qc.invalidateQueries({ queryKey: rosterKey(teamId) }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: memberKeys.roster(teamId) }),
   });
 }

@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiPost } from "@/lib/api";
 import type { Role } from "@/lib/roles";
-import { rosterKey } from "./keys";
 import type { Invitation } from "./roster";
+import { memberKeys } from "@/entities/member";
 
 /** POST /api/teams/:teamId/invitations — mails the invitee a link. 409 already_member / already_invited. */
 export const inviteMember = (teamId: string, body: { email: string; role: Role }) =>
@@ -13,6 +13,6 @@ export function useInviteMember(teamId: string) {
   return useMutation({
     mutationFn: (body: { email: string; role: Role }) => inviteMember(teamId, body),
     meta: { toast: false }, // the invite form shows it next to the e-mail field
-    onSuccess: () => qc.invalidateQueries({ queryKey: rosterKey(teamId) }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: memberKeys.roster(teamId) }),
   });
 }

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiPost } from "@/lib/api";
-import { rosterKey } from "./keys";
 import type { Invitation } from "./roster";
+import { memberKeys } from "@/entities/member";
 
 /** POST /api/teams/:teamId/invitations/:invitationId/resend */
 export const resendInvitation = (teamId: string, invitationId: string) =>
@@ -11,6 +11,6 @@ export function useResendInvitation(teamId: string) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (invitationId: string) => resendInvitation(teamId, invitationId),
-    onSuccess: () => qc.invalidateQueries({ queryKey: rosterKey(teamId) }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: memberKeys.roster(teamId) }),
   });
 }

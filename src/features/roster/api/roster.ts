@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiGet } from "@/lib/api";
 import type { RosterResponse } from "@shared/schemas/roster";
-import { rosterKey } from "./keys";
+import { memberKeys } from "@/entities/member";
 
 // GET /api/teams/:teamId/members (docs/api.md); shapes from the shared schema.
 export type { MemberRow as Member, InvitationRow as Invitation, RosterResponse as Roster } from "@shared/schemas/roster";
@@ -13,6 +13,6 @@ export const fetchRoster = (teamId: string, signal?: AbortSignal) =>
   }));
 
 export const rosterQueryOptions = (teamId: string) =>
-  queryOptions({ queryKey: rosterKey(teamId), queryFn: ({ signal }) => fetchRoster(teamId, signal) });
+  queryOptions({ queryKey: memberKeys.roster(teamId), queryFn: ({ signal }) => fetchRoster(teamId, signal) });
 
 export const useRoster = (teamId: string) => useQuery(rosterQueryOptions(teamId));

@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { ApiError, apiPost, type FieldProblem } from "@/lib/api";
 import { env } from "@/lib/env";
 import type { BenchTestInput, BenchTestRow } from "@shared/schemas/sticks";
-import { sticksKey, stickPath } from "./keys";
+import { stickChanged, stickPath } from "@/entities/stick";
 
 /** POST /api/teams/:teamId/sticks/:stickId/bench-tests — readings from the table. */
 export const addBenchTest = (teamId: string, stickId: string, body: BenchTestInput) =>
@@ -40,6 +40,6 @@ export function useAddBenchTest(teamId: string, stickId: string) {
   return useMutation({
     mutationFn: (s: BenchSubmission) => (s.kind === "table" ? addBenchTest(teamId, stickId, s.body) : uploadBenchCsv(teamId, stickId, s.upload)),
     meta: { toast: false },
-    onSuccess: () => qc.invalidateQueries({ queryKey: sticksKey(teamId) }),
+    onSuccess: () => stickChanged(qc, teamId),
   });
 }

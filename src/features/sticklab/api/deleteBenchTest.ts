@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiDelete } from "@/lib/api";
-import { sticksKey, stickPath } from "./keys";
+import { stickChanged, stickPath } from "@/entities/stick";
 
 /** DELETE /api/teams/:teamId/sticks/:stickId/bench-tests/:testId (staff). */
 export const deleteBenchTest = (teamId: string, stickId: string, testId: string) =>
@@ -10,6 +10,6 @@ export function useDeleteBenchTest(teamId: string, stickId: string) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (testId: string) => deleteBenchTest(teamId, stickId, testId),
-    onSuccess: () => qc.invalidateQueries({ queryKey: sticksKey(teamId) }),
+    onSuccess: () => stickChanged(qc, teamId),
   });
 }

@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiPatch, apiPost } from "@/lib/api";
 import type { StickCreate, StickPatch, StickRow } from "@shared/schemas/sticks";
-import { sticksKey, stickPath, teamPath } from "./keys";
+import { teamPath } from "@/entities/team";
+import { stickChanged, stickPath } from "@/entities/stick";
 
 /** POST /api/teams/:teamId/sticks (staff) → the new stick. */
 export const createStick = (teamId: string, body: StickCreate) => apiPost<StickRow>(`${teamPath(teamId)}/sticks`, body);
@@ -14,6 +15,6 @@ export function useSaveStick(teamId: string, stickId?: string) {
   return useMutation({
     mutationFn: (body: StickCreate) => (stickId ? updateStick(teamId, stickId, body) : createStick(teamId, body)),
     meta: { toast: false },
-    onSuccess: () => qc.invalidateQueries({ queryKey: sticksKey(teamId) }),
+    onSuccess: () => stickChanged(qc, teamId),
   });
 }

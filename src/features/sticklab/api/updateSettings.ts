@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiPatch } from "@/lib/api";
 import type { StickSettings } from "@shared/schemas/sticks";
-import { sticksKey, teamPath } from "./keys";
+import { teamPath } from "@/entities/team";
+import { stickChanged } from "@/entities/stick";
 
 /** PATCH /api/teams/:teamId/stick-lab/settings (team admin). */
 export const updateStickSettings = (teamId: string, body: StickSettings) => apiPatch<StickSettings>(`${teamPath(teamId)}/stick-lab/settings`, body);
@@ -10,6 +11,6 @@ export function useUpdateStickSettings(teamId: string) {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (body: StickSettings) => updateStickSettings(teamId, body),
-    onSuccess: () => qc.invalidateQueries({ queryKey: sticksKey(teamId) }),
+    onSuccess: () => stickChanged(qc, teamId),
   });
 }

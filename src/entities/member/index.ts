@@ -1,0 +1,2 @@
+// The team member entity on the client: its query keys.
+export { memberKeys } from "./keys";
