@@ -5,10 +5,14 @@ import { errorMessage, isApiError } from "@/lib/api";
 /**
  * Extra switches a query or mutation can carry in `meta`:
  * - `toast: false` — the page or form shows the error itself, so no toast.
+ * - `errorTitle` — the toast's title, naming what failed ("Couldn't delete the shot").
  * - `authRedirect: false` — a 401 here is an answer (e.g. a wrong password), not an expired session.
+ * A failure is reported once: here, or by the page when it says `toast: false` — never both, so
+ * no caller raises an error toast of its own.
  */
 export interface AppMeta extends Record<string, unknown> {
   toast?: false;
+  errorTitle?: string;
   authRedirect?: false;
 }
 
@@ -39,7 +43,7 @@ export const queryClient = new QueryClient({
   mutationCache: new MutationCache({
     onError: (error, _vars, _ctx, mutation) => {
       if (endedSession(error, mutation.meta)) return onUnauthenticated();
-      if (mutation.meta?.toast !== false) toast.error(errorMessage(error));
+      if (mutation.meta?.toast !== false) toast.error(errorMessage(error), mutation.meta?.errorTitle);
     },
   }),
   defaultOptions: {

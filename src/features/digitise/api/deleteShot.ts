@@ -8,5 +8,5 @@ export const deleteShot = (teamId: string, shotId: string) => apiDelete(`${teamP
 
 export function useDeleteShot(teamId: string) {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: (shotId: string) => deleteShot(teamId, shotId), onSettled: () => shotsChanged(qc, teamId) });
+  return useMutation({ mutationFn: (shotId: string) => deleteShot(teamId, shotId), onSettled: () => shotsChanged(qc, teamId), meta: { errorTitle: "Couldn't delete the shot" } });
 }

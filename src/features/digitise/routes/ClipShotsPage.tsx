@@ -111,7 +111,6 @@ function ShotRow({ teamId, clipId, shot, canEdit }: { teamId: string; clipId: st
         onConfirm={() =>
           del.mutate(shot.id, {
             onSuccess: () => toast.success("Shot deleted."),
-            onError: (e) => toast.error(errorMessage(e)),
             onSettled: () => setConfirm(false),
           })
         }

@@ -21,5 +21,6 @@ export function useUnshareShot(teamId: string, shotId: string) {
   return useMutation({
     mutationFn: (userId: string) => apiDelete(`/teams/${encodeURIComponent(teamId)}/readout/shots/${encodeURIComponent(shotId)}/shares/${encodeURIComponent(userId)}`),
     onSettled: () => shotsChanged(qc, teamId),
+    meta: { errorTitle: "Could not stop sharing" },
   });
 }

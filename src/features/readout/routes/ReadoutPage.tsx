@@ -175,7 +175,6 @@ function SharedWith({ teamId, shotId, userId, name, stillSees }: { teamId: strin
     unshare.mutate(userId, {
       // Taking a share back does not hide the shot from its own player or from staff: say so.
       onSuccess: () => toast.success(`${name} is off the shared list.${stillSees ? " They can still open it: players see their own shots, staff every shot." : ""}`, "Sharing stopped"),
-      onError: (e) => toast.error(errorMessage(e), "Could not stop sharing"),
     });
   return (
     <span className="inline-flex items-center gap-1 rounded-full border border-line bg-surface px-2 py-0.5 text-ink">

@@ -12,5 +12,6 @@ export function useUpdateStickSettings(teamId: string) {
   return useMutation({
     mutationFn: (body: StickSettings) => updateStickSettings(teamId, body),
     onSuccess: () => stickChanged(qc, teamId),
+    meta: { toast: false }, // the alert level card shows it under its field
   });
 }
