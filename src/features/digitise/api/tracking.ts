@@ -3,12 +3,13 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/r
 import { apiDelete, apiGet, apiPost } from "@/lib/api";
 import { env } from "@/lib/env";
 import type { StartTrackingBody, TrackingAnswer, TrackingRun } from "@shared/schemas/tracking";
-import { shotKey, teamPath } from "./keys";
+import { teamPath } from "@/entities/team";
+import { shotKeys } from "@/entities/shot";
 
 // The auto-digitise run of a shot: read the newest, start one from seeds, cancel it, and follow
 // its progress as server-sent events while it is queued or running.
 
-export const trackingKey = (teamId: string, shotId: string) => [...shotKey(teamId, shotId), "tracking"] as const;
+export const trackingKey = shotKeys.tracking;
 const path = (teamId: string, shotId: string) => `${teamPath(teamId)}/shots/${encodeURIComponent(shotId)}/tracking`;
 
 export const trackingQueryOptions = (teamId: string, shotId: string) =>
