@@ -16,20 +16,28 @@ async function ruleIds(filePath: string, code: string) {
 
 describe("import boundaries", { timeout: 60_000 }, () => {
   it("a feature importing another feature fails", async () => {
-    expect(await ruleIds("src/features/clips/boundary-probe.ts", `import { readoutKeys } from "@/features/readout/api/keys";\nexport const k = readoutKeys;\n`)).toContain(
+    expect(await ruleIds("src/features/clips/boundary-probe.ts", `import { readoutQueryOptions } from "@/features/readout/api/readout";\nexport const k = readoutQueryOptions;\n`)).toContain(
       "import-x/no-restricted-paths",
     );
-    expect(await ruleIds("src/features/clips/boundary-probe.ts", `import { readoutKeys } from "../readout/api/keys";\nexport const k = readoutKeys;\n`)).toContain(
+    expect(await ruleIds("src/features/clips/boundary-probe.ts", `import { readoutQueryOptions } from "../readout/api/readout";\nexport const k = readoutQueryOptions;\n`)).toContain(
       "import-x/no-restricted-paths",
     );
   });
 
-  it("a feature importing its own files, shared UI and lib passes", async () => {
-    expect(await ruleIds("src/features/clips/boundary-probe.ts", `import { clipKeys } from "./api/keys";\nimport { Button } from "@/components/ui";\nexport const k = [clipKeys, Button];\n`)).toEqual([]);
+  it("a feature importing its own files, an entity, shared UI and lib passes", async () => {
+    expect(
+      await ruleIds("src/features/clips/boundary-probe.ts", `import { clipQueryOptions } from "./api/clip";\nimport { shotKeys } from "@/entities/shot";\nimport { Button } from "@/components/ui";\nexport const k = [clipQueryOptions, shotKeys, Button];\n`),
+    ).toEqual([]);
+  });
+
+  it("an entity importing a feature fails", async () => {
+    expect(await ruleIds("src/entities/shot/boundary-probe.ts", `import { readoutQueryOptions } from "@/features/readout/api/readout";\nexport const k = readoutQueryOptions;\n`)).toContain(
+      "import-x/no-restricted-paths",
+    );
   });
 
   it("shared UI importing a feature fails", async () => {
-    expect(await ruleIds("src/components/ui/boundary-probe.ts", `import { clipKeys } from "@/features/clips/api/keys";\nexport const k = clipKeys;\n`)).toContain(
+    expect(await ruleIds("src/components/ui/boundary-probe.ts", `import { clipQueryOptions } from "@/features/clips/api/clip";\nexport const k = clipQueryOptions;\n`)).toContain(
       "import-x/no-restricted-paths",
     );
   });
