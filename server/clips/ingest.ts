@@ -20,8 +20,8 @@ import * as repo from "./repository";
 
 /** A problem with extra members in its body (e.g. the existing clip of a duplicate). */
 export class ClipProblem extends HttpError {
-  constructor(status: number, code: string, message: string, readonly extra: Record<string, unknown> = {}) {
-    super(status, code, message);
+  constructor(status: number, code: string, message: string, extra: Record<string, unknown> = {}) {
+    super(status, code, message, undefined, extra);
   }
 }
 

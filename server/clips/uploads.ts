@@ -13,7 +13,7 @@ import { roleIn } from "../auth/context";
 import { policy, type Actor } from "../auth/policy";
 import { env } from "../env";
 import { log } from "../log";
-import { HttpError, PROBLEM_TYPE, problemJson, zodToHttp } from "../http/problem";
+import { HttpError, PROBLEM_TYPE, problemBody, problemJson, zodToHttp } from "../http/problem";
 import { asUploadProblem } from "../http/upload-problems";
 import { StorageError } from "../storage/types";
 import { ClipMetaSchema, type ClipMeta } from "../../shared/schemas/clips";
@@ -39,8 +39,7 @@ function tusProblem(status: number, code: string, detail: string, extra: Record<
 }
 
 function toTusError(err: unknown) {
-  if (err instanceof ClipProblem) return tusProblem(err.status, err.code, err.message, err.extra);
-  if (err instanceof HttpError) return tusProblem(err.status, err.code, err.message, err.errors ? { errors: err.errors } : {});
+  if (err instanceof HttpError) return { status_code: err.status, body: problemBody(err) };
   if (err && typeof err === "object" && "status_code" in err) return err as { status_code: number; body: string };
   // Say what is wrong with the server's disk rather than "internal": the person can tell an admin.
   const code = err instanceof StorageError ? err.code : (err as NodeJS.ErrnoException | null)?.code;

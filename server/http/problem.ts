@@ -2,13 +2,18 @@ import type { ErrorRequestHandler, Response } from "express";
 import { isDatabaseDown } from "./database-down";
 import { ZodError } from "zod";
 
-/** An error the API answers as problem+json (RFC 9457) with a stable machine `code`. */
+/**
+ * An error the API answers as problem+json (RFC 9457) with a stable machine `code`. `extra` holds
+ * extension members (RFC 9457 §3.2) such as who saved a shot last; every answer is written by
+ * `problemBody`, so there is one shape.
+ */
 export class HttpError extends Error {
   constructor(
     readonly status: number,
     readonly code: string,
     message: string,
     readonly errors?: { path: string; message: string }[],
+    readonly extra: Record<string, unknown> = {},
   ) {
     super(message);
   }
@@ -31,6 +36,9 @@ export function problemJson(status: number, code: string, detail: string, extra:
   return JSON.stringify({ type: "about:blank", title: titles[status] ?? "Error", status, code, detail, ...extra });
 }
 
+/** The document for an HttpError: its field errors and extension members included. */
+export const problemBody = (e: HttpError) => problemJson(e.status, e.code, e.message, { ...e.extra, ...(e.errors ? { errors: e.errors } : {}) });
+
 export function sendProblem(res: Response, status: number, code: string, detail: string, errors?: HttpError["errors"]) {
   res.status(status).type(PROBLEM_TYPE).send(problemJson(status, code, detail, errors ? { errors } : {}));
 }
@@ -43,10 +51,17 @@ export function zodToHttp(err: ZodError): HttpError {
 
 /** Last middleware: every thrown error becomes problem+json; unknown ones are logged, not shown. */
 export const problemHandler: ErrorRequestHandler = (err, req, res, _next) => {
-  if (res.headersSent) return;
+  if (res.headersSent) {
+    // Part of the answer (a stream, a file, events) is already out: it cannot turn into a problem
+    // document. Cut the connection, so the client sees a broken answer instead of waiting on an
+    // open one forever.
+    req.log?.error({ err }, "error after the answer began; connection closed");
+    res.destroy();
+    return;
+  }
   if (err instanceof HttpError) {
     if (err.status === 503) res.setHeader("Retry-After", "5");
-    return sendProblem(res, err.status, err.code, err.message, err.errors);
+    return res.status(err.status).type(PROBLEM_TYPE).send(problemBody(err));
   }
   if (err instanceof ZodError) {
     const h = zodToHttp(err);

@@ -1,21 +1,14 @@
-import type { Response } from "express";
 import { HttpError } from "../http/problem";
 import type { VersionConflict } from "../../shared/schemas/shots";
 
 /**
  * 409 version_conflict: someone saved the shot after the caller's edits began. It carries who saved
- * last and when as problem+json extension members (RFC 9457 §3.2), so the page can say so.
+ * last and when as problem+json extension members (RFC 9457 §3.2), so the page can say so; the
+ * one problem handler writes it like every other error.
  */
 export class VersionConflictError extends HttpError {
   constructor(readonly conflict: VersionConflict) {
     const who = conflict.savedBy ?? "Someone";
-    super(409, "version_conflict", `${who} saved this shot at ${conflict.savedAt} (now version ${conflict.currentVersion}); your edits were not saved, so nothing was overwritten.`);
+    super(409, "version_conflict", `${who} saved this shot at ${conflict.savedAt} (now version ${conflict.currentVersion}); your edits were not saved, so nothing was overwritten.`, undefined, { ...conflict });
   }
-}
-
-export function sendVersionConflict(res: Response, e: VersionConflictError) {
-  res
-    .status(409)
-    .type("application/problem+json")
-    .send(JSON.stringify({ type: "about:blank", title: "Conflict", status: 409, code: e.code, detail: e.message, ...e.conflict }));
 }

@@ -1,8 +1,7 @@
-import { Router, type NextFunction, type Request, type Response } from "express";
+import { Router, type Request } from "express";
 import { actorOf } from "../auth/context";
 import { parse } from "../http/validate";
 import { CalibrationBody, CreateShotBody, SaveMarksBody, UpdateShotBody, type SaveMarksBody as SaveMarks } from "../../shared/schemas/shots";
-import { sendVersionConflict, VersionConflictError } from "./conflict";
 import * as svc from "./service";
 
 /** Mounted at /api/teams/:teamId (after requireTeamMember). See docs/api.md, "Shots". */
@@ -34,8 +33,3 @@ shotsRouter.delete("/shots/:shotId", async (req, res) => {
   res.status(204).end();
 });
 
-// The conflict answer carries who saved last and when; every other error goes on to problemHandler.
-shotsRouter.use((err: unknown, _req: Request, res: Response, next: NextFunction) => {
-  if (err instanceof VersionConflictError) return sendVersionConflict(res, err);
-  next(err);
-});

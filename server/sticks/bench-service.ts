@@ -88,7 +88,7 @@ export async function addBenchTestCsv(a: Actor, stickId: string, file: UploadedC
 export function csvTooLarge(size: number | null): HttpError {
   const got = size === null ? `more than ${READINGS_LIMITS.maxBytes} bytes` : `${size} bytes`;
   const message = `the file is too large: ${got} (the limit is ${READINGS_LIMITS.maxBytes} bytes)`;
-  return new HttpError(422, "invalid_input", message, [{ path: "file", message }]);
+  return new HttpError(422, "validation_failed", message, [{ path: "file", message }]);
 }
 
 export async function deleteBenchTest(a: Actor, stickId: string, testId: string): Promise<void> {

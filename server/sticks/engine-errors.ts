@@ -4,7 +4,7 @@ import { StickLabInputError } from "../../shared/mechanics/sticklab";
 import { HttpError } from "../http/problem";
 
 export function engineInputError(err: StickLabInputError, field = err.field ?? "input"): HttpError {
-  return new HttpError(422, "invalid_input", err.message, [{ path: field, message: err.message }]);
+  return new HttpError(422, "validation_failed", err.message, [{ path: field, message: err.message }]);
 }
 
 /** Runs an engine call; its input errors become 422s, anything else is a real fault and passes on. */
