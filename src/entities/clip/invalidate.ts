@@ -1,6 +1,5 @@
 import type { QueryClient } from "@tanstack/react-query";
-import { shotsChanged } from "../shot/invalidate";
-import { teamKey } from "../team";
+import { shotAccessChanged, shotsChanged } from "../shot/invalidate";
 import { clipKeys } from "./keys";
 
 /**
@@ -9,7 +8,7 @@ import { clipKeys } from "./keys";
  * `access`: who may see the clip changed (a new player), so every query of the team refetches.
  */
 export function clipChanged(qc: QueryClient, teamId: string, o: { options?: boolean; access?: boolean } = {}) {
-  if (o.access) return qc.invalidateQueries({ queryKey: teamKey(teamId) });
+  if (o.access) return shotAccessChanged(qc, teamId);
   return Promise.all([
     qc.invalidateQueries({ queryKey: clipKeys.all(teamId) }),
     o.options ? qc.invalidateQueries({ queryKey: clipKeys.options(teamId) }) : null,

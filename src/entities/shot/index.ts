@@ -1,3 +1,3 @@
 // The shot entity on the client: its query-key tree and what a change to shots invalidates.
 export { shotKeys } from "./keys";
-export { shotMarksSaved, shotsChanged } from "./invalidate";
+export { shotAccessChanged, shotMarksSaved, shotsChanged } from "./invalidate";

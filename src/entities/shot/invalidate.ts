@@ -1,5 +1,6 @@
 import type { QueryClient } from "@tanstack/react-query";
 import type { SaveMarksResponse, ShotDetail } from "@shared/schemas/shots";
+import { teamKey } from "../team";
 import { shotKeys } from "./keys";
 
 const sameKey = (a: readonly unknown[], b: readonly unknown[]) => a.length === b.length && a.every((v, i) => v === b[i]);
@@ -12,6 +13,14 @@ const sameKey = (a: readonly unknown[], b: readonly unknown[]) => a.length === b
 export function shotsChanged(qc: QueryClient, teamId: string, o: { keepDocument?: string } = {}) {
   const keep = o.keepDocument ? shotKeys.document(teamId, o.keepDocument) : null;
   return qc.invalidateQueries({ queryKey: shotKeys.all(teamId), predicate: (q) => !keep || !sameKey(q.queryKey, keep) });
+}
+
+/**
+ * Who may see shots changed (a shot's player corrected, a clip's player moved): every list of
+ * shots, clips and progress depends on it, so every query of the team refetches.
+ */
+export function shotAccessChanged(qc: QueryClient, teamId: string) {
+  return qc.invalidateQueries({ queryKey: teamKey(teamId) });
 }
 
 /**

@@ -11,7 +11,7 @@ import { shotsQueryOptions } from "@/features/readout/api/shots";
 import { compareQueryOptions } from "@/features/compare/api/compare";
 import { shotChoicesQueryOptions } from "@/features/compare/api/shotChoices";
 import { progressQueryOptions } from "@/features/progress/api/progress";
-import { playersQueryOptions } from "@/features/progress/api/players";
+import { playersQueryOptions } from "@/entities/member/players";
 import { shotBeamQueryOptions } from "@/features/sticklab/api/shotBeam";
 import { clipShotsQueryOptions } from "@/features/digitise/api/clipShots";
 import { shotQueryOptions } from "@/features/digitise/api/shot";

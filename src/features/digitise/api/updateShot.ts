@@ -2,7 +2,9 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/r
 import { apiGet, apiPatch } from "@/lib/api";
 import type { ClipOptions } from "@shared/schemas/clips";
 import type { ShotDetail, UpdateShotBody } from "@shared/schemas/shots";
-import { teamPath } from "./keys";
+import { teamPath } from "@/entities/team";
+import { shotAccessChanged } from "@/entities/shot";
+import { clipKeys } from "@/entities/clip";
 
 /** PATCH /api/teams/:teamId/shots/:shotId — staff correct the label, frames, player or stick (audited). */
 export const updateShot = (teamId: string, shotId: string, body: UpdateShotBody) =>
@@ -15,7 +17,7 @@ export function useUpdateShot(teamId: string, shotId: string) {
     meta: { toast: false }, // the dialog shows the message next to its field
     // A new player changes who may see the shot, and every list of shots, clips and progress with
     // it: everything of the team is fetched again.
-    onSuccess: () => qc.invalidateQueries({ queryKey: ["teams", teamId] }),
+    onSuccess: () => shotAccessChanged(qc, teamId),
   });
 }
 
@@ -23,7 +25,7 @@ export function useUpdateShot(teamId: string, shotId: string) {
 // the clip form reads, so both share one cached copy).
 const peopleOptions = (teamId: string) =>
   queryOptions({
-    queryKey: ["teams", teamId, "clip-options"],
+    queryKey: clipKeys.options(teamId),
     queryFn: ({ signal }) => apiGet<ClipOptions>(`${teamPath(teamId)}/clip-options`, undefined, signal),
     staleTime: 60_000,
   });

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiDelete, apiPut } from "@/lib/api";
 import type { PublishResponse, PublishShotBody } from "@shared/schemas/readout";
-import { readoutKey } from "./keys";
+import { shotsChanged } from "@/entities/shot";
 
 const path = (teamId: string, shotId: string) => `/teams/${encodeURIComponent(teamId)}/readout/shots/${encodeURIComponent(shotId)}/publication`;
 
@@ -11,6 +11,6 @@ export function usePublishShot(teamId: string, shotId: string) {
   return useMutation({
     mutationFn: (v: { publish: true; body: PublishShotBody } | { publish: false }) =>
       v.publish ? apiPut<PublishResponse>(path(teamId, shotId), v.body) : apiDelete<PublishResponse>(path(teamId, shotId)),
-    onSettled: () => qc.invalidateQueries({ queryKey: readoutKey(teamId) }),
+    onSettled: () => shotsChanged(qc, teamId),
   });
 }
