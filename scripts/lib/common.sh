@@ -62,6 +62,17 @@ as_pg() { if [ "$(id -u)" -eq 0 ]; then runuser -u postgres -- "$@"; else "$@"; 
 
 port_in_use() { (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null; }
 
+# Runs a command that leaves a server behind with none of this shell's open files beyond
+# stdin/stdout/stderr: under `flock LOCKFILE scripts/test` (the shared heavy-work lock) its descriptor would
+# otherwise live on in the PostgreSQL server, holding the lock until the cluster stops.
+without_inherited_files() (
+  local fd
+  for fd in $(ls "/proc/$BASHPID/fd"); do
+    if [ "$fd" -gt 2 ] && [ -e "/proc/$BASHPID/fd/$fd" ]; then eval "exec $fd>&-"; fi
+  done
+  "$@"
+)
+
 pg_start() {
   local bin dir pwfile; bin=$(pg_bindir) || die "PostgreSQL is not installed"
   dir=$(pg_datadir); pwfile="$DATA/pg-password"
@@ -77,7 +88,7 @@ pg_start() {
     PG_STARTED_HERE=0
   else
     port_in_use "$PG_PORT" && die "Port $PG_PORT (PostgreSQL) is already in use by another program. Stop it or set PG_PORT."
-    as_pg "$bin/pg_ctl" -D "$dir" -l "$dir/server.log" -w -t 30 \
+    without_inherited_files as_pg "$bin/pg_ctl" -D "$dir" -l "$dir/server.log" -w -t 30 \
       -o "-c listen_addresses=127.0.0.1 -p $PG_PORT -c unix_socket_directories='' -c max_connections=200" start >/dev/null \
       || die "PostgreSQL did not start; see $dir/server.log"
     PG_STARTED_HERE=1

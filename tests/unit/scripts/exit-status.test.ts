@@ -66,4 +66,13 @@ describe("the README's commands exit 0 on success in every order", { timeout: 12
     // It left the cluster it did not start running.
     expect(sh("source scripts/lib/common.sh && as_pg \"$(pg_bindir)/pg_ctl\" -D \"$(pg_datadir)\" status").status).toBe(0);
   });
+
+  it("a cluster started under the shared lock (flock LOCK scripts/test) does not keep holding it", () => {
+    const lock = path.join(root, "heavy.lock");
+    expect(sh("source scripts/lib/common.sh && pg_stop").status).toBe(0);
+    const r = sh(`flock ${lock} bash -c 'source scripts/lib/common.sh && pg_start'`);
+    expect(r.status, r.stderr).toBe(0);
+    expect(sh("source scripts/lib/common.sh && as_pg \"$(pg_bindir)/pg_ctl\" -D \"$(pg_datadir)\" status").status).toBe(0);
+    expect(sh(`flock -n ${lock} true`).status, "the lock is still held by the cluster").toBe(0);
+  });
 });
