@@ -44,6 +44,21 @@ export interface ClipTiming {
 /** True when the clip has real gaps, repeats or missing frames. */
 export const timingIrregular = (t: ClipTiming | null | undefined): boolean => !!t && (t.gapCount > 0 || t.repeatCount > 0 || t.missingTail !== null);
 
+const framesWord = (n: number) => `${n.toLocaleString("en")} frame${n === 1 ? "" : "s"}`;
+
+/** The clip's timing irregularities in words, first `max` of each kind ("after frame 100: about 3 frames missing"). */
+export function describeClipTiming(t: ClipTiming, max = 5): string[] {
+  const out: string[] = [];
+  for (const g of t.gaps.slice(0, max)) out.push(`After frame ${g.after.toLocaleString("en")}: about ${framesWord(g.missing)} missing`);
+  const moreGaps = t.gapCount - Math.min(max, t.gaps.length);
+  if (moreGaps > 0) out.push(`…and ${moreGaps.toLocaleString("en")} more gap${moreGaps === 1 ? "" : "s"}`);
+  for (const f of t.repeats.slice(0, max)) out.push(`Frame ${f.toLocaleString("en")} repeats the time of frame ${(f - 1).toLocaleString("en")}`);
+  const moreRepeats = t.repeatCount - Math.min(max, t.repeats.length);
+  if (moreRepeats > 0) out.push(`…and ${moreRepeats.toLocaleString("en")} more repeated frame${moreRepeats === 1 ? "" : "s"}`);
+  if (t.missingTail) out.push(`Frames ${t.missingTail.from.toLocaleString("en")}–${t.missingTail.to.toLocaleString("en")}, promised by the file's header, are missing (the file was cut or damaged)`);
+  return out;
+}
+
 /**
  * True when the person must confirm the capture rate before speeds mean anything: whenever ingest
  * could not (a playback-looking stored rate, a tag that differs from it, an uneven clock).

@@ -3,7 +3,21 @@ import { mkdirSync, mkdtempSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { expect, test } from "@playwright/test";
+import type { Page } from "@playwright/test";
 import { signIn } from "./support/sign-in";
+
+/** With LF_SHOTS=<folder>, the page at desktop, tablet and phone size (for looking at, not asserting). */
+async function screenshots(page: Page, name: string) {
+  const dir = process.env.LF_SHOTS;
+  if (!dir) return;
+  const before = page.viewportSize();
+  for (const [w, h, tag] of [[1366, 850, "desktop"], [1024, 768, "tablet"], [390, 844, "phone"]] as const) {
+    await page.setViewportSize({ width: w, height: h });
+    await page.waitForTimeout(300);
+    await page.screenshot({ path: `${dir}/${name}-${tag}.png` });
+  }
+  if (before) await page.setViewportSize(before);
+}
 
 // Done-when of clip ingest: a coach uploads a lab clip stored at 30 fps, confirms that the camera
 // captured at 3,200 fps, watches the extraction bar, and opens frame 1.
@@ -111,4 +125,35 @@ test("a folder of numbered lab frames goes up as one ZIP: the capture rate is as
   const row = page.locator("tr", { hasText: "lab-run-12" });
   await expect(row).toContainText("2,000 fps");
   await expect(row).toContainText("24");
+});
+
+test("a clip with dropped frames: the Clip page names the gap and the Digitise strip marks where it is", async ({ page }) => {
+  const file = path.join(mkdtempSync(path.join(os.tmpdir(), "lf-e2e-")), "dropped-240.mp4");
+  execFileSync("ffmpeg", ["-hide_banner", "-loglevel", "error", "-nostdin", "-y", "-f", "lavfi", "-i", "testsrc2=size=640x360:rate=240:duration=1",
+    "-vf", "select='not(between(n,100,102))'", "-fps_mode", "passthrough", "-c:v", "libx264", "-preset", "ultrafast", "-pix_fmt", "yuv420p", file]);
+  await signIn(page, "coach@ravens.example");
+  await page.goto("/clips");
+  await page.getByTestId("clip-file-input").setInputFiles(file);
+  const item = page.getByRole("listitem", { name: "Upload of dropped-240.mp4" });
+  await item.getByLabel("Player").selectOption({ label: "Theo Marchetti" });
+  await item.getByLabel("Shot type").selectOption("slap");
+  await item.getByRole("button", { name: "Upload" }).click();
+  await expect(item.getByRole("progressbar")).toHaveAttribute("aria-valuenow", "100", { timeout: 30_000 });
+  await item.getByRole("link", { name: "Open clip" }).click();
+
+  const warning = page.getByTestId("timing-irregularities");
+  await expect(warning).toContainText("After frame 100: about 3 frames missing");
+  await screenshots(page, "gap-clip");
+
+  const clipId = page.url().split("/clips/")[1].split(/[/?]/)[0];
+  const me = await (await page.request.get("/api/me")).json();
+  const teamId: string = me.activeTeamId ?? me.teams[0].id;
+  const r = await page.request.post(`/api/teams/${teamId}/clips/${clipId}/shots`, { data: { frameStart: 80, frameEnd: 130, label: "Across the gap" } });
+  expect(r.status()).toBe(201);
+  const shot = await r.json();
+  await page.goto(`/clips/${clipId}/shots/${shot.id}/digitise`);
+  const mark = page.getByTestId("strip-timing-mark");
+  await expect(mark).toHaveCount(1);
+  await expect(mark).toHaveAttribute("aria-label", /between frames 100 and 101 \(about 3 frames missing\)/);
+  await screenshots(page, "gap-digitise");
 });

@@ -9,6 +9,7 @@ import { useDeleteClip } from "../api/deleteClip";
 import { useRetryClip } from "../api/retryClip";
 import { CaptureRateConfirm } from "../components/CaptureRateConfirm";
 import { ClipFacts } from "../components/ClipFacts";
+import { TimingWarning } from "../components/TimingWarning";
 import { EditClipDialog } from "../components/EditClipDialog";
 import { FrameStrip, FrameViewer } from "../components/FrameViewer";
 import { FrameStepper } from "@/components/shot/stepping/frame-stepper";
@@ -112,6 +113,7 @@ function ClipView({ teamId, clipId, staff }: { teamId: string; clipId: string; s
         {c.needsCaptureRateConfirmation && !staff && (
           <Alert tone="warn">The capture rate of this clip has not been confirmed yet, so speeds from it may be wrong.</Alert>
         )}
+        <TimingWarning clip={c} />
         <div className="grid grid-cols-1 items-start gap-6 xl:grid-cols-[minmax(0,1fr)_22rem]">
           <Card title="Frames" description="Step through the clip frame by frame; the time shown is real time from the capture rate.">
             <div className="flex flex-col gap-4">

@@ -1,4 +1,5 @@
 import { memo, useEffect, useRef, useState } from "react";
+import { describeIrregularity, type TimingIrregularity } from "@shared/mechanics/time-base";
 import { EVENTS, eventLabels, LANDMARKS, landmarkLabels } from "@shared/schemas/shots";
 import type { DigitiseStore } from "../model/store";
 import { eventColour, eventLetter, landmarkColour } from "../model/style";
@@ -9,9 +10,10 @@ const COVERAGE_ROW = 3;
 
 /**
  * The shot's frames at a glance, for coarse scrubbing: thumbnails, which frames each landmark is
- * marked on, the events as flags, and the playhead. Press and drag anywhere to scrub.
+ * marked on, the events as flags, gaps and repeats in the clip's frame clock, and the playhead.
+ * Press and drag anywhere to scrub.
  */
-export function FrameStrip({ store, thumbUrl }: { store: DigitiseStore; thumbUrl: (frame: number) => string }) {
+export function FrameStrip({ store, thumbUrl, irregular = [] }: { store: DigitiseStore; thumbUrl: (frame: number) => string; irregular?: TimingIrregularity[] }) {
   const s = useDigitise(store, (st) => ({ frame: st.frame, start: st.frameStart, end: st.frameEnd, marks: st.doc.marks, events: st.doc.events, visible: st.visible }));
   const box = useRef<HTMLDivElement>(null);
   const canvas = useRef<HTMLCanvasElement>(null);
@@ -82,6 +84,25 @@ export function FrameStrip({ store, thumbUrl }: { store: DigitiseStore; thumbUrl
             </div>
           );
         })}
+        {width > 0 &&
+          irregular
+            .filter((g) => g.from >= s.start && g.from < s.end)
+            .map((g) => (
+              // Between the two frames of the step: an amber seam with a tag, "gap" or "rep" (repeat).
+              <div
+                key={`${g.kind}-${g.from}`}
+                data-testid="strip-timing-mark"
+                className="absolute -top-4 bottom-0"
+                style={{ left: xOf(g.from + 0.5) }}
+                title={describeIrregularity(g)}
+                aria-label={describeIrregularity(g)}
+              >
+                <div className="absolute top-4 h-11 w-1 -translate-x-1/2 bg-[#f2b33d] shadow-[0_0_0_1px_rgba(0,0,0,0.75)]" />
+                <div className="absolute top-0 -translate-x-1/2 rounded-sm border border-[#f2b33d] bg-[#12181a] px-1 text-[10px] leading-[14px] font-bold text-[#f2b33d]">
+                  {g.kind === "gap" ? "gap" : "rep"}
+                </div>
+              </div>
+            ))}
         {width > 0 && (
           <div
             className="pointer-events-none absolute -top-1 -bottom-1 left-0 w-0.5 bg-white shadow-[0_0_0_1px_rgba(0,0,0,0.6)] will-change-transform"

@@ -11,6 +11,7 @@ import type { MergePart } from "../model/merge";
 import { checkDraft } from "../model/calibration-draft";
 import { commandFor, isTypingTarget, type Command } from "../model/keymap";
 import { DigitiseStore } from "../model/store";
+import { shotIrregularities } from "../model/timing";
 import { usePreview } from "../preview/usePreview";
 import { useTrackingRun } from "../api/tracking";
 import { AutoDigitisePanel } from "./AutoDigitisePanel";
@@ -89,6 +90,7 @@ export function Workspace({ teamId, shot }: { teamId: string; shot: ShotDetail }
     [doc],
   );
   const preview = usePreview(parts);
+  const irregular = useMemo(() => shotIrregularities(shot.frameTimes, shot.clip.captureFps), [shot.frameTimes, shot.clip.captureFps]);
 
   useEffect(() => {
     const run = (c: Command) => {
@@ -220,7 +222,7 @@ export function Workspace({ teamId, shot }: { teamId: string; shot: ShotDetail }
             </div>
           </div>
           <Transport store={store} playback={playback} jumpRequest={jumpRequest} />
-          <FrameStrip store={store} thumbUrl={url} />
+          <FrameStrip store={store} thumbUrl={url} irregular={irregular} />
         </div>
         <aside className="min-h-0 border-t border-line lg:overflow-y-auto lg:border-t-0 lg:border-l" aria-label="Digitise panels">
           <AutoDigitisePanel store={store} teamId={teamId} shotId={shot.id} canEdit={shot.canEdit} />

@@ -1,3 +1,6 @@
+import { clockTimeBase, type TimingIrregularity } from "@shared/mechanics/time-base";
+import type { ShotDetail } from "@shared/schemas/shots";
+
 // Times from the capture rate, never the stored (playback) rate: frame n is (n − 1) / fps after
 // the clip's first frame.
 
@@ -27,4 +30,19 @@ export function playbackAdvance(carry: number, elapsedMs: number, captureFps: nu
   const exact = carry + (elapsedMs / 1000) * playbackFps(captureFps, fraction);
   const frames = Math.floor(exact + 1e-9); // sums of tick lengths are not exact
   return { frames, carry: exact - frames };
+}
+
+/**
+ * Gaps and repeated frames in the shot's own frame clock (the same rule the engine's notes use),
+ * for marks on the frame strip; none when the shot has no clock of its own.
+ */
+export function shotIrregularities(frameTimes: ShotDetail["frameTimes"], captureFps: number): TimingIrregularity[] {
+  if (!frameTimes || frameTimes.seconds.length < 2) return [];
+  const first = frameTimes.firstFrame;
+  const last = first + frameTimes.seconds.length - 1;
+  try {
+    return clockTimeBase(frameTimes, captureFps, [first, last]).irregularities(first, last);
+  } catch {
+    return [];
+  }
 }
