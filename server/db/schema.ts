@@ -196,6 +196,12 @@ export const shotResult = pgTable("shot_result", {
   error: text("error"),
   shotVersion: integer("shot_version").notNull(),
   computedAt: timestamp("computed_at", { withTimezone: true }).defaultNow().notNull(),
+  /**
+   * Set when something the results depend on outside the shot changed (the clip's calibration, the
+   * stick's stiffness) and a recompute job is queued; cleared by the run that read the new inputs.
+   * While set, the stored results are the previous ones and every page says "recomputing".
+   */
+  recomputeRequestedAt: timestamp("recompute_requested_at", { withTimezone: true }),
 });
 
 export const shotShare = pgTable(

@@ -7,7 +7,7 @@ import { runTracking } from "./shot-track";
 import { sweepTracking } from "./track-sweep";
 import { announceGraceEnded } from "../billing/sync";
 import { removeEndedWindows } from "../security/rate-limit-store";
-import { recomputeOutdatedResults } from "../shots/results";
+import { recomputeOutdatedResults, resendForgottenRecomputes, runRecompute } from "../shots/results";
 
 export interface JobContext {
   jobId: string;
@@ -27,6 +27,12 @@ export const handlers: { [N in JobName]?: JobHandler<N> } = {
     await removeEndedWindows();
     const recomputed = await recomputeOutdatedResults();
     if (recomputed) ctx.log.info({ recomputed }, "results from an earlier engine computed again");
+    const resent = await resendForgottenRecomputes();
+    if (resent) ctx.log.info({ resent }, "results left marked for a recompute were queued again");
+  },
+  "shot.recompute": async ({ scope, id }, ctx) => {
+    const shots = await runRecompute({ scope, id });
+    ctx.log.info({ scope, id, shots }, "results recomputed");
   },
   "shot.track": async ({ runId }, ctx) => {
     await runTracking(runId, { jobId: ctx.jobId, log: ctx.log, lastAttempt: ctx.retryCount >= jobPolicies["shot.track"].retryLimit });

@@ -9,7 +9,8 @@ export function setQueue(b: PgBoss | undefined) {
   boss = b;
 }
 
-export async function enqueue<N extends JobName>(name: N, data: JobTypes[N], opts: { singletonKey?: string } = {}) {
+/** Sends a job; null when a singleton key's policy joined it to one already waiting. */
+export async function enqueue<N extends JobName>(name: N, data: JobTypes[N], opts: { singletonKey?: string; startAfter?: number } = {}) {
   if (!boss) throw new Error("job queue not started");
   return boss.send(name, data as object, opts);
 }

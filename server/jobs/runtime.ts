@@ -34,7 +34,7 @@ export async function startJobs({ work }: { work: boolean }) {
   for (const name of Object.keys(jobPolicies) as JobName[]) {
     // pg-boss 10: a queue must exist before send(), or send silently returns null.
     const p = jobPolicies[name];
-    await boss.createQueue(name, { name, retryLimit: p.retryLimit, retryDelay: p.retryDelaySeconds, retryBackoff: p.retryBackoff, expireInSeconds: p.expireInSeconds });
+    await boss.createQueue(name, { name, policy: p.policy ?? "standard", retryLimit: p.retryLimit, retryDelay: p.retryDelaySeconds, retryBackoff: p.retryBackoff, expireInSeconds: p.expireInSeconds });
   }
   if (work) {
     for (const name of Object.keys(handlers) as JobName[]) {

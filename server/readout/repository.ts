@@ -25,6 +25,7 @@ const baseColumns = {
   frameCount: clip.frameCount, width: clip.width, height: clip.height, frameFormat: clip.frameFormat, calibration: clip.calibration,
   clipCreatedAt: clip.createdAt, sessionId: clip.sessionId, sessionDate: trainingSession.date, venue: trainingSession.venue,
   resultShotVersion: shotResult.shotVersion, resultError: shotResult.error, computedAt: shotResult.computedAt,
+  recomputeRequestedAt: shotResult.recomputeRequestedAt,
 };
 
 const withResultSummary = {

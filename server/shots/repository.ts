@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray, isNull, sql } from "drizzle-orm";
+import { and, asc, eq, inArray, isNull, lt, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../db/client";
 import { clip, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../db/schema";
@@ -37,6 +37,7 @@ const shotColumns = {
   // The stick's stiffness in force on the shot's date, in the same round trip.
   stickRatedFlex: stick.ratedFlex, stickTestInForce: benchTestInForce(shot.stickId, shotDateSql),
   resultEngine: shotResult.engineVersion, results: shotResult.results, resultError: shotResult.error, resultShotVersion: shotResult.shotVersion, computedAt: shotResult.computedAt,
+  recomputeRequestedAt: shotResult.recomputeRequestedAt,
 };
 
 function shotQuery() {
@@ -172,14 +173,49 @@ export async function autoPublishIfTeamWants(tx: Tx, shotId: string) {
     .where(and(eq(shot.id, shotId), isNull(shot.publishedAt), sql`exists (select 1 from ${teamSettings} where ${teamSettings.teamId} = ${shot.teamId} and ${teamSettings.autoPublish})`));
 }
 
-export async function upsertResult(tx: Tx, v: { shotId: string; teamId: string; engineVersion: string; results: unknown; error: string | null; shotVersion: number }) {
+
+/** The transaction's clock now, to the microsecond (as text: a JS Date would round it). */
+export async function clockNow(tx: Tx): Promise<string> {
+  const r = await tx.execute<{ t: string }>(sql`select clock_timestamp()::text as t`);
+  return r.rows[0].t;
+}
+
+/**
+ * Stores a run's outcome. `readAt`: when the run read its inputs; a recompute requested up to
+ * then is answered by this run (its marker cleared), one requested later stays for its own job.
+ */
+export async function upsertResult(tx: Tx, v: { shotId: string; teamId: string; engineVersion: string; results: unknown; error: string | null; shotVersion: number }, readAt: string) {
+  const { shotId, teamId, engineVersion, results, error, shotVersion } = v;
   const [row] = await tx
     .insert(shotResult)
-    .values({ ...v, computedAt: new Date() })
+    .values({ shotId, teamId, engineVersion, results, error, shotVersion, computedAt: new Date() })
     .onConflictDoUpdate({
       target: shotResult.shotId,
-      set: { engineVersion: v.engineVersion, results: v.results, error: v.error, shotVersion: v.shotVersion, computedAt: new Date() },
+      set: {
+        engineVersion, results, error, shotVersion, computedAt: new Date(),
+        recomputeRequestedAt: sql`case when ${shotResult.recomputeRequestedAt} <= ${readAt}::timestamptz then null else ${shotResult.recomputeRequestedAt} end`,
+      },
     })
     .returning();
   return row;
+}
+
+/** Marks the shots' stored results as being recomputed (shots without stored results have nothing to mark). */
+export async function markRecomputing(target: { scope: "clip" | "stick" | "shot"; id: string }) {
+  const column = { clip: shot.clipId, stick: shot.stickId, shot: shot.id }[target.scope];
+  await db()
+    .update(shotResult)
+    .set({ recomputeRequestedAt: sql`clock_timestamp()` })
+    .where(inArray(shotResult.shotId, db().select({ id: shot.id }).from(shot).where(eq(column, target.id))));
+}
+
+/** Shots marked for a recompute longer ago than `olderThanMs` (their job may have been lost), oldest first. */
+export async function forgottenRecomputes(olderThanMs: number, limit: number) {
+  const rows = await db()
+    .select({ id: shotResult.shotId })
+    .from(shotResult)
+    .where(lt(shotResult.recomputeRequestedAt, new Date(Date.now() - olderThanMs)))
+    .orderBy(asc(shotResult.recomputeRequestedAt))
+    .limit(limit);
+  return rows.map((r) => r.id);
 }

@@ -6,14 +6,18 @@ import { offLoop } from "../cpu/pool";
 import { shotFrameTimes } from "../../shared/schemas/clips";
 import { toShotDocument, type StoredResult } from "../../shared/schemas/shots";
 import { shotStickInfo } from "../entities/stick/stiffness";
+import { canQueueRecompute, sendRecompute, type RecomputeTarget } from "../jobs/recompute-queue";
 import * as repo from "./repository";
 
 // The stored, authoritative results of a shot. Called whenever marks, events, the clip's
 // calibration or the stick (or its bench tests) change. Each run re-reads the latest state under a
 // per-shot advisory lock, so overlapping saves cannot leave an older result on top of a newer one.
 
-export function toStoredResult(r: { engineVersion: string; results: unknown; error: string | null; shotVersion: number; computedAt: Date }): StoredResult {
-  return { engineVersion: r.engineVersion, results: r.results as StoredResult["results"], error: r.error, shotVersion: r.shotVersion, computedAt: r.computedAt.toISOString() };
+export function toStoredResult(r: { engineVersion: string; results: unknown; error: string | null; shotVersion: number; computedAt: Date; recomputeRequestedAt?: Date | null }): StoredResult {
+  return {
+    engineVersion: r.engineVersion, results: r.results as StoredResult["results"], error: r.error, shotVersion: r.shotVersion, computedAt: r.computedAt.toISOString(),
+    recomputing: !!r.recomputeRequestedAt,
+  };
 }
 
 /**
@@ -24,6 +28,7 @@ export function toStoredResult(r: { engineVersion: string; results: unknown; err
 export async function recomputeShot(shotId: string): Promise<StoredResult | null> {
   return db().transaction(async (tx) => {
     await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${"shot-result:" + shotId}))`);
+    const readAt = await repo.clockNow(tx);
     const inputs = await repo.recomputeInputs(tx, shotId);
     if (!inputs) return null;
     const { shot, clip } = inputs;
@@ -52,7 +57,7 @@ export async function recomputeShot(shotId: string): Promise<StoredResult | null
         error = `The mechanics engine failed on this shot: ${(e as Error).message}`;
       }
     }
-    const row = await repo.upsertResult(tx, { shotId, teamId: shot.teamId, engineVersion: ENGINE_VERSION, results, error, shotVersion: shot.version });
+    const row = await repo.upsertResult(tx, { shotId, teamId: shot.teamId, engineVersion: ENGINE_VERSION, results, error, shotVersion: shot.version }, readAt);
     if (results !== null) await repo.autoPublishIfTeamWants(tx, shotId);
     return toStoredResult(row);
   });
@@ -60,20 +65,52 @@ export async function recomputeShot(shotId: string): Promise<StoredResult | null
 
 /**
  * Results stored by an earlier engine are computed again (a batch per clip sweep), so the readout,
- * the PDF and the CSV show what the Digitise preview — always the current engine — shows.
+ * the PDF and the CSV show what the Digitise preview — always the current engine — shows. Each is
+ * a shot's recompute job, so it joins any other waiting for that shot.
  */
 export async function recomputeOutdatedResults(limit = 200): Promise<number> {
   const ids = await repo.shotIdsWithResultsOtherThan(ENGINE_VERSION, limit);
+  for (const id of ids) await recomputeLater({ scope: "shot", id });
+  return ids.length;
+}
+
+/** The shots a recompute target covers, as they are now. */
+async function shotsOf(t: RecomputeTarget): Promise<string[]> {
+  if (t.scope === "clip") return repo.shotIdsOfClip(t.id);
+  if (t.scope === "stick") return repo.shotIdsOfStick(t.id);
+  return [t.id];
+}
+
+/**
+ * After something the results of many shots depend on changed (the clip's calibration, the
+ * stick's stiffness): their results are marked "recomputing" and one job is queued for the target,
+ * so the request that changed it answers at once (docs/decisions/125-recompute-on-the-queue.md).
+ * A process without a job queue (scripts, most tests) recomputes here instead.
+ */
+export async function recomputeLater(t: RecomputeTarget, reqId?: string): Promise<void> {
+  if (!canQueueRecompute()) {
+    await runRecompute(t);
+    return;
+  }
+  await repo.markRecomputing(t);
+  await sendRecompute(t, reqId);
+}
+
+/** The job's work: every shot of the target, each under its own lock, with the inputs of now. */
+export async function runRecompute(t: RecomputeTarget): Promise<number> {
+  const ids = await shotsOf(t);
   for (const id of ids) await recomputeShot(id);
   return ids.length;
 }
 
-/** After the clip's calibration changed. */
-export async function recomputeShotsOfClip(clipId: string): Promise<void> {
-  for (const id of await repo.shotIdsOfClip(clipId)) await recomputeShot(id);
+/** Results left marked (a job lost with its worker, or never sent) get a job of their own. */
+export async function resendForgottenRecomputes(olderThanMs = 5 * 60_000): Promise<number> {
+  const ids = await repo.forgottenRecomputes(olderThanMs, 500);
+  for (const id of ids) await sendRecompute({ scope: "shot", id });
+  return ids.length;
 }
 
-/** After a stick's rated flex or bench tests changed (the stick lab calls this). */
+/** After a stick's rated flex or bench tests changed (tests and scripts; the stick lab queues it). */
 export async function recomputeShotsOfStick(stickId: string): Promise<void> {
-  for (const id of await repo.shotIdsOfStick(stickId)) await recomputeShot(id);
+  await runRecompute({ scope: "stick", id: stickId });
 }

@@ -16,7 +16,7 @@ shotsRouter.post("/clips/:clipId/shots", async (req, res) => {
 });
 shotsRouter.put("/clips/:clipId/calibration", async (req, res) => {
   const { calibration } = parse(CalibrationBody, req.body);
-  res.json(await svc.setCalibration(actorOf(req), p(req, "clipId"), calibration));
+  res.json(await svc.setCalibration(actorOf(req), p(req, "clipId"), calibration, req.id));
 });
 
 shotsRouter.get("/shots/:shotId", async (req, res) => void res.json(await svc.getShot(actorOf(req), p(req, "shotId"))));

@@ -12,7 +12,7 @@ import { VersionConflictError } from "./conflict";
 import * as memberRepo from "../entities/member/repository";
 import { isUuid } from "../http/ids";
 import * as repo from "./repository";
-import { recomputeShot, recomputeShotsOfClip, toStoredResult } from "./results";
+import { recomputeLater, recomputeShot, toStoredResult } from "./results";
 import { shotStickInfo } from "../entities/stick/stiffness";
 
 const invalid = (path: string, message: string) => new HttpError(422, "validation_failed", `${path}: ${message}`, [{ path, message }]);
@@ -59,7 +59,7 @@ function summary(s: repo.ShotRow): ShotSummary {
     id: s.id, clipId: s.clipId, label: s.label, playerId: s.playerId, playerName: s.playerName, stickId: s.stickId, stickLabel: s.stickLabel,
     frameStart: s.frameStart, frameEnd: s.frameEnd ?? s.frameStart, version: s.version, updatedAt: s.updatedAt.toISOString(), updatedByName: s.updatedByName,
     markCounts, events: s.events,
-    result: s.resultEngine ? { puckExitSpeedMps: r?.puckExitSpeed?.valueMps ?? null, error: s.resultError } : null,
+    result: s.resultEngine ? { puckExitSpeedMps: r?.puckExitSpeed?.valueMps ?? null, error: s.resultError, recomputing: !!s.recomputeRequestedAt } : null,
   };
 }
 
@@ -72,7 +72,7 @@ async function detail(a: Actor, s: repo.ShotRow): Promise<ShotDetail> {
     clip: clipFor(c),
     stick: s.stickId && s.stickLabel !== null ? shotStickInfo({ id: s.stickId, label: s.stickLabel, ratedFlex: s.stickRatedFlex, testInForce: s.stickTestInForce }) : null,
     storedResult: s.resultEngine
-      ? toStoredResult({ engineVersion: s.resultEngine, results: s.results, error: s.resultError, shotVersion: s.resultShotVersion!, computedAt: s.computedAt! })
+      ? toStoredResult({ engineVersion: s.resultEngine, results: s.results, error: s.resultError, shotVersion: s.resultShotVersion!, computedAt: s.computedAt!, recomputeRequestedAt: s.recomputeRequestedAt })
       : null,
     canEdit: policy.editShot(a, s),
     frameTimes: clock ? shotFrameTimes(clock.frameTimes, clock.storedFps, clock.captureFps, s.frameStart, s.frameEnd ?? c.frameCount ?? s.frameStart) : null,
@@ -144,7 +144,7 @@ export async function saveMarks(a: Actor, shotId: string, b: SaveMarksBody): Pro
 
 async function currentResult(s: repo.ShotRow) {
   if (s.resultEngine && s.resultShotVersion === s.version)
-    return toStoredResult({ engineVersion: s.resultEngine, results: s.results, error: s.resultError, shotVersion: s.resultShotVersion, computedAt: s.computedAt! });
+    return toStoredResult({ engineVersion: s.resultEngine, results: s.results, error: s.resultError, shotVersion: s.resultShotVersion, computedAt: s.computedAt!, recomputeRequestedAt: s.recomputeRequestedAt });
   return recomputeShot(s.id);
 }
 
@@ -182,7 +182,7 @@ export async function deleteShot(a: Actor, shotId: string) {
   });
 }
 
-export async function setCalibration(a: Actor, clipId: string, cal: ClipCalibration | null) {
+export async function setCalibration(a: Actor, clipId: string, cal: ClipCalibration | null, reqId?: string) {
   const c = await clipOrThrow(a, clipId);
   // Someone who may not even see the clip learns nothing about it: 404, as for no clip at all.
   if (!policy.viewClip(a, { teamId: c.teamId, playerId: c.playerId })) throw notFound("That clip");
@@ -195,6 +195,7 @@ export async function setCalibration(a: Actor, clipId: string, cal: ClipCalibrat
     if (p) throw invalid(["calibration", ...p.path].join("."), p.message);
   }
   await repo.setClipCalibration(clipId, cal);
-  await recomputeShotsOfClip(clipId);
+  // The clip's shots are recomputed on the queue; until then their pages say "recomputing".
+  await recomputeLater({ scope: "clip", id: clipId }, reqId);
   return { calibration: cal };
 }

@@ -3,7 +3,8 @@
 import { stiffnessInForce } from "../entities/stick/stiffness";
 import type { StickStiffness } from "../../shared/schemas/sticks";
 import { log } from "../log";
-import { recomputeShot } from "../shots/results";
+import { recomputeLater } from "../shots/results";
+import type { RecomputeTarget } from "../jobs/types";
 import * as repo from "./repository";
 
 export async function stickStiffness(teamId: string, stickId: string, onDate: string): Promise<StickStiffness | null> {
@@ -25,15 +26,16 @@ export interface StiffnessChange {
 /**
  * After a bench test is added or removed, the rating changes or the stick is deleted (pass the
  * shots it had, as they are unlinked by then): the shots' stored results (stored energy) used
- * the old stiffness, so the shots area recomputes them. Never fails the caller's request.
+ * the old stiffness, so they are recomputed on the job queue. Never fails the caller's request.
  */
-export async function stickStiffnessChanged(teamId: string, stickId: string, shotIds?: string[]): Promise<StiffnessChange> {
+export async function stickStiffnessChanged(teamId: string, stickId: string, shotIds?: string[], reqId?: string): Promise<StiffnessChange> {
   const change = { teamId, stickId, shotIds: shotIds ?? (await repo.shotIdsWithStick(teamId, stickId)) };
-  for (const shotId of change.shotIds) {
+  const targets: RecomputeTarget[] = shotIds ? shotIds.map((id) => ({ scope: "shot", id })) : [{ scope: "stick", id: stickId }];
+  for (const t of targets) {
     try {
-      await recomputeShot(shotId);
+      await recomputeLater(t, reqId);
     } catch (err) {
-      log.error({ err, stickId, shotId }, "recomputing a shot after a stiffness change failed");
+      log.error({ err, stickId, target: t }, "queueing the recompute of shots after a stiffness change failed");
     }
   }
   return change;

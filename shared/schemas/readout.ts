@@ -99,6 +99,8 @@ export interface ShotListItem {
   peakBendDeg: number | null;
   loadTimeMs: number | null;
   contactTimeMs: number | null;
+  /** New results are being computed (the clip's calibration or the stick changed); the numbers are the previous ones. */
+  recomputing: boolean;
   /** The viewer sees it because a coach shared it with them (not as its player or staff). */
   sharedWithMe: boolean;
   /** How many people it has been shared with (staff only; 0 for players). */
@@ -161,6 +163,8 @@ export interface ShotReadout {
   missing: string | null;
   /** The results were computed from an older version of the marks. */
   stale: boolean;
+  /** New results are being computed (the clip's calibration or the stick changed); these are the previous ones. */
+  recomputing: boolean;
   computedAt: string | null;
   stick: ShotStickInfo | null;
   /** Who it was shared with (staff see all; a player sees only their own share). */

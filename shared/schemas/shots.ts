@@ -243,6 +243,8 @@ export interface StoredResult {
   /** The shot version the result was computed from. */
   shotVersion: number;
   computedAt: string;
+  /** Something the results depend on changed (the clip's calibration, the stick's stiffness): new ones are being computed; these are the previous ones. */
+  recomputing: boolean;
 }
 
 export interface ShotSummary {
@@ -261,7 +263,7 @@ export interface ShotSummary {
   /** Marks per landmark. */
   markCounts: Partial<Record<Landmark, number>>;
   events: ShotEventsDraft;
-  result: { puckExitSpeedMps: number | null; error: string | null } | null;
+  result: { puckExitSpeedMps: number | null; error: string | null; recomputing: boolean } | null;
 }
 
 export interface DigitiseClip {

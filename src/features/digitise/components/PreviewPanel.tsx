@@ -83,7 +83,8 @@ function StoredLine({ stored, version }: { stored: StoredResult | null; version:
   const current = stored.shotVersion === version;
   return (
     <p className="mt-3 border-t border-line pt-2 text-xs text-ink-muted" data-testid="stored-result">
-      {stored.results ? "Stored results" : "Stored"}: {current ? `computed from version ${stored.shotVersion}` : `from version ${stored.shotVersion}, updating…`}
+      {stored.results ? "Stored results" : "Stored"}:{" "}
+      {stored.recomputing ? "recomputing with the new calibration or stick…" : current ? `computed from version ${stored.shotVersion}` : `from version ${stored.shotVersion}, updating…`}
       {!stored.results && stored.error && <span className="block text-ink-faint">{stored.error}</span>}
     </p>
   );

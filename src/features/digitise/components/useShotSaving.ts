@@ -5,6 +5,7 @@ import { clipChanged } from "@/entities/clip";
 import { shotMarksSaved } from "@/entities/shot";
 import { toast } from "@/components/ui/toast-store";
 import type { ShotDetail, StoredResult } from "@shared/schemas/shots";
+import { useRecomputedResult } from "@/lib/recompute";
 import { fetchShot } from "../api/shot";
 import { saveCalibration, saveMarks } from "../api/saveMarks";
 import { Autosave, readLocal, recover, type AutosaveStatus, type MergeNotice } from "../model/autosave";
@@ -52,6 +53,7 @@ export function useShotSaving(teamId: string, shot: ShotDetail, store: DigitiseS
   const [status, setStatus] = useState<AutosaveStatus | null>(shot.canEdit ? { kind: "saved", version: shot.version } : null);
   const [calStatus, setCalStatus] = useState<CalibrationStatus>({ kind: "saved" });
   const [stored, setStored] = useState<StoredResult | null>(shot.storedResult);
+  useRecomputedResult(stored, () => fetchShot(teamId, shot.id), setStored);
   const [saver, setSaver] = useState<{ marks: Autosave; cal: CalibrationSaver } | null>(null);
   const qc = useQueryClient();
 
@@ -81,7 +83,7 @@ export function useShotSaving(teamId: string, shot: ShotDetail, store: DigitiseS
         clipId: shot.clip.id,
         send: async (c) => {
           await saveCalibration(teamId, shot.clip.id, c);
-          // Every shot of the clip gets new numbers: every view of shots refetches.
+          // Every shot of the clip gets new numbers (on the job queue: they say "recomputing" until then): every view of shots refetches.
           void clipChanged(qc, teamId);
           const fresh = await fetchShot(teamId, shot.id).catch(() => null);
           if (fresh?.storedResult) setStored(fresh.storedResult);

@@ -77,7 +77,11 @@ function ShotRow({ teamId, clipId, shot, canEdit }: { teamId: string; clipId: st
         {events}/4 events
       </Badge>
       <div className="w-40 text-right text-sm">
-        {shot.result?.puckExitSpeedMps != null ? (
+        {shot.result?.recomputing ? (
+          <span className="text-ink-muted" title="The clip's calibration or the stick changed; new results are being computed.">
+            recomputing…
+          </span>
+        ) : shot.result?.puckExitSpeedMps != null ? (
           <span className="font-mono font-semibold text-ink">{units.format("speed", shot.result.puckExitSpeedMps)}</span>
         ) : (
           <span className="text-ink-faint" title={shot.result?.error ?? undefined}>

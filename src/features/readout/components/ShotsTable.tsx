@@ -57,12 +57,12 @@ export function ShotsTable({ shots, units, showPlayer, selected, onToggle }: Pro
               </Td>
               {showPlayer && <Td label="Player">{s.playerName ?? <span className="text-ink-faint">No player</span>}</Td>}
               <Td label="Stick">{s.stickLabel ?? <span className="text-ink-faint">—</span>}</Td>
-              <Td label="Puck exit speed" className="text-right font-medium tabular-nums">{formatValue("speed", s.puckExitSpeedMps, units)}</Td>
+              <Td label="Puck exit speed" className={`text-right font-medium tabular-nums ${s.recomputing ? "text-ink-faint" : ""}`}>{formatValue("speed", s.puckExitSpeedMps, units)}</Td>
               <Td label="Load" className="text-right tabular-nums">{formatValue("time", s.loadTimeMs, units)}</Td>
               <Td label="Contact" className="text-right tabular-nums">{formatValue("time", s.contactTimeMs, units)}</Td>
               <Td label="Status">
                 <span className="flex flex-wrap gap-1">
-                  {s.hasResults ? <Badge tone="ok">Results</Badge> : <Badge tone="warn">Needs digitising</Badge>}
+                  {s.recomputing ? <Badge tone="neutral">Recomputing…</Badge> : s.hasResults ? <Badge tone="ok">Results</Badge> : <Badge tone="warn">Needs digitising</Badge>}
                   {showPlayer && (s.published ? <Badge tone="neutral">Published</Badge> : <Badge tone="gold">In review</Badge>)}
                   {s.sharedWithMe && <Badge tone="accent">Shared with you</Badge>}
                   {s.shareCount > 0 && <Badge tone="neutral">Shared ×{s.shareCount}</Badge>}

@@ -102,8 +102,15 @@ function Readout({ teamId, teamName, r }: { teamId: string; teamName: string; r:
 
       {r.results ? (
         <div className="flex flex-col gap-6">
+          {r.recomputing && (
+            <Alert tone="info" title="Recomputing">
+              The clip's calibration or the stick's stiffness changed: new numbers are being computed and appear here by themselves. Until then these are the previous ones.
+            </Alert>
+          )}
           {r.stale && <Alert tone="warn">These results come from an earlier version of the marks; they are recomputed when the marks are saved again.</Alert>}
-          <ResultCards results={r.results} units={system} stick={r.stick} />
+          <div className={r.recomputing ? "opacity-60 transition-opacity" : "transition-opacity"}>
+            <ResultCards results={r.results} units={system} stick={r.stick} />
+          </div>
           {general.length > 0 && (
             <Alert tone="warn" title="Check before acting on these numbers">
               <ul className="list-disc pl-5">
