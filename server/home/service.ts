@@ -5,6 +5,7 @@ import { isStaff, policy, type Actor } from "../auth/policy";
 import type { HomeResponse, HomeShot, HomeTask } from "../../shared/schemas/home";
 import { shotTypes, type ShotType } from "../../shared/schemas/clips";
 import type { ShotResults } from "../../shared/schemas/shot-results";
+import { metricDef } from "../../shared/schemas/readout";
 import { shotDate } from "../entities/shot/date";
 import * as readoutRepo from "../readout/repository";
 import { pendingInvitationsOf } from "../roster/repository";
@@ -19,7 +20,8 @@ const shotName = (s: { label: string | null }) => s.label || "Unlabelled shot";
 
 type Summary = Omit<ShotResults, "series"> | null;
 /** A result the engine flagged as faster than any recorded shot is no personal best (shown on its readout with the note). */
-const implausible = (s: Summary) => !!s?.notes.some((n) => n.code === "PUCK_SPEED_IMPLAUSIBLE");
+const PUCK_APART = metricDef("puckExitSpeed").implausible;
+const implausible = (s: Summary) => !!s?.notes.some((n) => n.code === PUCK_APART);
 
 function homeShot(r: { id: string; label: string | null; date: string; shotType: string; summary: Summary }): HomeShot {
   return {

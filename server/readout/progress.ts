@@ -16,7 +16,8 @@ export function progressPoints(rows: ProgressInput[]): ProgressPoint[] {
       const values: ProgressPoint["values"] = {};
       for (const m of METRICS) {
         const v = m.read(r.results as ShotResults);
-        if (v && Number.isFinite(v.value)) values[m.key] = v;
+        const note = m.implausible && r.results!.notes.find((n) => n.code === m.implausible);
+        if (v && Number.isFinite(v.value)) values[m.key] = note ? { ...v, apart: note.message } : v;
       }
       const { results: _r, ...rest } = r;
       return { ...rest, values };
@@ -29,10 +30,12 @@ const sessionKey = (p: ProgressPoint) => p.sessionId ?? `day:${p.date}`;
 export function summarise(points: ProgressPoint[]): Record<MetricKey, MetricSummary> {
   const out = {} as Record<MetricKey, MetricSummary>;
   for (const m of METRICS) {
-    const have = points.filter((p) => p.values[m.key]);
+    // A value the engine questioned is no best and no typical: it is counted apart.
+    const apart = points.filter((p) => p.values[m.key]?.apart).length;
+    const have = points.filter((p) => p.values[m.key] && !p.values[m.key]!.apart);
     const vals = have.map((p) => p.values[m.key]!.value);
     if (!vals.length) {
-      out[m.key] = { count: 0, best: null, bestShotId: null, typical: null, firstSession: null, lastSession: null };
+      out[m.key] = { count: 0, best: null, bestShotId: null, typical: null, firstSession: null, lastSession: null, apart };
       continue;
     }
     let bi = 0;
@@ -48,7 +51,15 @@ export function summarise(points: ProgressPoint[]): Record<MetricKey, MetricSumm
       typical: median(vals),
       firstSession: sessions.length > 1 ? of(sessions[0]) : null,
       lastSession: sessions.length > 1 ? of(sessions[sessions.length - 1]) : null,
+      apart,
     };
   }
   return out;
+}
+
+/** The type a player shot most (ties in the usual order of types); null when they have none. */
+export function mostCommonType<T extends string>(counts: Partial<Record<T, number>>, order: readonly T[]): T | null {
+  let best: T | null = null;
+  for (const t of order) if ((counts[t] ?? 0) > 0 && (best === null || counts[t]! > counts[best]!)) best = t;
+  return best;
 }

@@ -5,13 +5,14 @@ import { roleForList } from "../entities/member/role";
 import { forbidden, HttpError } from "../http/problem";
 import { shotStickInfo } from "../entities/stick/stiffness";
 import type { z } from "zod";
+import { SHOT_TYPES } from "../../shared/schemas/readout";
 import type {
   CompareResponse, PlayersResponse, ProgressQuery, ProgressResponse, ReviewSettings, ShareRow, ShotListPageQuery, ShotListResponse, ShotReadout, ShotType,
 } from "../../shared/schemas/readout";
 import { listItem, readout } from "./present";
 import { shotDate } from "../entities/shot/date";
 import { shotAccess } from "../entities/shot/visibility";
-import { progressPoints, summarise } from "./progress";
+import { mostCommonType, progressPoints, summarise } from "./progress";
 import * as memberRepo from "../entities/member/repository";
 import { isUuid } from "../http/ids";
 import * as repo from "./repository";
@@ -104,12 +105,15 @@ export async function progress(a: Actor, q: ProgressQuery): Promise<ProgressResp
   if (!who) throw new HttpError(404, "not_found", "That player is not a member of this team.");
   const all = await repo.listShots(a, { playerId });
   const sticks = new Map<string, string>();
-  const types = new Set<ShotType>();
+  const counts: Partial<Record<ShotType, number>> = {};
   for (const r of all) {
     if (r.stickId && r.stickLabel) sticks.set(r.stickId, r.stickLabel);
-    types.add(r.shotType as ShotType);
+    if (r.summary) counts[r.shotType as ShotType] = (counts[r.shotType as ShotType] ?? 0) + 1;
   }
-  const rows = all.filter((r) => (!q.stickId || r.stickId === q.stickId) && (!q.shotType || r.shotType === q.shotType));
+  const types = new Set<ShotType>(all.map((r) => r.shotType as ShotType));
+  // One shot type at a time unless asked for all: a slap shot's and a wrist shot's speeds are not one trend.
+  const shotType = q.shotType === "all" ? null : (q.shotType ?? mostCommonType(counts, SHOT_TYPES));
+  const rows = all.filter((r) => (!q.stickId || r.stickId === q.stickId) && (!shotType || r.shotType === shotType));
   const points = progressPoints(
     rows.map((r) => ({
       shotId: r.id, label: r.label, date: shotDate(r), sessionId: r.sessionId, venue: r.venue || null, stickId: r.stickId, stickLabel: r.stickLabel,
@@ -120,6 +124,8 @@ export async function progress(a: Actor, q: ProgressQuery): Promise<ProgressResp
     player: { id: who.userId, name: who.name },
     sticks: [...sticks].map(([id, label]) => ({ id, label })).sort((x, y) => x.label.localeCompare(y.label)),
     shotTypes: [...types],
+    shotTypeCounts: counts,
+    shotType,
     points,
     summary: summarise(points),
     withoutResults: rows.filter((r) => !r.summary).length,

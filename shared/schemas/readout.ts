@@ -34,8 +34,11 @@ export const ShotListPageQuery = ShotListQuery.extend({
 });
 export type ShotListPageQuery = ShotListQuery & { page?: number; pageSize?: number };
 
-export const ProgressQuery = ShotListQuery;
-export type ProgressQuery = ShotListQuery;
+/** Progress shows one shot type at a time: none given = the player's most common, "all" = every type. */
+export const ProgressQuery = ShotListQuery.extend({
+  shotType: z.enum([...SHOT_TYPES, "all"], { error: "shotType must be slap, wrist, snap, backhand or all" }).optional(),
+});
+export type ProgressQuery = z.input<typeof ProgressQuery>;
 
 export const CompareQuery = z
   .object({ a: uuid("a"), b: uuid("b") })
@@ -188,7 +191,8 @@ export interface ProgressPoint {
   stickId: string | null;
   stickLabel: string | null;
   shotType: ShotType;
-  values: Partial<Record<MetricKey, { value: number; u: number | null }>>;
+  /** `apart`: the engine's note that questions this value; such a value is shown apart, never best or typical. */
+  values: Partial<Record<MetricKey, { value: number; u: number | null; apart?: string }>>;
 }
 
 export interface MetricSummary {
@@ -201,6 +205,8 @@ export interface MetricSummary {
   /** Median of the first and of the last session with this result, when there are two sessions or more. */
   firstSession: number | null;
   lastSession: number | null;
+  /** Values left out of all of the above because the engine questioned them (shown apart, with the note). */
+  apart: number;
 }
 
 export interface ProgressResponse {
@@ -208,6 +214,10 @@ export interface ProgressResponse {
   /** Filters offered (from every shot of the player, before filtering). */
   sticks: { id: string; label: string }[];
   shotTypes: ShotType[];
+  /** Shots with results per type, before filtering: the default type is the most common. */
+  shotTypeCounts: Partial<Record<ShotType, number>>;
+  /** The type shown; null = every type. */
+  shotType: ShotType | null;
   points: ProgressPoint[];
   summary: Record<MetricKey, MetricSummary>;
   /** Shots of the player (after filters) still without results. */
@@ -247,18 +257,20 @@ export interface MetricDef {
   bestLabel: string;
   /** Short explanation on the card. */
   hint: string;
+  /** The engine's note (shared/mechanics/plausibility.ts) that sets this value apart from best and typical. */
+  implausible?: string;
   /** SI value and standard uncertainty from the engine's results, or null. */
   read: (r: ShotResults) => { value: number; u: number | null } | null;
 }
 
 export const METRICS: readonly MetricDef[] = [
   {
-    key: "puckExitSpeed", label: "Puck exit speed", kind: "speed", best: "max", bestLabel: "Fastest",
+    key: "puckExitSpeed", label: "Puck exit speed", kind: "speed", best: "max", bestLabel: "Fastest", implausible: "PUCK_SPEED_IMPLAUSIBLE",
     hint: "Straight-line fit to the puck's flight after release.",
     read: (r) => ({ value: r.puckExitSpeed.valueMps, u: r.puckExitSpeed.uncertaintyMps }),
   },
   {
-    key: "bladeSpeedAtStrike", label: "Blade speed at strike", kind: "speed", best: "max", bestLabel: "Fastest",
+    key: "bladeSpeedAtStrike", label: "Blade speed at strike", kind: "speed", best: "max", bestLabel: "Fastest", implausible: "BLADE_SPEED_IMPLAUSIBLE",
     hint: "Speed of the blade as it reaches the puck.",
     read: (r) => (r.bladeSpeedAtStrike ? { value: r.bladeSpeedAtStrike.valueMps, u: r.bladeSpeedAtStrike.uncertaintyMps } : null),
   },
@@ -274,7 +286,7 @@ export const METRICS: readonly MetricDef[] = [
     read: (r) => (r.loadTimeMs === null ? null : { value: r.loadTimeMs, u: r.loadTimeUncertaintyMs ?? r.frameTimeMs }),
   },
   {
-    key: "contactTime", label: "Contact time", kind: "time", best: "min", bestLabel: "Quickest release",
+    key: "contactTime", label: "Contact time", kind: "time", best: "min", bestLabel: "Quickest release", implausible: "CONTACT_TIME_OUTSIDE_RANGE",
     hint: "Puck strike → release: how long the puck stayed on the blade.",
     read: (r) => ({ value: r.contactTimeMs, u: r.contactTimeUncertaintyMs ?? r.frameTimeMs }),
   },

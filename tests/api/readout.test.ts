@@ -218,7 +218,7 @@ describe("side by side", () => {
 });
 
 describe("progress", () => {
-  it("best and typical (median) over the player's sessions, filtered by stick and shot type", async () => {
+  it("best and typical (median) over the player's sessions, one shot type by default, filtered by stick and shot type", async () => {
     const { db } = await import("../../server/db/client");
     const { member, stick } = await import("../../server/db/schema");
     const { createAccount } = await import("../../server/auth/accounts");
@@ -243,7 +243,14 @@ describe("progress", () => {
     expect(Math.abs(r.json.summary.puckExitSpeed.best - 26) / 26).toBeLessThan(0.02);
     // Contact time: best is the shortest (all three scenes share 30 ms).
     expect(r.json.summary.contactTime.best).toBeCloseTo(30, 6);
-    expect(r.json.withoutResults).toBe(1);
+    // One type at a time: by default the one shot most (three slap shots with results, no wrist shot with any).
+    expect(r.json.shotType).toBe("slap");
+    expect(r.json.shotTypeCounts).toEqual({ slap: 3 });
+    expect(r.json.withoutResults).toBe(0);
+    const every = (await coach.get(`${R()}/progress?playerId=${pid}&shotType=all`)).json;
+    expect(every.shotType).toBeNull();
+    expect(every.points).toHaveLength(3);
+    expect(every.withoutResults).toBe(1);
     expect(r.json.sticks).toEqual([{ id: st.id, label: "Prog 85" }]);
     expect(r.json.shotTypes.sort()).toEqual(["slap", "wrist"]);
 

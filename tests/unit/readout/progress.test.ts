@@ -1,7 +1,7 @@
 // Progress: best (in each result's own sense) and typical (median) values, and the first and last
 // session's medians. Median as defined for an even count: the mean of the two middle values [CP].
 import { describe, expect, it } from "vitest";
-import { progressPoints, summarise, type ProgressInput } from "../../../server/readout/progress";
+import { mostCommonType, progressPoints, summarise, type ProgressInput } from "../../../server/readout/progress";
 import { computeShot, syntheticShot } from "../../../shared/mechanics/index";
 
 const base = computeShot(syntheticShot({ noisePx: 0.2, seed: "prog", flex: null }).doc, { trials: 40, series: false });
@@ -34,5 +34,24 @@ describe("progress", () => {
     expect(one.puckExitSpeed.firstSession).toBeNull();
     const two = summarise(progressPoints([row("a", "2026-01-10", null, 25, 30), row("b", "2026-01-11", null, 28, 30)]));
     expect([two.puckExitSpeed.firstSession, two.puckExitSpeed.lastSession]).toEqual([25, 28]);
+  });
+
+  it("a value the engine flags as implausible is set apart: never best, typical or a session's median, but counted apart with its note", () => {
+    const flagged = row("z", "2026-03-01", "s2", 61, 28);
+    flagged.results = { ...flagged.results!, notes: [...flagged.results!.notes, { code: "PUCK_SPEED_IMPLAUSIBLE", message: "puck exit speed 61.0 m/s is above 52 m/s" }] };
+    const pts = progressPoints([...rows, flagged]);
+    expect(pts.find((p) => p.shotId === "z")!.values.puckExitSpeed).toMatchObject({ value: 61, apart: "puck exit speed 61.0 m/s is above 52 m/s" });
+    // Only the puck speed is questioned: the same shot's contact time counts as usual.
+    expect(pts.find((p) => p.shotId === "z")!.values.contactTime!.apart).toBeUndefined();
+    const s = summarise(pts);
+    expect(s.puckExitSpeed).toMatchObject({ count: 4, best: 30, bestShotId: "c", typical: (27 + 29) / 2, lastSession: 29.5, apart: 1 });
+    expect(s.contactTime).toMatchObject({ count: 5, apart: 0 });
+  });
+
+  it("the default shot type is the one shot most, ties in the usual order", () => {
+    const order = ["slap", "wrist", "snap", "backhand"] as const;
+    expect(mostCommonType({ wrist: 5, slap: 3 }, order)).toBe("wrist");
+    expect(mostCommonType({ snap: 2, wrist: 2 }, order)).toBe("wrist");
+    expect(mostCommonType({}, order)).toBeNull();
   });
 });

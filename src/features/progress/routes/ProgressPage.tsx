@@ -24,7 +24,8 @@ function Progress({ teamId, teamName, staff }: { teamId: string; teamName: strin
   const list = players.data?.players ?? [];
   const chosen = staff ? (search.get("player") ?? list.find((p) => p.shots > 0)?.id ?? list[0]?.id ?? "") : me.user.id;
   const stickId = search.get("stick") ?? undefined;
-  const shotType = (search.get("type") as ShotType | null) ?? undefined;
+  // No type in the address: the server shows the player's most common; "all" shows every type.
+  const shotType = (search.get("type") as ShotType | "all" | null) ?? undefined;
   const q = useProgress(teamId, { playerId: chosen, stickId, shotType }, !!chosen);
   const { system } = useUnits();
   const set = (k: string, v: string) => {
@@ -93,11 +94,11 @@ function Progress({ teamId, teamName, staff }: { teamId: string; teamName: strin
           </label>
           <label className="flex flex-col gap-1 text-sm font-medium">
             Shot type
-            <Select compact value={shotType ?? ""} onChange={(e) => set("type", e.target.value)} className="min-w-40">
-              <option value="">All types</option>
+            <Select compact value={p.shotType ?? "all"} onChange={(e) => set("type", e.target.value)} className="min-w-40">
+              <option value="all">All types</option>
               {SHOT_TYPES.filter((t) => p.shotTypes.includes(t)).map((t) => (
                 <option key={t} value={t}>
-                  {shotTypeLabels[t]}
+                  {shotTypeLabels[t]} ({p.shotTypeCounts[t] ?? 0})
                 </option>
               ))}
             </Select>
@@ -120,7 +121,7 @@ function Progress({ teamId, teamName, staff }: { teamId: string; teamName: strin
         <>
           <div className="grid gap-6 lg:grid-cols-2">
             {METRICS.map((m) => (
-              <TrendCard key={m.key} def={m} points={p.points} summary={p.summary[m.key]} units={system} />
+              <TrendCard key={m.key} def={m} points={p.points} summary={p.summary[m.key]} units={system} byType={p.shotType === null && new Set(p.points.map((x) => x.shotType)).size > 1} />
             ))}
           </div>
           <Card title="Shots in this view" className="mt-6" flush>
