@@ -9,6 +9,9 @@
 //     Raw baseline in the same run: the same repository query straight to PostgreSQL, one at a
 //     time, without HTTP or sign-in; the ratio says what the API adds.
 // Needs the private cluster: without PG_ADMIN_URL it re-runs itself through scripts/with-db.
+// --cpu: only bare Express, the clip list and one shot's results at 100 requests/s with one web
+// process, for their CPU per request (a short run for profiling with BENCH_CPU_PROF, when the
+// whole bench is too long for a shared machine).
 import { execFileSync, spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { createHash, randomBytes } from "node:crypto";
 import { mkdtempSync, readFileSync, rmSync } from "node:fs";
@@ -25,7 +28,8 @@ if (!process.env.PG_ADMIN_URL) {
   process.exit(r.status ?? 1);
 }
 
-const RATE = 200;
+const CPU_ONLY = process.argv.includes("--cpu");
+const RATE = CPU_ONLY ? 100 : 200;
 const SECONDS = 5;
 const UPLOADS = 20;
 const dbName = `loadframe_bench_${process.pid}`;
@@ -122,6 +126,8 @@ try {
   const coach = { userId: ids.users["coach@ravens.example"], teamId: ids.teamId, role: "coach" as const };
 
   // --- 1. concurrent uploads -----------------------------------------------------------------
+  let matching = 0;
+  if (!CPU_ONLY) {
   step(`${UPLOADS} concurrent resumable uploads of different clips`);
   const files = Array.from({ length: UPLOADS }, (_, i) => {
     const f = path.join(workDir, `upload-${i}.mp4`);
@@ -144,7 +150,6 @@ try {
   const uploadSeconds = (Date.now() - tu) / 1000;
   const c = new pg.Client({ connectionString: url });
   await c.connect();
-  let matching = 0;
   const problems: string[] = [];
   for (const [i, r] of results.entries()) {
     if (!r.id) {
@@ -160,6 +165,7 @@ try {
   const mb = files.reduce((s, f) => s + f.data.length, 0) / 1024 ** 2;
   console.log(`  ${matching}/${UPLOADS} uploads stored with matching SHA-256 (file sent = clip.sha256 = stored original); ${mb.toFixed(1)} MB in ${uploadSeconds.toFixed(1)} s`);
   for (const p of problems) console.log(`  ✗ ${p}`);
+  }
 
   // --- 2. latency at 200 requests/s ----------------------------------------------------------
   const clipRepo = await import("../../server/clips/repository");
@@ -259,7 +265,14 @@ try {
     console.log(`  goal p95 < 50 ms: ${api.p95 < 50 ? "met" : "NOT met"}`);
     table.push({ name: s.name, procs, api, raw, rate: s.rate, cpu });
   }
-  for (const s of busy) await run(s, 1);
+  for (const s of CPU_ONLY ? busy.slice(1, 3) : busy) await run(s, 1);
+  if (CPU_ONLY) {
+    console.log(`\n  load average ${load()} at the end (${os.cpus().length} cores)`);
+    client.close();
+    await (await import("../../server/db/client")).db().pool.end();
+    await cleanup();
+    process.exit(0);
+  }
   for (const s of deep) await run(s, 1);
 
   // Ten PDF reports in flight all the time (each client asks for the next when one arrives) while

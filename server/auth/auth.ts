@@ -12,10 +12,12 @@ import { unsafeTextProblem, TEXT_LIMITS } from "../../shared/schemas/text";
 import { CLIENT_ADDRESS_HEADER } from "./http-routes";
 import { claimUnverifiedAccount } from "./repository";
 import { isProductSignUp } from "./sign-up-gate";
+import { SESSION_MEMO_S } from "./session-memo";
 
 const INVITATION_TTL_S = 7 * 24 * 3600;
 /** How long a signed-out or revoked session can still be honoured by another browser tab or device. */
 export const SESSION_CACHE_S = 60;
+// …of which the last SESSION_MEMO_S are a process's own memo of a verified Cookie header (174).
 
 /** Origins allowed to send writes: the public address, plus the local ones while developing. */
 export function trustedOriginsFor(e: { PUBLIC_URL: string; NODE_ENV: string }): string[] {
@@ -68,7 +70,7 @@ function makeAuth() {
     },
     // A signed, short-lived copy of the session in a cookie spares a database read on every
     // request (docs/decisions/105-session-cookie-cache.md). Team membership is still read each time.
-    session: { expiresIn: 14 * 24 * 3600, updateAge: 24 * 3600, cookieCache: { enabled: true, maxAge: SESSION_CACHE_S } },
+    session: { expiresIn: 14 * 24 * 3600, updateAge: 24 * 3600, cookieCache: { enabled: true, maxAge: SESSION_CACHE_S - SESSION_MEMO_S } },
     advanced: {
       // The client's address as our trust-proxy setting resolved it (http-routes.ts), never a
       // forwarded header taken from whoever sent the request.

@@ -87,7 +87,11 @@ describe("smaller leaks", () => {
     const c = await new Client(srv.url).signIn(EMAILS.analyst);
     const copy = (c as unknown as { cookies: Map<string, string> }).cookies;
     const cookie = [...copy].map(([k, v]) => `${k}=${v}`).join("; ");
+    // A read first, so the process has this Cookie header's session in its short memo (decision 174).
+    expect((await fetch(`${srv.url}/api/me`, { headers: { cookie } })).status).toBe(200);
     expect((await c.post("/api/auth/sign-out", {})).status).toBe(200);
+    // The signed-out browser itself sends no session any more: its next read is refused at once.
+    expect((await c.request("GET", "/api/me")).status).toBe(401);
     const write = await fetch(`${srv.url}/api/me/prefs`, { method: "PATCH", headers: { cookie, "content-type": "application/json", origin: "http://127.0.0.1:3000" }, body: JSON.stringify({ units: "imperial" }) });
     expect(write.status).toBe(401);
     const upload = await fetch(`${srv.url}/api/uploads`, { method: "POST", headers: { cookie, origin: "http://127.0.0.1:3000", "tus-resumable": "1.0.0", "upload-length": "10", "upload-metadata": `teamId ${Buffer.from(world.teamId).toString("base64")}` } });
