@@ -5,35 +5,20 @@ import { execFileSync } from "node:child_process";
 import { readdirSync, readFileSync, statSync, truncateSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import sharp from "sharp";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { Client, EMAILS, seedWorld, startServer, type TestServer } from "./helpers";
-import { startJobs, stopJobs } from "../../server/jobs/runtime";
+import { describe, expect, it } from "vitest";
+import { Client, EMAILS } from "./helpers";
+import { clipUpload, teamPath, useCoachWorld } from "./coach-world";
 
-let srv: TestServer;
-let world: Awaited<ReturnType<typeof seedWorld>>;
-let coach: Client;
+const w = useCoachWorld();
 
-beforeAll(async () => {
-  srv = await startServer();
-  world = await seedWorld();
-  await startJobs({ work: true });
-  coach = await new Client(srv.url).signIn(EMAILS.coach);
-});
-afterAll(async () => {
-  await stopJobs();
-  await srv.close();
-});
-
-const team = () => `/api/teams/${world.teamId}`;
-const md = (filename: string, over: Record<string, unknown> = {}) => ({
-  teamId: world.teamId, filename, meta: JSON.stringify(clipMeta({ playerId: world.users[EMAILS.player], ...over })),
-});
-const clipCount = async () => (await coach.get(`${team()}/clips`)).json.total as number;
+const team = () => teamPath(w);
+const md = (filename: string, over: Record<string, unknown> = {}) => clipUpload(w, filename, over);
+const clipCount = async () => (await w.coach.get(`${team()}/clips`)).json.total as number;
 
 async function expectRejected(file: Buffer | string, name: string, status: number, code: string, message: RegExp) {
   const rowsBefore = await clipCount();
   const dirsBefore = storedClipDirs().length;
-  const r = await tusUpload(srv.url, coach, file, md(name));
+  const r = await tusUpload(w.srv.url, w.coach, file, md(name));
   expect(r.ok, JSON.stringify(r.body)).toBe(false);
   expect(r.status).toBe(status);
   expect(r.body.code).toBe(code);
@@ -45,10 +30,10 @@ async function expectRejected(file: Buffer | string, name: string, status: numbe
 }
 
 async function accepted(file: string, name: string) {
-  const r = await tusUpload(srv.url, coach, file, md(name));
+  const r = await tusUpload(w.srv.url, w.coach, file, md(name));
   expect(r.ok, JSON.stringify(r.body)).toBe(true);
   return waitFor("clip ready", async () => {
-    const c = (await coach.get(`${team()}/clips/${r.body.clip.id}`)).json;
+    const c = (await w.coach.get(`${team()}/clips/${r.body.clip.id}`)).json;
     if (c.status === "failed") throw new Error(c.failureReason);
     return c.status === "ready" && c;
   });
@@ -102,10 +87,10 @@ describe("unusable files are refused with their reason", () => {
   });
 
   it("a file over the size limit, refused from its declared length alone", async () => {
-    const r = await fetch(`${srv.url}/api/uploads`, {
+    const r = await fetch(`${w.srv.url}/api/uploads`, {
       method: "POST",
       headers: {
-        "tus-resumable": "1.0.0", "upload-length": String(5 * 1024 ** 3), cookie: cookie(coach), origin: "http://127.0.0.1:3000",
+        "tus-resumable": "1.0.0", "upload-length": String(5 * 1024 ** 3), cookie: cookie(w.coach), origin: "http://127.0.0.1:3000",
         "upload-metadata": metaHeader(md("big.mp4")),
       },
     });
@@ -118,9 +103,9 @@ describe("unusable files are refused with their reason", () => {
 
   it("an upload started without Upload-Metadata, or with a garbled one: 400 saying so, nothing stored", async () => {
     const start = (metadata?: string) =>
-      fetch(`${srv.url}/api/uploads`, {
+      fetch(`${w.srv.url}/api/uploads`, {
         method: "POST",
-        headers: { "tus-resumable": "1.0.0", "upload-length": "1000", cookie: cookie(coach), origin: "http://127.0.0.1:3000", ...(metadata ? { "upload-metadata": metadata } : {}) },
+        headers: { "tus-resumable": "1.0.0", "upload-length": "1000", cookie: cookie(w.coach), origin: "http://127.0.0.1:3000", ...(metadata ? { "upload-metadata": metadata } : {}) },
       });
     const missing = await start();
     expect(missing.status).toBe(400);
@@ -140,10 +125,10 @@ describe("unusable files are refused with their reason", () => {
     const { clubOfTeam } = await import("../../server/billing/repository");
     const { PLANS } = await import("../../shared/billing/plans");
     const { eq } = await import("drizzle-orm");
-    const c = (await clubOfTeam(world.teamId))!;
+    const c = (await clubOfTeam(w.world.teamId))!;
     await db().update(club).set({ plan: "pond" }).where(eq(club.id, c.id));
     // The U16 side shares the club's storage: its clip counts too.
-    const [big] = await db().insert(clip).values({ teamId: world.secondTeamId, captureFps: 240, status: "ready", sizeBytes: PLANS.pond.storageBytes - 1000, title: "big" }).returning();
+    const [big] = await db().insert(clip).values({ teamId: w.world.secondTeamId, captureFps: 240, status: "ready", sizeBytes: PLANS.pond.storageBytes - 1000, title: "big" }).returning();
     try {
       const f = makeClip("quota.mp4", { frames: 30 });
       const r = await expectRejected(f, "quota.mp4", 413, "quota_exceeded", /over the Pond plan's storage: 5\.00 GB of 5\.00 GB are in use/);
@@ -159,10 +144,10 @@ describe("unusable files are refused with their reason", () => {
 
   it("clip details that do not validate", async () => {
     const f = makeClip("meta.mp4", { frames: 10 });
-    const r = await tusUpload(srv.url, coach, f, { ...md("meta.mp4"), meta: JSON.stringify(clipMeta({ shotType: "chip" })) });
+    const r = await tusUpload(w.srv.url, w.coach, f, { ...md("meta.mp4"), meta: JSON.stringify(clipMeta({ shotType: "chip" })) });
     expect(r.status).toBe(422);
     expect(r.body.errors.map((e: { path: string }) => e.path).sort()).toEqual(["playerId", "shotType"]);
-    const coachAsPlayer = await tusUpload(srv.url, coach, f, md("meta.mp4", { playerId: world.users[EMAILS.coach] }));
+    const coachAsPlayer = await tusUpload(w.srv.url, w.coach, f, md("meta.mp4", { playerId: w.world.users[EMAILS.coach] }));
     expect(coachAsPlayer.status).toBe(422);
     expect(coachAsPlayer.body.errors[0]).toMatchObject({ path: "playerId", message: "Pick a player of this team" });
     expect(tusLeftovers()).toEqual([]);
@@ -172,31 +157,31 @@ describe("unusable files are refused with their reason", () => {
 describe("uploads only for those who may, and only their own", () => {
   const f = () => makeClip("who.mp4", { frames: 10 });
   it("signed out → 401, player → 403, another team → 404", async () => {
-    expect((await tusUpload(srv.url, new Client(srv.url), f(), md("who.mp4"))).status).toBe(401);
-    const player = await new Client(srv.url).signIn(EMAILS.player);
-    const p = await tusUpload(srv.url, player, f(), md("who.mp4"));
+    expect((await tusUpload(w.srv.url, new Client(w.srv.url), f(), md("who.mp4"))).status).toBe(401);
+    const player = await new Client(w.srv.url).signIn(EMAILS.player);
+    const p = await tusUpload(w.srv.url, player, f(), md("who.mp4"));
     expect(p.status).toBe(403);
     expect(p.body.code).toBe("forbidden");
-    const outsider = await new Client(srv.url).signIn(world.outsiderEmail);
-    expect((await tusUpload(srv.url, outsider, f(), md("who.mp4"))).status).toBe(404);
+    const outsider = await new Client(w.srv.url).signIn(w.world.outsiderEmail);
+    expect((await tusUpload(w.srv.url, outsider, f(), md("who.mp4"))).status).toBe(404);
     expect(tusLeftovers()).toEqual([]);
   });
 
   it("someone else's unfinished upload is not found", async () => {
-    const create = await fetch(`${srv.url}/api/uploads`, {
+    const create = await fetch(`${w.srv.url}/api/uploads`, {
       method: "POST",
-      headers: { "tus-resumable": "1.0.0", "upload-length": "1000", cookie: cookie(coach), origin: "http://127.0.0.1:3000", "upload-metadata": metaHeader(md("mine.mp4")) },
+      headers: { "tus-resumable": "1.0.0", "upload-length": "1000", cookie: cookie(w.coach), origin: "http://127.0.0.1:3000", "upload-metadata": metaHeader(md("mine.mp4")) },
     });
     expect(create.status).toBe(201);
-    const url = srv.url + create.headers.get("location");
-    const analyst = await new Client(srv.url).signIn(EMAILS.analyst);
+    const url = w.srv.url + create.headers.get("location");
+    const analyst = await new Client(w.srv.url).signIn(EMAILS.analyst);
     const head = await fetch(url, { method: "HEAD", headers: { "tus-resumable": "1.0.0", cookie: cookie(analyst) } });
     expect(head.status).toBe(404);
-    const own = await fetch(url, { method: "HEAD", headers: { "tus-resumable": "1.0.0", cookie: cookie(coach) } });
+    const own = await fetch(url, { method: "HEAD", headers: { "tus-resumable": "1.0.0", cookie: cookie(w.coach) } });
     expect(own.status).toBe(200);
     expect(own.headers.get("upload-offset")).toBe("0");
-    expect((await fetch(url, { headers: { cookie: cookie(coach) } })).status).toBe(405); // no downloads of uploads
-    const del = await fetch(url, { method: "DELETE", headers: { "tus-resumable": "1.0.0", cookie: cookie(coach), origin: "http://127.0.0.1:3000" } });
+    expect((await fetch(url, { headers: { cookie: cookie(w.coach) } })).status).toBe(405); // no downloads of uploads
+    const del = await fetch(url, { method: "DELETE", headers: { "tus-resumable": "1.0.0", cookie: cookie(w.coach), origin: "http://127.0.0.1:3000" } });
     expect(del.status).toBe(204);
     expect(tusLeftovers()).toEqual([]);
   });
@@ -240,7 +225,7 @@ describe("awkward files that are fine", () => {
 
   it("a file name with path separators and control characters is only a label", async () => {
     const f = makeClip("named.mp4", { frames: 10, size: "160x90" });
-    const r = await tusUpload(srv.url, coach, f, md("../../etc\\pass\u0007wd\u202e\n.mp4"));
+    const r = await tusUpload(w.srv.url, w.coach, f, md("../../etc\\pass\u0007wd\u202e\n.mp4"));
     expect(r.ok, JSON.stringify(r.body)).toBe(true);
     expect(r.body.clip.originalName).toBe("passwd.mp4");
     expect(readdirSync(path.join(uploadDir, "clips", r.body.clip.id))).toContain("original");
@@ -251,7 +236,7 @@ describe("awkward files that are fine", () => {
 
   it("a second upload of the same file is reported, naming the first", async () => {
     const f = makeClip("twice.mp4", { frames: 12, size: "160x90" });
-    const first = await tusUpload(srv.url, coach, f, md("twice.mp4", { title: "Wrist shot, first take" }));
+    const first = await tusUpload(w.srv.url, w.coach, f, md("twice.mp4", { title: "Wrist shot, first take" }));
     expect(first.ok).toBe(true);
     const r = await expectRejected(f, "twice-again.mp4", 409, "duplicate_clip", /already in the team as "Wrist shot, first take"/);
     expect(r.body.existingClipId).toBe(first.body.clip.id);

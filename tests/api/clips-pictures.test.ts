@@ -1,37 +1,23 @@
 // Issue 15, pictures: HDR phone video tone-mapped to SDR, BT.709 colour honoured, interlaced
 // video as one picture per field, non-square pixels served square, DCI 4K accepted. Every file is
 // made here with ffmpeg (x265 10-bit HLG/PQ as phones record; 1080i-style interlaced H.264).
-import { clipMeta, ffmpeg, mediaDir, tusUpload, uploadDir, waitFor } from "./clips-support";
+import { ffmpeg, mediaDir, tusUpload, uploadDir, waitFor } from "./clips-support";
 import path from "node:path";
 import sharp from "sharp";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { Client, EMAILS, seedWorld, startServer, type TestServer } from "./helpers";
-import { startJobs, stopJobs } from "../../server/jobs/runtime";
+import { describe, expect, it } from "vitest";
+import { clipUpload, teamPath, useCoachWorld } from "./coach-world";
 
-let srv: TestServer;
-let world: Awaited<ReturnType<typeof seedWorld>>;
-let coach: Client;
+const w = useCoachWorld();
 
-beforeAll(async () => {
-  srv = await startServer();
-  world = await seedWorld();
-  await startJobs({ work: true });
-  coach = await new Client(srv.url).signIn(EMAILS.coach);
-});
-afterAll(async () => {
-  await stopJobs();
-  await srv.close();
-});
-
-const team = () => `/api/teams/${world.teamId}`;
+const team = () => teamPath(w);
 
 async function ready(file: string) {
-  const r = await tusUpload(srv.url, coach, file, { teamId: world.teamId, filename: path.basename(file), meta: JSON.stringify(clipMeta({ playerId: world.users[EMAILS.player] })) });
+  const r = await tusUpload(w.srv.url, w.coach, file, clipUpload(w, path.basename(file)));
   expect(r.ok, JSON.stringify(r.body)).toBe(true);
   return waitFor(
     "clip ready",
     async () => {
-      const c = (await coach.get(`${team()}/clips/${r.body.clip.id}`)).json;
+      const c = (await w.coach.get(`${team()}/clips/${r.body.clip.id}`)).json;
       if (c.status === "failed") throw new Error(c.failureReason);
       return c.status === "ready" && c;
     },

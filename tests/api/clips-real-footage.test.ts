@@ -1,42 +1,26 @@
 // Issue 15: the files phones and lab cameras produce, each made here with ffmpeg to imitate them,
 // through the real upload path (tus → probe → extraction): frame count = decoded count, the
 // frame clock (coarse container clocks snapped, real gaps kept), the capture rate, warnings.
-import { clipMeta, ffmpeg, makeClip, mediaDir, tusUpload, uploadDir, waitFor } from "./clips-support";
+import { ffmpeg, makeClip, mediaDir, tusUpload, uploadDir, waitFor } from "./clips-support";
 import { execFileSync } from "node:child_process";
 import { readdirSync, readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { Client, EMAILS, seedWorld, startServer, type TestServer } from "./helpers";
-import { startJobs, stopJobs } from "../../server/jobs/runtime";
+import { describe, expect, it } from "vitest";
+import { clipUpload, teamPath, useCoachWorld } from "./coach-world";
 
-let srv: TestServer;
-let world: Awaited<ReturnType<typeof seedWorld>>;
-let coach: Client;
+const w = useCoachWorld();
 
-beforeAll(async () => {
-  srv = await startServer();
-  world = await seedWorld();
-  await startJobs({ work: true });
-  coach = await new Client(srv.url).signIn(EMAILS.coach);
-});
-afterAll(async () => {
-  await stopJobs();
-  await srv.close();
-});
-
-const team = () => `/api/teams/${world.teamId}`;
-const md = (filename: string, over: Record<string, unknown> = {}) => ({
-  teamId: world.teamId, filename, meta: JSON.stringify(clipMeta({ playerId: world.users[EMAILS.player], ...over })),
-});
+const team = () => teamPath(w);
+const md = (filename: string, over: Record<string, unknown> = {}) => clipUpload(w, filename, over);
 
 /** Upload and wait for the clip to be ready (or failed, which throws with its reason). */
 async function ready(file: string, over: Record<string, unknown> = {}) {
-  const r = await tusUpload(srv.url, coach, file, md(path.basename(file), over));
+  const r = await tusUpload(w.srv.url, w.coach, file, md(path.basename(file), over));
   expect(r.ok, JSON.stringify(r.body)).toBe(true);
   return waitFor(
     "clip ready",
     async () => {
-      const c = (await coach.get(`${team()}/clips/${r.body.clip.id}`)).json;
+      const c = (await w.coach.get(`${team()}/clips/${r.body.clip.id}`)).json;
       if (c.status === "failed") throw new Error(c.failureReason);
       return c.status === "ready" && c;
     },
@@ -137,7 +121,7 @@ describe("where a clip was filmed", () => {
     );
     expect(readFileSync(f).includes("+49.2827-123.1207")).toBe(true);
     const c = await ready(f);
-    const served = await coach.get(`${team()}/clips/${c.id}/original`);
+    const served = await w.coach.get(`${team()}/clips/${c.id}/original`);
     expect(served.status).toBe(200);
     expect(served.text.length).toBeGreaterThan(1000);
     expect(served.text.includes("+49.2827")).toBe(false);
@@ -147,7 +131,7 @@ describe("where a clip was filmed", () => {
     expect([c.width, c.height]).toEqual([180, 320]);
     expect(c.frameCount).toBe(20);
     expect(c.captureFps).toBe(240);
-    const again = await tusUpload(srv.url, coach, f, md("geo-again.mp4"));
+    const again = await tusUpload(w.srv.url, w.coach, f, md("geo-again.mp4"));
     expect(again.body.code).toBe("duplicate_clip");
   });
 });

@@ -2,35 +2,19 @@
 // ffmpeg (8-bit PNG, 16-bit grey TIFF, JPEG), zipped in the test and uploaded through tus →
 // check → probe → extraction: frame count, times from the typed rate, and the refusals, each
 // naming the file at fault and leaving nothing stored.
-import { clipMeta, ffmpeg, mediaDir, storedClipDirs, tusLeftovers, tusUpload, uploadDir, waitFor } from "./clips-support";
+import { ffmpeg, mediaDir, storedClipDirs, tusLeftovers, tusUpload, uploadDir, waitFor } from "./clips-support";
 import { execFileSync } from "node:child_process";
 import { existsSync, mkdirSync, readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
 import { zipSync, type Zippable } from "fflate";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { Client, EMAILS, seedWorld, startServer, type TestServer } from "./helpers";
-import { startJobs, stopJobs } from "../../server/jobs/runtime";
+import { describe, expect, it } from "vitest";
+import { clipUpload, teamPath, useCoachWorld } from "./coach-world";
 import { captureTimes } from "../../shared/schemas/clips";
 
-let srv: TestServer;
-let world: Awaited<ReturnType<typeof seedWorld>>;
-let coach: Client;
+const w = useCoachWorld();
 
-beforeAll(async () => {
-  srv = await startServer();
-  world = await seedWorld();
-  await startJobs({ work: true });
-  coach = await new Client(srv.url).signIn(EMAILS.coach);
-});
-afterAll(async () => {
-  await stopJobs();
-  await srv.close();
-});
-
-const team = () => `/api/teams/${world.teamId}`;
-const md = (filename: string, over: Record<string, unknown> = {}) => ({
-  teamId: world.teamId, filename, meta: JSON.stringify(clipMeta({ playerId: world.users[EMAILS.player], ...over })),
-});
+const team = () => teamPath(w);
+const md = (filename: string, over: Record<string, unknown> = {}) => clipUpload(w, filename, over);
 
 /** Numbered frames of the test pattern, written by ffmpeg's image2 muxer; answers name → bytes. */
 function frames(name: string, o: { count: number; ext: string; size?: string; pixFmt?: string; start?: number; prefix?: string }): Record<string, Uint8Array> {
@@ -49,7 +33,7 @@ function frames(name: string, o: { count: number; ext: string; size?: string; pi
 const zip = (entries: Zippable) => Buffer.from(zipSync(entries, { level: 0 }));
 
 async function upload(data: Buffer, filename: string, over: Record<string, unknown> = {}) {
-  return tusUpload(srv.url, coach, data, md(filename, over));
+  return tusUpload(w.srv.url, w.coach, data, md(filename, over));
 }
 
 async function ready(data: Buffer, filename: string, captureFps: number) {
@@ -58,7 +42,7 @@ async function ready(data: Buffer, filename: string, captureFps: number) {
   return waitFor(
     "clip ready",
     async () => {
-      const c = (await coach.get(`${team()}/clips/${r.body.clip.id}`)).json;
+      const c = (await w.coach.get(`${team()}/clips/${r.body.clip.id}`)).json;
       if (c.status === "failed") throw new Error(c.failureReason);
       return c.status === "ready" && c;
     },
