@@ -35,6 +35,8 @@ const EnvSchema = z.object({
   FRAME_QUALITY: z.coerce.number().int().min(1).max(31).default(3),
   /** Grey frames a tracking run keeps in memory (MB); more wait in a file in its job folder. */
   TRACK_MEMORY_MB: z.coerce.number().int().min(16).max(65536).default(768),
+  /** Seconds a queued recompute waits for the triggers (calibration writes, bench tests) to pause (decision 125). */
+  RECOMPUTE_DELAY_SECONDS: z.coerce.number().min(0).max(60).default(1),
   MAX_UPLOAD_BYTES: z.coerce.number().int().positive().default(4 * 1024 ** 3),
   MAX_PIXELS: z.coerce.number().int().positive().default(4096 * 2160),
   EMBEDDED_WORKER: bool.default(true),

@@ -3,15 +3,15 @@
 // when it runs. It waits until the triggers have paused for a moment, so a burst (a scale bar
 // being dragged writes the calibration every few hundred milliseconds) becomes one run, or two
 // when a run had already started.
-import { z } from "zod";
+import { env } from "../env";
 import { log } from "../log";
 import { enqueue, startedQueue } from "./queue";
 import type { RecomputeTarget } from "./types";
 
 export type { RecomputeTarget };
 
-/** Seconds a recompute waits for more triggers before it may start (RECOMPUTE_DELAY_SECONDS). */
-export const recomputeDelaySeconds = () => z.coerce.number().min(0).max(60).default(1).parse(process.env.RECOMPUTE_DELAY_SECONDS);
+/** Seconds a recompute waits for more triggers before it may start. */
+const recomputeDelaySeconds = () => env().RECOMPUTE_DELAY_SECONDS;
 
 export const recomputeKey = (t: RecomputeTarget) => `${t.scope}:${t.id}`;
 

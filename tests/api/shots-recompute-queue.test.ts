@@ -27,7 +27,6 @@ let world: Awaited<ReturnType<typeof seedWorld>>;
 let analyst: Client;
 
 beforeAll(async () => {
-  process.env.RECOMPUTE_DELAY_SECONDS = "1";
   srv = await startServer();
   world = await seedWorld();
   analyst = await new Client(srv.url).signIn(EMAILS.analyst);
