@@ -161,9 +161,9 @@ function Review({ p, store, canEdit }: { p: TrackingProposals; store: DigitiseSt
   };
   return (
     <div className="flex flex-col gap-3" data-testid="proposals">
-      {canEdit && (
-        <div className="flex flex-wrap gap-1.5 ">
-          <button type="button" className={primary} disabled={nothingLeft} onClick={acceptAll} data-testid="accept-all">
+      {canEdit && !nothingLeft && (
+        <div className="flex flex-wrap gap-1.5">
+          <button type="button" className={primary} onClick={acceptAll} data-testid="accept-all">
             Accept all{bar ? " with the scale bar" : ""}
           </button>
           <button
