@@ -3,7 +3,7 @@
 // fields quoted only when they hold a comma, quote or line break (docs/decisions/092-*).
 import { makeCalibration, type CalibrationMap } from "../../shared/mechanics/calibration";
 import { engineCalibration, LANDMARKS, landmarkLabels, type ClipCalibration, type ShotMarks } from "../../shared/schemas/shots";
-import { METRICS, convert, eventTimingText, frameTimeMs, unitOf } from "../../shared/schemas/readout";
+import { METRICS, convert, eventTimingText, frameClockMs, unitOf } from "../../shared/schemas/readout";
 import type { ShotResults } from "../../shared/schemas/shot-results";
 import type { UnitSystem } from "../../shared/units";
 
@@ -23,6 +23,8 @@ const r3 = (v: number) => Math.round(v * 1000) / 1000;
 export interface MarksExport {
   marks: ShotMarks;
   captureFps: number;
+  /** The shot's frames on the clip's own clock (shotFrameTimes), when it has one. */
+  frameTimes?: { firstFrame: number; seconds: number[] } | null;
   frameStart: number;
   puckStrike: number | null;
   calibration: ClipCalibration | null;
@@ -37,6 +39,7 @@ export function marksCsv(e: MarksExport): string {
     cal = null; // a calibration the engine refuses gives no world coordinates, not a failed export
   }
   const lu = unitOf("length", e.units);
+  const ms = frameClockMs(e.frameTimes, e.captureFps);
   const header: Cell[] = ["frame", "time_ms", "time_from_puck_strike_ms", "landmark", "x_px", "y_px", `x_${lu}`, `y_${lu}`];
   const rows: { f: number; order: number; cells: Cell[] }[] = [];
   LANDMARKS.forEach((k, order) => {
@@ -50,7 +53,7 @@ export function marksCsv(e: MarksExport): string {
       }
       rows.push({
         f, order,
-        cells: [f, r3(frameTimeMs(f, e.frameStart, e.captureFps)), e.puckStrike === null ? null : r3(frameTimeMs(f, e.puckStrike, e.captureFps)), landmarkLabels[k], r3(x), r3(y), wx, wy],
+        cells: [f, r3(ms(f, e.frameStart)), e.puckStrike === null ? null : r3(ms(f, e.puckStrike)), landmarkLabels[k], r3(x), r3(y), wx, wy],
       });
     }
   });

@@ -6,6 +6,7 @@ import { getPrefs } from "../me/repository";
 import { readoutPath, shotTitle } from "../../shared/schemas/readout";
 import type { UnitSystem } from "../../shared/units";
 import { marksCsv, resultsCsv } from "./csv";
+import { shotClockOf } from "./present";
 import { eventThumbs, renderShotReport } from "./pdf/render";
 import * as repo from "./repository";
 import { getReadout, resultsOrThrow, visibleShot } from "./service";
@@ -40,7 +41,7 @@ export async function marksExport(a: Actor, shotId: string, asked?: UnitSystem):
   return {
     filename: `${fileStem(title, shotId)}-marks.csv`,
     contentType: "text/csv; charset=utf-8",
-    body: marksCsv({ marks: row.marks ?? {}, captureFps: row.captureFps, frameStart: row.frameStart, puckStrike: row.events.puckStrike ?? null, calibration: row.calibration, units }),
+    body: marksCsv({ marks: row.marks ?? {}, captureFps: row.captureFps, frameTimes: shotClockOf(row), frameStart: row.frameStart, puckStrike: row.events.puckStrike ?? null, calibration: row.calibration, units }),
   };
 }
 

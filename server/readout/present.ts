@@ -1,8 +1,13 @@
 // From stored rows to the answers of the readout API. Pure apart from nothing: no queries here.
 import { EVENTS, toShotDocument, type ShotStickInfo } from "../../shared/schemas/shots";
-import { frameTimeMs, type ReadoutEvent, type ShareRow, type ShotListItem, type ShotReadout, type ShotType } from "../../shared/schemas/readout";
+import { frameClockMs, type ReadoutEvent, type ShareRow, type ShotListItem, type ShotReadout, type ShotType } from "../../shared/schemas/readout";
 import type { ListRow, ReadoutRow } from "./repository";
 import { shotDate } from "../entities/shot/date";
+import { shotFrameTimes } from "../../shared/schemas/clips";
+
+/** The shot's frames on the clip's own clock, or null where that is frame ÷ rate (decision 131). */
+export const shotClockOf = (r: Pick<ReadoutRow, "clipFrameTimes" | "storedFps" | "captureFps" | "frameStart" | "frameEnd" | "frameCount">) =>
+  shotFrameTimes(r.clipFrameTimes, r.storedFps, r.captureFps, r.frameStart, r.frameEnd ?? r.frameCount ?? r.frameStart);
 
 type Common = Pick<ReadoutRow, "sessionDate" | "clipCreatedAt" | "resultShotVersion" | "resultError" | "calibration" | "events" | "frameStart" | "frameEnd" | "frameCount" | "captureFps">;
 
@@ -24,15 +29,16 @@ export function missingOf(r: Common & { marks?: ReadoutRow["marks"] }, hasResult
   return "Results have not been computed for this shot yet: open it on the Digitise page and save its marks.";
 }
 
-export function eventsOf(r: Pick<Common, "events" | "frameStart" | "captureFps">): ReadoutEvent[] {
+export function eventsOf(r: Pick<Common, "events" | "frameStart" | "captureFps"> & { frameTimes?: { firstFrame: number; seconds: number[] } | null }): ReadoutEvent[] {
   const strike = r.events.puckStrike;
+  const ms = frameClockMs(r.frameTimes, r.captureFps);
   return EVENTS.filter((k) => r.events[k] !== undefined).map((key) => {
     const frame = r.events[key]!;
     return {
       key,
       frame,
-      tMs: frameTimeMs(frame, r.frameStart, r.captureFps),
-      tFromStrikeMs: strike === undefined ? null : frameTimeMs(frame, strike, r.captureFps),
+      tMs: ms(frame, r.frameStart),
+      tFromStrikeMs: strike === undefined ? null : ms(frame, strike),
     };
   });
 }
@@ -67,7 +73,7 @@ export function readout(r: ReadoutRow, o: { shares: ShareRow[]; stick: ShotStick
       id: r.clipId, title: r.clipTitle, status: r.clipStatus, captureFps: r.captureFps, frameCount: r.frameCount ?? 0, width: r.width ?? 0, height: r.height ?? 0,
       frameFormat: r.frameFormat, calibration: r.calibration?.type ?? null,
     },
-    events: eventsOf(r),
+    events: eventsOf({ ...r, frameTimes: shotClockOf(r) }),
     results: r.results,
     missing: missingOf(r, hasResults),
     stale: hasResults && r.resultShotVersion !== null && r.resultShotVersion !== r.version,

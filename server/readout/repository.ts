@@ -37,6 +37,9 @@ const withEverything = {
   ...withResultSummary,
   results: sql<unknown>`${shotResult.results}`,
   marks: sql<unknown>`${shot.marks}`,
+  // The clip's frame clock, for event and mark times (one shot's readout and exports only).
+  storedFps: clip.storedFps,
+  clipFrameTimes: sql<number[] | null>`${clip.frameTimes}`,
   // The stick's stiffness in force on the shot's date, in the same round trip.
   stickRatedFlex: stick.ratedFlex,
   stickTestInForce: benchTestInForce(shot.stickId, shotDateSql),
@@ -117,8 +120,8 @@ export function pageIdsQuery(a: Actor, f: ShotListQuery, page: { limit: number; 
  */
 export async function listShots(a: Actor, f: ShotListQuery, page?: { limit: number; offset: number }) {
   const where = page ? inArray(shot.id, pageIdsQuery(a, f, page)) : listWhere(a, f);
-  const rows = await joined({ ...withEverything, results: sql<null>`null`, marks: sql<null>`null`, stickTestInForce: sql<null>`null` }).where(where).orderBy(...newestFirst);
-  return rows.map(({ results: _r, marks: _m, stickTestInForce: _t, ...r }) => ({ ...typed(r), summary: summaryResults(r.summary) }));
+  const rows = await joined({ ...withEverything, results: sql<null>`null`, marks: sql<null>`null`, stickTestInForce: sql<null>`null`, clipFrameTimes: sql<null>`null` }).where(where).orderBy(...newestFirst);
+  return rows.map(({ results: _r, marks: _m, stickTestInForce: _t, clipFrameTimes: _f, ...r }) => ({ ...typed(r), summary: summaryResults(r.summary) }));
 }
 
 /** How many shots the same filters find, for the pager. */

@@ -381,6 +381,19 @@ export function noteMetric(code: string): MetricKey | null {
 /** Time of a frame by the capture rate, from `fromFrame`, in ms. */
 export const frameTimeMs = (frame: number, fromFrame: number, captureFps: number) => ((frame - fromFrame) / captureFps) * 1000;
 
+/**
+ * Milliseconds between two frames on the clip's own frame clock (shotFrameTimes: capture times of
+ * the shot's frames) where it has both, else frame ÷ capture rate. Across a dropped stretch the
+ * index would put a frame too early by the missing time.
+ */
+export function frameClockMs(times: { firstFrame: number; seconds: readonly number[] } | null | undefined, captureFps: number) {
+  return (frame: number, fromFrame: number): number => {
+    const a = times?.seconds[fromFrame - times.firstFrame];
+    const b = times?.seconds[frame - times.firstFrame];
+    return a !== undefined && b !== undefined ? (b - a) * 1000 : frameTimeMs(frame, fromFrame, captureFps);
+  };
+}
+
 /** Links into the app, the same in e-mails, PDFs and pages. */
 export const readoutPath = (shotId: string, teamId?: string) => `/readout/${shotId}${teamId ? `?team=${encodeURIComponent(teamId)}` : ""}`;
 

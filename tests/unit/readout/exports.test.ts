@@ -5,6 +5,7 @@ import { describe, expect, it } from "vitest";
 import { parse } from "csv-parse/sync";
 import { csvField, csvLines, marksCsv } from "../../../server/readout/csv";
 import { fileStem } from "../../../server/readout/exports";
+import { eventsOf } from "../../../server/readout/present";
 import { linePath, niceTicks, thin } from "../../../server/readout/pdf/chart-geometry";
 
 describe("CSV", () => {
@@ -30,6 +31,21 @@ describe("CSV", () => {
     expect(rows[1]).toMatchObject({ x_px: "120", x_mm: "40", y_mm: "0" });
     const bare = parse(marksCsv({ marks, captureFps: 2000, frameStart: 1, puckStrike: null, calibration: null, units: "imperial" }), { columns: true }) as Record<string, string>[];
     expect(bare[1]).toMatchObject({ time_from_puck_strike_ms: "", x_in: "", y_in: "" });
+  });
+
+  it("marks and events on a clip with dropped frames: times from the clip's own clock, not frame ÷ rate", () => {
+    // Frames 1..12 at 2000 fps with three frames lost after frame 5: frame 6 is 4 intervals after frame 5.
+    const seconds = Array.from({ length: 12 }, (_, i) => (i < 5 ? i : i + 3) / 2000);
+    const frameTimes = { firstFrame: 1, seconds };
+    const marks = { puck: [[11, 120, 50]] as [number, number, number][], bladeHeel: [[4, 100, 50]] as [number, number, number][] };
+    const rows = parse(marksCsv({ marks, captureFps: 2000, frameTimes, frameStart: 1, puckStrike: 4, calibration: null, units: "metric" }), { columns: true }) as Record<string, string>[];
+    expect(rows[0]).toMatchObject({ frame: "4", time_ms: "1.5", time_from_puck_strike_ms: "0" });
+    expect(rows[1]).toMatchObject({ frame: "11", time_ms: "6.5", time_from_puck_strike_ms: "5" });
+    const release = eventsOf({ events: { puckStrike: 4, release: 11 }, frameStart: 1, captureFps: 2000, frameTimes }).find((e) => e.key === "release")!;
+    expect(release.tMs).toBeCloseTo(6.5, 9);
+    expect(release.tFromStrikeMs).toBeCloseTo(5, 9);
+    // Without a clock of its own, frame ÷ rate as before.
+    expect(eventsOf({ events: { puckStrike: 4, release: 11 }, frameStart: 1, captureFps: 2000 }).find((e) => e.key === "release")).toMatchObject({ tMs: 5, tFromStrikeMs: 3.5 });
   });
 
   it("file names are plain ASCII", () => {
