@@ -5,6 +5,7 @@ import { randomUUID } from "node:crypto";
 import { env } from "../env";
 import { log } from "../log";
 import { HttpError } from "../http/problem";
+import type { ProblemCode } from "../../shared/schemas/problem-codes";
 import { MediaInputError } from "../media/errors";
 import { probe, withoutPlaceTags, type ProbeResult } from "../media/probe";
 import { hasPlaceTags, stripMetadata } from "../media/remux";
@@ -20,7 +21,7 @@ import * as repo from "./repository";
 
 /** A problem with extra members in its body (e.g. the existing clip of a duplicate). */
 export class ClipProblem extends HttpError {
-  constructor(status: number, code: string, message: string, extra: Record<string, unknown> = {}) {
+  constructor(status: number, code: ProblemCode, message: string, extra: Record<string, unknown> = {}) {
     super(status, code, message, undefined, extra);
   }
 }

@@ -1,5 +1,6 @@
 import { APIError } from "better-auth/api";
 import { HttpError, PROBLEM_TYPE, problemJson } from "./problem";
+import { isProblemCode, type ProblemCode } from "../../shared/schemas/problem-codes";
 
 /**
  * better-auth answers its own errors as `{ code, message }` JSON (or plain text); the API speaks
@@ -24,14 +25,20 @@ export async function asProblemResponse(res: globalThis.Response): Promise<globa
 }
 
 /** Run a better-auth server call and turn its APIError into our problem+json error. */
-export async function viaAuth<T>(fn: () => Promise<T>, fallbackCode = "auth_error"): Promise<T> {
+/** The library's code when it is one the API lists (shared/schemas/problem-codes.ts), else `fallback`. */
+const listed = (code: unknown, fallback: ProblemCode): ProblemCode => {
+  const c = typeof code === "string" ? code.toLowerCase() : "";
+  return isProblemCode(c) ? c : fallback;
+};
+
+export async function viaAuth<T>(fn: () => Promise<T>, fallbackCode: ProblemCode = "auth_error"): Promise<T> {
   try {
     return await fn();
   } catch (e) {
     if (e instanceof APIError) {
       const body = (e.body ?? {}) as { code?: string; message?: string };
       const status = typeof e.statusCode === "number" ? e.statusCode : 400;
-      throw new HttpError(status, (body.code ?? fallbackCode).toLowerCase(), body.message ?? e.message);
+      throw new HttpError(status, listed(body.code, fallbackCode), body.message ?? e.message);
     }
     throw e;
   }

@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler, Response } from "express";
 import { isDatabaseDown } from "./database-down";
 import { ZodError } from "zod";
+import { isProblemCode, type ProblemCode } from "../../shared/schemas/problem-codes";
 
 /**
  * An error the API answers as problem+json (RFC 9457) with a stable machine `code`. `extra` holds
@@ -10,7 +11,7 @@ import { ZodError } from "zod";
 export class HttpError extends Error {
   constructor(
     readonly status: number,
-    readonly code: string,
+    readonly code: ProblemCode,
     message: string,
     readonly errors?: { path: string; message: string }[],
     readonly extra: Record<string, unknown> = {},
@@ -39,7 +40,7 @@ export function problemJson(status: number, code: string, detail: string, extra:
 /** The document for an HttpError: its field errors and extension members included. */
 export const problemBody = (e: HttpError) => problemJson(e.status, e.code, e.message, { ...e.extra, ...(e.errors ? { errors: e.errors } : {}) });
 
-export function sendProblem(res: Response, status: number, code: string, detail: string, errors?: HttpError["errors"]) {
+export function sendProblem(res: Response, status: number, code: ProblemCode, detail: string, errors?: HttpError["errors"]) {
   res.status(status).type(PROBLEM_TYPE).send(problemJson(status, code, detail, errors ? { errors } : {}));
 }
 
@@ -71,7 +72,7 @@ export const problemHandler: ErrorRequestHandler = (err, req, res, _next) => {
   if (err?.type === "entity.parse.failed") return sendProblem(res, 400, "malformed_json", "The request body is not valid JSON.");
   if (err?.type === "entity.too.large") return sendProblem(res, 413, "too_large", "The request body is too large.");
   if (typeof err?.status === "number" && err.status >= 400 && err.status < 500)
-    return sendProblem(res, err.status, err.code ?? "bad_request", err.message ?? "Bad request");
+    return sendProblem(res, err.status, isProblemCode(err.code) ? err.code : "bad_request", err.message ?? "Bad request");
   if (isDatabaseDown(err)) {
     req.log?.warn({ err }, "database unavailable");
     res.setHeader("Retry-After", "5");

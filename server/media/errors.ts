@@ -2,29 +2,11 @@
 // MediaInputError is the uploaded file's fault (answer 422, never retry); FfmpegError is a run
 // of ffmpeg/ffprobe that failed, and says itself whether trying again can help.
 
-/** Stable codes for unusable uploads (API `code`, lower snake case like the rest of the API). */
-export const mediaInputCodes = [
-  "empty_file",
-  "not_media",
-  "truncated_file",
-  "audio_only",
-  "no_video_stream",
-  "image_not_video",
-  "no_decodable_frames",
-  "pixel_size_over_limit",
-  // image sequences (decision 134), each naming the file at fault
-  "sequence_rate_missing",
-  "sequence_not_images",
-  "sequence_mixed",
-  "sequence_unnumbered",
-  "sequence_gap",
-  "sequence_too_short",
-  "sequence_mixed_sizes",
-  "sequence_unreadable_image",
-  "sequence_unsafe_archive",
-  "sequence_too_large",
-] as const;
-export type MediaInputCode = (typeof mediaInputCodes)[number];
+import { MEDIA_INPUT_CODES, type MediaInputCode } from "../../shared/schemas/problem-codes";
+
+/** Stable codes for unusable uploads: part of the API's one list (shared/schemas/problem-codes.ts). */
+export const mediaInputCodes = MEDIA_INPUT_CODES;
+export type { MediaInputCode };
 
 export class MediaInputError extends Error {
   readonly retryable = false;

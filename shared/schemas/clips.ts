@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { humanText, opaqueId, TEXT_LIMITS } from "./text";
+import type { ProblemCode } from "./problem-codes";
 
 // Clip metadata and the clip API's shapes, checked by the upload form and by the server.
 
@@ -247,4 +248,4 @@ export interface UploadFinished { clip: ClipSummary }
 export const uploadProblemCodes = [
   "too_large", "quota_exceeded", "duplicate_clip", "validation_failed", "empty_file", "not_media", "truncated_file", "audio_only",
   "no_video_stream", "image_not_video", "no_decodable_frames", "pixel_size_over_limit",
-] as const;
+] as const satisfies readonly ProblemCode[];

@@ -1,4 +1,11 @@
+import { isProblemCode, type ProblemCode } from "@shared/schemas/problem-codes";
 import { env } from "./env";
+
+/**
+ * A failed call's code: one of the API's (the list the server's errors are typed with), or one
+ * the client makes itself when there is no usable answer.
+ */
+export type ApiCode = ProblemCode | "network_error" | "download_failed" | "conflict" | "server_error" | "http_error";
 
 /** One field-level problem, as named by the server's problem+json `errors` array. */
 export interface FieldProblem {
@@ -12,11 +19,11 @@ export interface FieldProblem {
  */
 export class ApiError extends Error {
   readonly status: number;
-  readonly code: string;
+  readonly code: ApiCode;
   readonly detail: string;
   readonly errors: FieldProblem[];
 
-  constructor(init: { status: number; code: string; detail: string; errors?: FieldProblem[] }) {
+  constructor(init: { status: number; code: ApiCode; detail: string; errors?: FieldProblem[] }) {
     super(init.detail);
     this.name = "ApiError";
     this.status = init.status;
@@ -47,7 +54,7 @@ const fallbackDetail: Record<number, string> = {
   429: "Too many attempts. Wait a minute and try again.",
 };
 
-const fallbackCode: Record<number, string> = {
+const fallbackCode: Record<number, ApiCode> = {
   401: "unauthenticated",
   403: "forbidden",
   404: "not_found",
@@ -84,7 +91,9 @@ async function problemFrom(res: Response): Promise<ApiError> {
     str(body?.title) ??
     fallbackDetail[res.status] ??
     (res.status >= 500 ? "The server ran into a problem. Please try again in a moment." : `Request failed (${res.status}).`);
-  const code = (str(body?.code)?.toLowerCase() ?? fallbackCode[res.status] ?? (res.status >= 500 ? "server_error" : "http_error"));
+  // A code outside the API's list (an older server, a proxy) counts as the status's general one.
+  const named = str(body?.code)?.toLowerCase();
+  const code: ApiCode = isProblemCode(named) ? named : (fallbackCode[res.status] ?? (res.status >= 500 ? "server_error" : "http_error"));
   return new ApiError({ status: res.status, code, detail, errors: toFieldProblems(body?.errors) });
 }
 

@@ -89,6 +89,7 @@ describe("bench test from the table", () => {
     for (const [readings, message] of cases) {
       const r = await analyst.post(`${base()}/bench-tests`, { date: "2026-11-21", loadUnit: "lbf", deflectionUnit: "in", readings });
       expect(r.status, r.text).toBe(422);
+      expect(r.json.code, "one failure, one code").toBe("validation_failed");
       expect(r.json.detail).toMatch(message);
       expect(r.json.errors[0].path).toMatch(/^readings/);
     }
@@ -132,6 +133,7 @@ describe("bench test from a CSV upload", () => {
     const r = await upload(csvForm(csv));
     expect(r.status, r.text).toBe(422);
     expect(r.headers.get("content-type")).toMatch(/problem\+json/);
+    expect(r.json.code, "the same code as a missing file or date").toBe("validation_failed");
     expect(r.json.detail).toMatch(message);
     expect(r.json.errors[0].path).toBe("file");
     expect(await stored()).toBe(before);
@@ -143,6 +145,7 @@ describe("bench test from a CSV upload", () => {
     noFile.set("date", "2026-11-20");
     const r1 = await upload(noFile);
     expect(r1.status).toBe(422);
+    expect(r1.json.code).toBe("validation_failed");
     expect(r1.json.errors[0].path).toBe("file");
 
     const r2 = await upload(csvForm("load_lbf,deflection_in\n20,0.28\n40,0.56\n60,0.84\n", {}));

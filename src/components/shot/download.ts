@@ -1,4 +1,5 @@
 import { ApiError } from "@/lib/api";
+import { isProblemCode } from "@shared/schemas/problem-codes";
 
 /**
  * Fetch a file and hand it to the browser as a download, so a refusal (no results yet, no access)
@@ -11,7 +12,7 @@ export async function downloadFile(url: string, fallbackName: string): Promise<v
     try {
       const body = (await res.json()) as { detail?: string; code?: string };
       if (body.detail) detail = body.detail;
-      throw new ApiError({ status: res.status, code: body.code ?? "download_failed", detail });
+      throw new ApiError({ status: res.status, code: isProblemCode(body.code) ? body.code : "download_failed", detail });
     } catch (e) {
       if (e instanceof ApiError) throw e;
       throw new ApiError({ status: res.status, code: "download_failed", detail });

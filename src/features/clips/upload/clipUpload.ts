@@ -1,3 +1,4 @@
+import { isProblemCode, type ProblemCode } from "@shared/schemas/problem-codes";
 import * as tus from "tus-js-client";
 import { env } from "@/lib/env";
 import type { FieldProblem } from "@/lib/api";
@@ -44,17 +45,19 @@ export function classifyUploadError(err: unknown): UploadProblem {
   const status = res.getStatus();
   const body = parseBody(res);
   const code = typeof body?.code === "string" ? body.code : `http_${status}`;
+  // Compared against the API's one list of codes, so a renamed code fails the type check here.
+  const named: ProblemCode | null = isProblemCode(code) ? code : null;
   const message = typeof body?.detail === "string" ? body.detail : "";
   const fields = Array.isArray(body?.errors) ? (body.errors as FieldProblem[]) : [];
   const p = (kind: UploadProblemKind, fallback: string): UploadProblem => ({ kind, code, message: message || fallback, fields });
-  if (code === "quota_exceeded") return p("quota", "The club's plan has no storage left for this file.");
-  if (code === "read_only_unpaid") return p("not_allowed", "The club is read-only until its overdue payment is made.");
-  if (code === "too_large" || status === 413) return { ...p("too_large", "The file is too large to upload."), code: "too_large" };
-  if (code === "duplicate_clip") return { ...p("duplicate", "This file is already in the team."), existingClipId: body?.existingClipId as string | undefined };
+  if (named === "quota_exceeded") return p("quota", "The club's plan has no storage left for this file.");
+  if (named === "read_only_unpaid") return p("not_allowed", "The club is read-only until its overdue payment is made.");
+  if (named === "too_large" || status === 413) return { ...p("too_large", "The file is too large to upload."), code: "too_large" };
+  if (named === "duplicate_clip") return { ...p("duplicate", "This file is already in the team."), existingClipId: body?.existingClipId as string | undefined };
   // An image sequence without its capture rate: shown at the rate field.
-  if (code === "sequence_rate_missing" && fields.length) return p("invalid_details", "Type the capture rate of this sequence.");
+  if (named === "sequence_rate_missing" && fields.length) return p("invalid_details", "Type the capture rate of this sequence.");
   if (invalidFileCodes.has(code) || code.startsWith("sequence_")) return p("invalid_file", "This file cannot be used as a clip.");
-  if (code === "validation_failed") return p("invalid_details", "Some of the clip's details are not valid.");
+  if (named === "validation_failed") return p("invalid_details", "Some of the clip's details are not valid.");
   if (status === 401) return p("signed_out", "Your session has ended. Sign in again, then choose the file again to continue.");
   if (status === 403 || status === 404) return p("not_allowed", "You cannot upload clips to this team.");
   return p("server", "The server could not take the upload. Try again in a moment.");

@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { ApiError, apiPost, type FieldProblem } from "@/lib/api";
 import { env } from "@/lib/env";
 import type { BenchTestInput, BenchTestRow } from "@shared/schemas/sticks";
+import { isProblemCode } from "@shared/schemas/problem-codes";
 import { stickChanged, stickPath } from "@/entities/stick";
 
 /** POST /api/teams/:teamId/sticks/:stickId/bench-tests — readings from the table. */
@@ -29,7 +30,7 @@ export async function uploadBenchCsv(teamId: string, stickId: string, u: BenchCs
     throw new ApiError({ status: 0, code: "network_error", detail: "Can't reach the Loadframe server. Check your connection and try again." });
   }
   const body = (await res.json().catch(() => null)) as (Partial<BenchTestRow> & { code?: string; detail?: string; errors?: FieldProblem[] }) | null;
-  if (!res.ok) throw new ApiError({ status: res.status, code: body?.code ?? "http_error", detail: body?.detail ?? `Upload failed (${res.status}).`, errors: body?.errors });
+  if (!res.ok) throw new ApiError({ status: res.status, code: isProblemCode(body?.code) ? body.code : "http_error", detail: body?.detail ?? `Upload failed (${res.status}).`, errors: body?.errors });
   return body as BenchTestRow;
 }
 
