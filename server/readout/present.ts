@@ -61,8 +61,8 @@ export function listItem(r: ListRow, opts: { viewerId: string; sharedWithViewer:
   };
 }
 
-export function readout(r: ReadoutRow, o: { shares: ShareRow[]; stick: ShotStickInfo | null; canEdit: boolean; canShare: boolean; canPublish: boolean }): ShotReadout {
-  const hasResults = !!r.results;
+export function readout(r: ReadoutRow & { resultsText?: string | null }, o: { shares: ShareRow[]; stick: ShotStickInfo | null; canEdit: boolean; canShare: boolean; canPublish: boolean }): ShotReadout {
+  const hasResults = !!r.results || !!r.resultsText;
   return {
     shot: {
       id: r.id, label: r.label, clipId: r.clipId, playerId: r.playerId, playerName: r.playerName, stickId: r.stickId, stickLabel: r.stickLabel,

@@ -1,5 +1,7 @@
+import { createHash } from "node:crypto";
 import { and, asc, desc, eq, inArray, isNotNull, isNull, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
+import { LRUCache } from "lru-cache";
 import { db } from "../db/client";
 import { prepared, preparedBy } from "../db/prepared";
 import { auditLog, clip, member, organization, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../db/schema";
@@ -89,6 +91,30 @@ export async function shotById(teamId: string, shotId: string, o: { marks?: "alw
   return row ? { ...typed(row), results: fullResults(row.results), marks: row.marks as ShotMarks | null } : null;
 }
 export type ReadoutRow = NonNullable<Awaited<ReturnType<typeof shotById>>>;
+
+const shotTextQuery = prepared("readout_shot_text", (name) =>
+  joined({ ...withEverything, marks: marksWhenNoResults, results: sql<string | null>`${shotResult.results}::text` })
+    .where(and(eq(shot.id, sql.placeholder("shotId")), eq(shot.teamId, sql.placeholder("teamId"))))
+    .prepare(name),
+);
+// Whether a stored result has the engine's shape, by a hash of its exact text: the same text is
+// checked once per process, not parsed again on every read (hashing is a small part of parsing).
+const shapeChecked = new LRUCache<string, boolean>({ max: 20_000 });
+
+/**
+ * The readout's row with the stored results as the JSON text PostgreSQL holds (the page's
+ * largest part, tens of kB), for answering without parsing and re-serialising it (decision 175).
+ * `results` is null where the stored value lacks the engine's shape, as in shotById.
+ */
+export async function shotTextById(teamId: string, shotId: string) {
+  const [row] = await shotTextQuery().execute({ teamId, shotId });
+  if (!row) return null;
+  const text = row.results as string | null;
+  const key = text === null ? "" : createHash("sha1").update(text).digest("base64");
+  let ok = text === null ? false : shapeChecked.get(key);
+  if (ok === undefined) shapeChecked.set(key, (ok = fullResults(JSON.parse(text!)) !== null));
+  return { ...typed(row), results: null, resultsText: ok ? text : null, marks: row.marks as ShotMarks | null };
+}
 
 /** The shots of the actor's team that the actor may see (entities/shot/visibility.ts), filtered. */
 function listWhere(a: Actor, f: ShotListQuery) {

@@ -21,7 +21,7 @@ function sendFile(res: Response, f: FileAnswer) {
 }
 
 readoutRouter.get("/readout/shots", async (req, res) => void res.json(await svc.listShots(actorOf(req), parse(ShotListPageQuery, req.query))));
-readoutRouter.get("/readout/shots/:shotId", async (req, res) => void res.json(await svc.getReadout(actorOf(req), shotId(req))));
+readoutRouter.get("/readout/shots/:shotId", async (req, res) => void res.type("json").send(await svc.readoutJson(actorOf(req), shotId(req))));
 readoutRouter.get("/readout/compare", async (req, res) => void res.json(await svc.compare(actorOf(req), parse(CompareQuery, req.query))));
 readoutRouter.get("/readout/players", async (req, res) => void res.json(await svc.players(actorOf(req))));
 readoutRouter.get("/readout/progress", async (req, res) => void res.json(await svc.progress(actorOf(req), parse(ProgressQuery, req.query))));

@@ -158,6 +158,9 @@ describe("stored results not in the engine's shape", () => {
     const { shotResult } = await import("../../server/db/schema");
     const { eq } = await import("drizzle-orm");
     const s = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Odd stored result" });
+    // Read once in the engine's shape first: the answer must follow the stored text, not a check made earlier.
+    const before = await coach.get(`${R()}/shots/${s.shotId}`);
+    expect(before.json.results.puckExitSpeed.valueMps).toBe(s.results!.puckExitSpeed.valueMps);
     await db().update(shotResult).set({ results: { shaftDeflection: { valueMm: 12 } } }).where(eq(shotResult.shotId, s.shotId));
     const list = await coach.get(`${R()}/shots`);
     expect(list.status, list.text).toBe(200);
@@ -167,6 +170,19 @@ describe("stored results not in the engine's shape", () => {
     expect(one.json.results).toBeNull();
     expect(one.json.missing).toMatch(/not been computed/);
     expect((await coach.get(`${R()}/progress?playerId=${uid(EMAILS.player)}`)).status).toBe(200);
+  });
+});
+
+describe("one shot's readout answered from the stored text", () => {
+  it("is the readout the service builds, results as stored, key for key", async () => {
+    const s = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Text readout" });
+    const r = await coach.get(`${R()}/shots/${s.shotId}`);
+    expect(r.status, r.text).toBe(200);
+    expect(r.headers.get("content-type")).toMatch(/^application\/json/);
+    const { getReadout } = await import("../../server/readout/service");
+    const built = await getReadout({ userId: uid(EMAILS.coach), teamId: world.teamId, role: "coach" }, s.shotId);
+    expect(r.json).toEqual(JSON.parse(JSON.stringify(built)));
+    expect(r.json.results).toEqual(JSON.parse(JSON.stringify(s.results)));
   });
 });
 
