@@ -1,29 +1,16 @@
 // Issue 15, pictures: HDR phone video tone-mapped to SDR, BT.709 colour honoured, interlaced
 // video as one picture per field, non-square pixels served square, DCI 4K accepted. Every file is
 // made here with ffmpeg (x265 10-bit HLG/PQ as phones record; 1080i-style interlaced H.264).
-import { ffmpeg, mediaDir, tusUpload, uploadDir, waitFor } from "./clips-support";
+import { ffmpeg, mediaDir, uploadDir } from "./clips-support";
 import path from "node:path";
 import sharp from "sharp";
 import { describe, expect, it } from "vitest";
-import { clipUpload, teamPath, useCoachWorld } from "./coach-world";
+import { uploadReady, useCoachWorld } from "./coach-world";
 
 const w = useCoachWorld();
 
-const team = () => teamPath(w);
 
-async function ready(file: string) {
-  const r = await tusUpload(w.srv.url, w.coach, file, clipUpload(w, path.basename(file)));
-  expect(r.ok, JSON.stringify(r.body)).toBe(true);
-  return waitFor(
-    "clip ready",
-    async () => {
-      const c = (await w.coach.get(`${team()}/clips/${r.body.clip.id}`)).json;
-      if (c.status === "failed") throw new Error(c.failureReason);
-      return c.status === "ready" && c;
-    },
-    60_000,
-  );
-}
+const ready = (file: string) => uploadReady(w, file, path.basename(file));
 
 const frameFile = (clipId: string, n: number) => path.join(uploadDir, "clips", clipId, "frames", `${String(n).padStart(6, "0")}.jpg`);
 

@@ -1,12 +1,12 @@
 // Issue 15: the files phones and lab cameras produce, each made here with ffmpeg to imitate them,
 // through the real upload path (tus → probe → extraction): frame count = decoded count, the
 // frame clock (coarse container clocks snapped, real gaps kept), the capture rate, warnings.
-import { ffmpeg, makeClip, mediaDir, tusUpload, uploadDir, waitFor } from "./clips-support";
+import { ffmpeg, makeClip, mediaDir, tusUpload, uploadDir } from "./clips-support";
 import { execFileSync } from "node:child_process";
 import { readdirSync, readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { clipUpload, teamPath, useCoachWorld } from "./coach-world";
+import { clipUpload, teamPath, uploadReady, useCoachWorld } from "./coach-world";
 
 const w = useCoachWorld();
 
@@ -14,19 +14,7 @@ const team = () => teamPath(w);
 const md = (filename: string, over: Record<string, unknown> = {}) => clipUpload(w, filename, over);
 
 /** Upload and wait for the clip to be ready (or failed, which throws with its reason). */
-async function ready(file: string, over: Record<string, unknown> = {}) {
-  const r = await tusUpload(w.srv.url, w.coach, file, md(path.basename(file), over));
-  expect(r.ok, JSON.stringify(r.body)).toBe(true);
-  return waitFor(
-    "clip ready",
-    async () => {
-      const c = (await w.coach.get(`${team()}/clips/${r.body.clip.id}`)).json;
-      if (c.status === "failed") throw new Error(c.failureReason);
-      return c.status === "ready" && c;
-    },
-    60_000,
-  );
-}
+const ready = (file: string, over: Record<string, unknown> = {}) => uploadReady(w, file, path.basename(file), over);
 
 /** Frames ffmpeg itself decodes from the file (the reference count). */
 const decodedCount = (file: string) =>

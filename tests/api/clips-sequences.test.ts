@@ -2,18 +2,17 @@
 // ffmpeg (8-bit PNG, 16-bit grey TIFF, JPEG), zipped in the test and uploaded through tus →
 // check → probe → extraction: frame count, times from the typed rate, and the refusals, each
 // naming the file at fault and leaving nothing stored.
-import { ffmpeg, mediaDir, storedClipDirs, tusLeftovers, tusUpload, uploadDir, waitFor } from "./clips-support";
+import { ffmpeg, mediaDir, storedClipDirs, tusLeftovers, tusUpload, uploadDir } from "./clips-support";
 import { execFileSync } from "node:child_process";
 import { existsSync, mkdirSync, readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
 import { zipSync, type Zippable } from "fflate";
 import { describe, expect, it } from "vitest";
-import { clipUpload, teamPath, useCoachWorld } from "./coach-world";
+import { clipUpload, uploadReady, useCoachWorld } from "./coach-world";
 import { captureTimes } from "../../shared/schemas/clips";
 
 const w = useCoachWorld();
 
-const team = () => teamPath(w);
 const md = (filename: string, over: Record<string, unknown> = {}) => clipUpload(w, filename, over);
 
 /** Numbered frames of the test pattern, written by ffmpeg's image2 muxer; answers name → bytes. */
@@ -36,19 +35,7 @@ async function upload(data: Buffer, filename: string, over: Record<string, unkno
   return tusUpload(w.srv.url, w.coach, data, md(filename, over));
 }
 
-async function ready(data: Buffer, filename: string, captureFps: number) {
-  const r = await upload(data, filename, { captureFps, captureFpsConfirmed: true });
-  expect(r.ok, JSON.stringify(r.body)).toBe(true);
-  return waitFor(
-    "clip ready",
-    async () => {
-      const c = (await w.coach.get(`${team()}/clips/${r.body.clip.id}`)).json;
-      if (c.status === "failed") throw new Error(c.failureReason);
-      return c.status === "ready" && c;
-    },
-    60_000,
-  );
-}
+const ready = (data: Buffer, filename: string, captureFps: number) => uploadReady(w, data, filename, { captureFps, captureFpsConfirmed: true });
 
 const storedFrames = (clipId: string) => readdirSync(path.join(uploadDir, "clips", clipId, "frames")).sort();
 const grey = (file: string) =>
