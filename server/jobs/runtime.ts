@@ -5,6 +5,7 @@ import { isDatabaseDown } from "../http/database-down";
 import { jobPolicies, type JobName } from "./types";
 import { handlers } from "./handlers";
 import { setQueue, startedQueue } from "./queue";
+import { withNamedLock } from "../db/named-lock";
 
 export { enqueue, queue } from "./queue";
 
@@ -30,12 +31,16 @@ export async function startJobs({ work }: { work: boolean }) {
   const boss = new PgBoss({ connectionString: env().DATABASE_URL, schema: "pgboss", max: 5 });
   setQueue(boss);
   boss.on("error", (err) => log.error({ err }, "queue error"));
-  await boss.start();
-  for (const name of Object.keys(jobPolicies) as JobName[]) {
-    // pg-boss 10: a queue must exist before send(), or send silently returns null.
-    const p = jobPolicies[name];
-    await boss.createQueue(name, { name, policy: p.policy ?? "standard", retryLimit: p.retryLimit, retryDelay: p.retryDelaySeconds, retryBackoff: p.retryBackoff, expireInSeconds: p.expireInSeconds });
-  }
+  // Processes starting at once on a fresh database (WEB_PROCESSES, workers) would race pg-boss's
+  // schema set-up and its check-then-insert of each queue: one lock across processes around both.
+  await withNamedLock("pgboss.setup", async () => {
+    await boss.start();
+    for (const name of Object.keys(jobPolicies) as JobName[]) {
+      // pg-boss 10: a queue must exist before send(), or send silently returns null.
+      const p = jobPolicies[name];
+      await boss.createQueue(name, { name, policy: p.policy ?? "standard", retryLimit: p.retryLimit, retryDelay: p.retryDelaySeconds, retryBackoff: p.retryBackoff, expireInSeconds: p.expireInSeconds });
+    }
+  });
   if (work) {
     for (const name of Object.keys(handlers) as JobName[]) {
       const handler = handlers[name];

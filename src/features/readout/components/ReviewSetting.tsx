@@ -1,3 +1,4 @@
+import { useState } from "react";
 import { toast } from "@/components/ui";
 import { errorMessage } from "@/lib/api";
 import { useReviewSettings, useUpdateReviewSettings } from "../api/reviewSettings";
@@ -6,17 +7,18 @@ import { useReviewSettings, useUpdateReviewSettings } from "../api/reviewSetting
 export function ReviewSetting({ teamId, canChange }: { teamId: string; canChange: boolean }) {
   const q = useReviewSettings(teamId);
   const update = useUpdateReviewSettings(teamId);
+  // The box shows the choice in the same render as the click (the mutation's pending state arrives
+  // a tick later, and a controlled box would flip back meanwhile); the server's answer confirms it.
+  const [chosen, setChosen] = useState<boolean | null>(null);
   if (!q.data) return null;
-  // The box shows the choice at once; the server's answer confirms it (or the toast says it failed).
-  const auto = update.isPending ? update.variables.autoPublish : q.data.autoPublish;
-  const set = (autoPublish: boolean) =>
-    update.mutate(
-      { autoPublish },
-      {
-        onSuccess: () => toast.success(autoPublish ? "Shots with results now reach their players by themselves." : "New results now wait for a coach to publish them.", "Review setting saved"),
-        onError: (e) => toast.error(errorMessage(e), "Not saved"),
-      },
-    );
+  const auto = chosen ?? q.data.autoPublish;
+  const set = (autoPublish: boolean) => {
+    setChosen(autoPublish);
+    update.mutateAsync({ autoPublish }).then(
+      () => toast.success(autoPublish ? "Shots with results now reach their players by themselves." : "New results now wait for a coach to publish them.", "Review setting saved"),
+      (e) => toast.error(errorMessage(e), "Not saved"),
+    ).finally(() => setChosen(null));
+  };
   return (
     <div className="mb-4 flex flex-wrap items-center gap-x-4 gap-y-2 rounded-lg border border-line bg-surface px-4 py-2.5 text-sm" data-testid="review-setting">
       <span className="flex-[1_1_16rem] text-ink-muted">

@@ -178,11 +178,15 @@ function SharedLine({ r, teamId }: { r: ShotReadout; teamId: string }) {
 /** One person the shot is shared with, and the way to take it back. */
 function SharedWith({ teamId, shotId, userId, name, stillSees }: { teamId: string; shotId: string; userId: string; name: string; stillSees: boolean }) {
   const unshare = useUnshareShot(teamId, shotId);
+  // mutateAsync, not mutate's own onSuccess: the chip leaves the list (and this component unmounts)
+  // as soon as the refetch lands, and a per-call callback of an unmounted caller never runs.
+  // A failure is reported once by the query client (meta.errorTitle).
   const stop = () =>
-    unshare.mutate(userId, {
+    unshare.mutateAsync(userId).then(
       // Taking a share back does not hide the shot from its own player or from staff: say so.
-      onSuccess: () => toast.success(`${name} is off the shared list.${stillSees ? " They can still open it: players see their own shots, staff every shot." : ""}`, "Sharing stopped"),
-    });
+      () => toast.success(`${name} is off the shared list.${stillSees ? " They can still open it: players see their own shots, staff every shot." : ""}`, "Sharing stopped"),
+      () => undefined,
+    );
   return (
     <span className="inline-flex items-center gap-1 rounded-full border border-line bg-surface px-2 py-0.5 text-ink">
       {name}
