@@ -15,7 +15,11 @@ for (const suite of ["typecheck", "lint"]) {
 const v = read("vitest.json");
 if (v) {
   const j = JSON.parse(v);
-  rows.push({ suite: "vitest", passed: j.numPassedTests, failed: j.numFailedTests + (j.numRuntimeErrorTestSuites ?? 0), skipped: j.numPendingTests + j.numTodoTests });
+  // A file whose set-up failed fails no test of its own: count it as one failure, so the line
+  // never reads "0 failed" while vitest failed.
+  const failedFiles = (j.testResults as { status: string; assertionResults: { status: string }[] }[])
+    .filter((f) => f.status === "failed" && !f.assertionResults.some((a) => a.status === "failed")).length;
+  rows.push({ suite: "vitest", passed: j.numPassedTests, failed: j.numFailedTests + failedFiles, skipped: j.numPendingTests + j.numTodoTests });
 } else rows.push({ suite: "vitest", passed: 0, failed: 1, skipped: 0 });
 const p = read("playwright.json");
 if (p) {
