@@ -170,6 +170,12 @@ export const shot = pgTable(
     shotDate: date("shot_date", { mode: "string" }).notNull().default(sql`current_date`),
     /** When the shot's clip was uploaded, kept with the date: the list order's next key. */
     clipCreatedAt: timestamp("clip_created_at", { withTimezone: true }).notNull().defaultNow(),
+    /**
+     * The clip's shot type, stored beside the date so the Shots list's type filter reads one
+     * index instead of joining every shot to its clip. PostgreSQL keeps it (the triggers of migration shot_type_on_shot,
+     * docs/decisions/176-stored-shot-type.md); the application never writes it.
+     */
+    shotType: text("shot_type", { enum: ["slap", "wrist", "snap", "backhand"] }).notNull().default("slap"),
   },
   (t) => [
     // "Newest first" (entities/shot/date.ts) exactly, for the team and for one player; player_id
@@ -177,6 +183,8 @@ export const shot = pgTable(
     // (DESC NULLS FIRST is what ORDER BY … DESC means; the index must say the same to be used.)
     index("shot_team_newest_idx").on(t.teamId, t.shotDate.desc().nullsFirst(), t.clipCreatedAt.desc().nullsFirst(), t.createdAt.desc().nullsFirst(), t.id, t.playerId),
     index("shot_team_player_idx").on(t.teamId, t.playerId, t.shotDate.desc().nullsFirst(), t.clipCreatedAt.desc().nullsFirst(), t.createdAt.desc().nullsFirst(), t.id),
+    // The list filtered by shot type, in the same order (its count reads the index alone).
+    index("shot_team_type_idx").on(t.teamId, t.shotType, t.shotDate.desc().nullsFirst(), t.clipCreatedAt.desc().nullsFirst(), t.createdAt.desc().nullsFirst(), t.id, t.playerId),
     index("shot_team_stick_idx").on(t.teamId, t.stickId),
     index("shot_clip_idx").on(t.clipId),
   ],

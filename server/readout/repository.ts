@@ -121,7 +121,7 @@ function listWhere(a: Actor, f: ShotListQuery) {
   const where: SQL[] = [shotVisibleWhere(a)];
   if (f.playerId) where.push(eq(shot.playerId, f.playerId));
   if (f.stickId) where.push(eq(shot.stickId, f.stickId));
-  if (f.shotType) where.push(eq(clip.shotType, f.shotType));
+  if (f.shotType) where.push(eq(shot.shotType, f.shotType));
   if (f.review === "published") where.push(isNotNull(shot.publishedAt));
   if (f.review === "waiting") where.push(isNull(shot.publishedAt), sql`exists (select 1 from ${shotResult} where ${shotResult.shotId} = ${shot.id} and ${shotResult.results} is not null)`);
   return and(...where);
@@ -132,12 +132,11 @@ const newestFirst = newestShotFirst;
 /**
  * The ids of one page of the list, in order: read from the (team, date …) or (team, player,
  * date …) index, which holds the list's order (the stored shot date, decision 173), so a page
- * costs the rows it shows, not a sort of every shot of the team. Only the shot-type filter needs
- * the clip.
+ * costs the rows it shows, not a sort of every shot of the team; the shot type is stored on the
+ * shot too (decision 176), with its own index in the same order.
  */
 export function pageIdsQuery(a: Actor, f: ShotListQuery, page: { limit: number; offset: number }) {
-  const q = db().select({ id: shot.id }).from(shot);
-  return (f.shotType ? q.innerJoin(clip, eq(clip.id, shot.clipId)) : q).where(listWhere(a, f)).orderBy(...newestFirst).limit(page.limit).offset(page.offset);
+  return db().select({ id: shot.id }).from(shot).where(listWhere(a, f)).orderBy(...newestFirst).limit(page.limit).offset(page.offset);
 }
 
 /**
@@ -152,9 +151,7 @@ export async function listShots(a: Actor, f: ShotListQuery, page?: { limit: numb
 
 /** How many shots the same filters find, for the pager. */
 export async function countShots(a: Actor, f: ShotListQuery) {
-  const q = db().select({ n: sql<number>`count(*)::int` }).from(shot);
-  // Only the shot-type filter needs the clip.
-  const [{ n }] = await (f.shotType ? q.innerJoin(clip, eq(clip.id, shot.clipId)) : q).where(listWhere(a, f));
+  const [{ n }] = await db().select({ n: sql<number>`count(*)::int` }).from(shot).where(listWhere(a, f));
   return n;
 }
 

@@ -119,3 +119,53 @@ describe("the stored shot date", () => {
     }
   });
 });
+
+// The clip's shot type is stored on the shot as well (decision 176), so the Shots list filtered by
+// type reads one index; PostgreSQL keeps it equal to the clip's on every write that can change it.
+describe("the stored shot type", () => {
+  const typeOf = async (shotId: string) =>
+    (await db().select({ stored: shot.shotType, clips: clip.shotType }).from(shot).innerJoin(clip, eq(clip.id, shot.clipId)).where(eq(shot.id, shotId)))[0];
+
+  it("is the clip's when the shot is made, follows the clip's type corrected through the API and a shot moved to another clip; nothing else can set it", async () => {
+    const x = await shotWith({ clipUploaded: "2026-03-01T18:30:00Z", shotCreated: "2026-03-04T09:00:00Z" });
+    const [{ clipId }] = await db().select({ clipId: shot.clipId }).from(shot).where(eq(shot.id, x.shotId));
+    await db().update(clip).set({ shotType: "wrist" }).where(eq(clip.id, clipId));
+    expect(await typeOf(x.shotId)).toEqual({ stored: "wrist", clips: "wrist" });
+
+    // As the Clip page corrects it.
+    const patched = await coach.patch(`${T()}/clips/${clipId}`, { shotType: "backhand" });
+    expect(patched.status, patched.text).toBe(200);
+    expect(await typeOf(x.shotId)).toEqual({ stored: "backhand", clips: "backhand" });
+    const listed = await coach.get(`${T()}/readout/shots?stickId=${x.stickId}&shotType=backhand&page=1&pageSize=50`);
+    expect(listed.json.shots.map((s: any) => s.id)).toEqual([x.shotId]);
+    expect(listed.json.total).toBe(1);
+    expect((await coach.get(`${T()}/readout/shots?stickId=${x.stickId}&shotType=wrist&page=1&pageSize=50`)).json.total).toBe(0);
+
+    // Moved to a snap-shot clip.
+    const [other] = await db().insert(clip).values({ teamId: world.teamId, captureFps: 240, status: "ready", shotType: "snap" }).returning();
+    await db().update(shot).set({ clipId: other.id }).where(eq(shot.id, x.shotId));
+    expect(await typeOf(x.shotId)).toEqual({ stored: "snap", clips: "snap" });
+
+    await db().update(shot).set({ shotType: "slap" }).where(eq(shot.id, x.shotId));
+    expect(await typeOf(x.shotId)).toEqual({ stored: "snap", clips: "snap" });
+  });
+
+  it("the list filtered by type is read from its own index in order, and its count needs no clip", async () => {
+    const coachActor = { userId: world.users[EMAILS.coach], teamId: world.teamId, role: "coach" as const };
+    const q = pageIdsQuery(coachActor, { shotType: "wrist" }, { limit: 50, offset: 0 }).toSQL();
+    const c = await db().pool.connect();
+    let plan = "";
+    try {
+      await c.query("begin");
+      await c.query("set local enable_sort = off");
+      await c.query("set local enable_seqscan = off");
+      plan = JSON.stringify((await c.query(`explain (format json) ${q.sql}`, q.params as unknown[])).rows[0]["QUERY PLAN"]);
+    } finally {
+      await c.query("rollback");
+      c.release();
+    }
+    expect(plan).not.toMatch(/"Node Type":"(Sort|Incremental Sort)"/);
+    expect(plan).toMatch(/shot_team_type_idx/);
+    expect(plan).not.toMatch(/"Relation Name":"clip"/);
+  });
+});
