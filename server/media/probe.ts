@@ -38,6 +38,8 @@ export interface ProbeResult {
   expectedFrames: number;
   /** The frame clock of the packets' times: even, snapped or uneven, with gaps and repeats. */
   timing: ClipTiming;
+  /** Each packet's time on that clock, seconds from the first, in presentation order (one per frame, before fields are split). */
+  packetTimes: number[];
   /** A capture rate the phone wrote into the file (Android's capture-fps tag and the like), else null. */
   taggedCaptureFps: number | null;
   durationS: number | null;
@@ -308,7 +310,7 @@ export async function probe(config: MediaConfig, file: string, o: ProbeOptions =
   }
 
   const timeBase = video.time_base ?? "1/1000";
-  const { timing } = analyseTiming(packets, parseTimeBase(timeBase), [parseRate(video.r_frame_rate), parseRate(video.avg_frame_rate)]);
+  const { timing, times } = analyseTiming(packets, parseTimeBase(timeBase), [parseRate(video.r_frame_rate), parseRate(video.avg_frame_rate)]);
   // Interlaced video is one picture per field: twice the frames, twice the rate.
   const interlaced = ["tt", "bb", "tb", "bt"].includes(video.field_order ?? "");
   const perFrame = interlaced ? 2 : 1;
@@ -343,6 +345,7 @@ export async function probe(config: MediaConfig, file: string, o: ProbeOptions =
     frameCount,
     expectedFrames,
     timing,
+    packetTimes: times,
     taggedCaptureFps: taggedCaptureRate(raw),
     durationS,
     rotationDeg,

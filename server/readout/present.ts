@@ -63,6 +63,7 @@ export function listItem(r: ListRow, opts: { viewerId: string; sharedWithViewer:
 
 export function readout(r: ReadoutRow & { resultsText?: string | null }, o: { shares: ShareRow[]; stick: ShotStickInfo | null; canEdit: boolean; canShare: boolean; canPublish: boolean }): ShotReadout {
   const hasResults = !!r.results || !!r.resultsText;
+  const frameTimes = shotClockOf(r);
   return {
     shot: {
       id: r.id, label: r.label, clipId: r.clipId, playerId: r.playerId, playerName: r.playerName, stickId: r.stickId, stickLabel: r.stickLabel,
@@ -73,7 +74,8 @@ export function readout(r: ReadoutRow & { resultsText?: string | null }, o: { sh
       id: r.clipId, title: r.clipTitle, status: r.clipStatus, captureFps: r.captureFps, frameCount: r.frameCount ?? 0, width: r.width ?? 0, height: r.height ?? 0,
       frameFormat: r.frameFormat, calibration: r.calibration?.type ?? null,
     },
-    events: eventsOf({ ...r, frameTimes: shotClockOf(r) }),
+    events: eventsOf({ ...r, frameTimes }),
+    frameTimes,
     results: r.results,
     missing: missingOf(r, hasResults),
     stale: hasResults && r.resultShotVersion !== null && r.resultShotVersion !== r.version,

@@ -3,7 +3,7 @@ import { policy, type Actor } from "../auth/policy";
 import { recordAudit, type AuditEntry } from "../audit/repository";
 import { forbidden, HttpError, notFound } from "../http/problem";
 import { checkCalibration } from "../../shared/mechanics/calibration";
-import { shotFrameTimes } from "../../shared/schemas/clips";
+import { captureTimeOf, shotFrameTimes } from "../../shared/schemas/clips";
 import {
   calibrationFrameProblem, canonicalMarks as canonical, LANDMARKS, marksProblem,
   type ClipCalibration, type ClipShots, type CreateShotBody, type DigitiseClip, type FrameBox, type SaveMarksBody, type SaveMarksResponse, type ShotDetail, type ShotSummary, type UpdateShotBody,
@@ -76,6 +76,7 @@ async function detail(a: Actor, s: repo.ShotRow): Promise<ShotDetail> {
       : null,
     canEdit: policy.editShot(a, s),
     frameTimes: clock ? shotFrameTimes(clock.frameTimes, clock.storedFps, clock.captureFps, s.frameStart, s.frameEnd ?? c.frameCount ?? s.frameStart) : null,
+    startS: captureTimeOf(clock?.frameTimes, clock?.storedFps ?? null, c.captureFps, s.frameStart),
   };
 }
 

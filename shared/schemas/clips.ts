@@ -96,6 +96,13 @@ export function shotFrameTimes(
   return even ? null : { firstFrame: from, seconds };
 }
 
+/** Capture seconds from the clip's first frame to `frame` (counted from 1): its stored time, else frame ÷ rate. */
+export function captureTimeOf(frameTimes: readonly number[] | null | undefined, storedFps: number | null, captureFps: number, frame: number): number {
+  const t = frameTimes?.[frame - 1];
+  if (t === undefined || frameTimes!.length === 0) return (frame - 1) / captureFps;
+  return captureTimes([frameTimes![0], t], storedFps, captureFps)[1];
+}
+
 const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date like 2026-03-14");
 const text = (max: number, field: string, multiline = false) => humanText({ field, max, multiline });
 

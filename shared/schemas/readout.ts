@@ -6,6 +6,7 @@ import { opaqueId } from "./text";
 import type { ShotResults } from "./shot-results";
 import type { DigitiseClip, ShotEventKey, ShotStickInfo } from "./shots";
 import { display, type UnitSystem } from "../units";
+import { frameClock, type FrameTimes } from "../frame-clock";
 
 export const SHOT_TYPES = ["slap", "wrist", "snap", "backhand"] as const;
 export type ShotType = (typeof SHOT_TYPES)[number];
@@ -161,6 +162,8 @@ export interface ShotReadout {
   /** The clip as Digitise knows it; only the calibration's kind, not its points. */
   clip: Omit<DigitiseClip, "playerId" | "calibration"> & { calibration: "scaleBar" | "plane" | null };
   events: ReadoutEvent[];
+  /** The clip's frame clock over the shot's frames in capture seconds; null when it is even (frame ÷ rate). */
+  frameTimes: FrameTimes | null;
   results: ShotResults | null;
   /** When there are no results: what is still needed, said as the next step. */
   missing: string | null;
@@ -383,15 +386,11 @@ export const frameTimeMs = (frame: number, fromFrame: number, captureFps: number
 
 /**
  * Milliseconds between two frames on the clip's own frame clock (shotFrameTimes: capture times of
- * the shot's frames) where it has both, else frame ÷ capture rate. Across a dropped stretch the
- * index would put a frame too early by the missing time.
+ * the shot's frames; shared/frame-clock.ts), else frame ÷ capture rate. Across a dropped stretch
+ * the index would put a frame too early by the missing time.
  */
-export function frameClockMs(times: { firstFrame: number; seconds: readonly number[] } | null | undefined, captureFps: number) {
-  return (frame: number, fromFrame: number): number => {
-    const a = times?.seconds[fromFrame - times.firstFrame];
-    const b = times?.seconds[frame - times.firstFrame];
-    return a !== undefined && b !== undefined ? (b - a) * 1000 : frameTimeMs(frame, fromFrame, captureFps);
-  };
+export function frameClockMs(times: FrameTimes | null | undefined, captureFps: number) {
+  return frameClock(times, captureFps).ms;
 }
 
 /** Links into the app, the same in e-mails, PDFs and pages. */

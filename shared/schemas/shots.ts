@@ -305,6 +305,8 @@ export interface ShotDetail extends ShotSummary {
   canEdit: boolean;
   /** The clip's frame clock over frameStart..frameEnd in capture seconds; null when it is even (frame ÷ rate). */
   frameTimes: { firstFrame: number; seconds: number[] } | null;
+  /** Capture seconds from the clip's first frame to frameStart, on the clip's own clock. */
+  startS: number;
 }
 
 export interface SaveMarksResponse {

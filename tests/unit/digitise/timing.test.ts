@@ -1,13 +1,15 @@
 // Times come from the capture rate; playback at a fraction of real time carries its remainder.
 import { describe, expect, it } from "vitest";
+import { frameClock } from "@shared/frame-clock";
 import { formatMs, msSince, msSinceFirst, playbackAdvance } from "@/features/digitise/model/timing";
 import { lowerBound, markAt, neighbourFrame, trailBefore, withMark, withoutMark } from "@/features/digitise/model/tracks";
 
 describe("timing", () => {
   it("frame 1 is 0 ms; at 3,200 fps a frame is 0.3125 ms", () => {
-    expect(msSinceFirst(1, 3200)).toBe(0);
-    expect(msSinceFirst(33, 3200)).toBe(10);
-    expect(msSince(180, 184, 3200)).toBe(-1.25);
+    const clock = frameClock(null, 3200);
+    expect(msSinceFirst(1, { clock, startMs: 0, frameStart: 1 })).toBe(0);
+    expect(msSinceFirst(33, { clock, startMs: 0, frameStart: 1 })).toBe(10);
+    expect(msSince(180, 184, clock)).toBe(-1.25);
     expect(formatMs(-1.25, 3200)).toBe("−1.250 ms");
     expect(formatMs(12.5, 240)).toBe("+12.50 ms");
   });

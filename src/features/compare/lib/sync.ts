@@ -1,10 +1,15 @@
 // Stepping two clips together, synced at puck strike and matched in time, not in frame count: one
 // step is one frame of the faster clip; the slower clip shows its nearest frame at that moment
-// (docs/decisions/091-*). Pure, so it is unit-tested without a browser.
+// (docs/decisions/091-*). Times come from each clip's own frame clock (decision 135), so a clip
+// with dropped frames shows the frame taken at that moment, not the one at its index. Pure, so it
+// is unit-tested without a browser.
+import { frameClock, type FrameTimes } from "@shared/frame-clock";
 
 export interface ClipClock {
   /** The camera's capture rate, frames per second. */
   fps: number;
+  /** The clip's own frame times over the shot (ShotReadout.frameTimes); absent or null: frame ÷ rate. */
+  times?: FrameTimes | null;
   /** Frame of puck strike: time zero. */
   strike: number;
   /** First and last frame of the shot. */
@@ -29,7 +34,8 @@ export interface FrameAtStep {
   outside: "before" | "after" | null;
 }
 
-const msOf = (c: ClipClock, frame: number) => ((frame - c.strike) / c.fps) * 1000;
+const clockOf = (c: ClipClock) => frameClock(c.times, c.fps);
+const msOf = (c: ClipClock, frame: number) => clockOf(c).ms(frame, c.strike);
 
 export function syncPlan(a: ClipClock, b: ClipClock): SyncPlan {
   const fastFps = Math.max(a.fps, b.fps);
@@ -45,10 +51,11 @@ export const stepTimeMs = (p: SyncPlan, k: number) => (k * 1000) / p.fastFps;
 
 /** The frame a clip shows at step k: the nearest one in time, held at the shot's first or last frame beyond it. */
 export function frameAtStep(c: ClipClock, p: SyncPlan, k: number): FrameAtStep {
-  // Whole-number arithmetic first (k·fps / fastFps), so equal rates give exactly one frame per step.
-  const raw = c.strike + Math.round((k * c.fps) / p.fastFps);
+  const clock = clockOf(c);
+  const at = clock.t(c.strike) + k / p.fastFps;
+  const raw = clock.frameAt(at, -Infinity, Infinity);
   const frame = Math.min(c.last, Math.max(c.first, raw));
-  return { frame, tMs: msOf(c, frame), outside: raw < c.first ? "before" : raw > c.last ? "after" : null };
+  return { frame, tMs: clock.ms(frame, c.strike), outside: raw < c.first ? "before" : raw > c.last ? "after" : null };
 }
 
 /** The step nearest a time (ms from puck strike), inside the plan. */

@@ -77,7 +77,7 @@ export function Component() {
 function clockOf(r: ShotReadout): ClipClock | null {
   const strike = r.events.find((e) => e.key === "puckStrike")?.frame;
   if (strike === undefined) return null;
-  return { fps: r.clip.captureFps, strike, first: r.shot.frameStart, last: r.shot.frameEnd };
+  return { fps: r.clip.captureFps, times: r.frameTimes, strike, first: r.shot.frameStart, last: r.shot.frameEnd };
 }
 
 function Comparison({ teamId, shots }: { teamId: string; shots: Record<Side, ShotReadout> }) {

@@ -7,9 +7,9 @@ import { useDigitise } from "./useDigitise";
 
 /** The four events: set to this frame by key or button, jump to, clear; with the timing between them. */
 export function EventsPanel({ store }: { store: DigitiseStore }) {
-  const s = useDigitise(store, (st) => ({ frame: st.frame, events: st.doc.events, readOnly: st.readOnly, fps: st.captureFps }));
+  const s = useDigitise(store, (st) => ({ frame: st.frame, events: st.doc.events, readOnly: st.readOnly, fps: st.captureFps, clock: st.clock }));
   const e = s.events;
-  const span = (a?: number, b?: number) => (a !== undefined && b !== undefined ? formatMs(msSince(b, a, s.fps), s.fps).replace(/^\+/, "") : "—");
+  const span = (a?: number, b?: number) => (a !== undefined && b !== undefined ? formatMs(msSince(b, a, s.clock), s.fps).replace(/^\+/, "") : "—");
   return (
     <Panel title="Events">
       <ul className="flex flex-col gap-1">

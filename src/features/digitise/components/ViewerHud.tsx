@@ -11,7 +11,7 @@ const toolText = { mark: "Marking", scaleBar: "Scale bar", plane: "Plane layout"
 /** Read-outs and view buttons laid over the canvas (HTML, so text stays crisp at any zoom). */
 export function ViewerHud({ store, loading }: { store: DigitiseStore; loading: boolean }) {
   const s = useDigitise(store, (st) => ({
-    frame: st.frame, fps: st.captureFps, strike: st.doc.events.puckStrike, zoom: st.view.zoom, tool: st.tool, active: st.activeLandmark,
+    frame: st.frame, fps: st.captureFps, clock: st.clock, startMs: st.startMs, strike: st.doc.events.puckStrike, zoom: st.view.zoom, tool: st.tool, active: st.activeLandmark,
     readOnly: st.readOnly, autoAdvance: st.autoAdvance, notice: st.notice, frameStart: st.frameStart, frameEnd: st.frameEnd,
   }));
   return (
@@ -25,9 +25,9 @@ export function ViewerHud({ store, loading }: { store: DigitiseStore; loading: b
             of {s.frameStart}–{s.frameEnd}
           </span>
           <div className="mt-0.5 tabular-nums">
-            <span title="Time since the clip's first frame, from the capture rate">{formatMs(msSinceFirst(s.frame, s.fps), s.fps)}</span>
+            <span title="Time since the clip's first frame, on the clip's own frame clock" data-testid="hud-time">{formatMs(msSinceFirst(s.frame, s), s.fps)}</span>
             <span className="ml-3 text-[#f3c969] max-sm:ml-0 max-sm:block" title="Time since puck strike">
-              {s.strike === undefined ? "puck strike not set" : `${formatMs(msSince(s.frame, s.strike, s.fps), s.fps)} from strike`}
+              {s.strike === undefined ? "puck strike not set" : `${formatMs(msSince(s.frame, s.strike, s.clock), s.fps)} from strike`}
             </span>
           </div>
         </div>

@@ -1,6 +1,7 @@
 import { useEffect, useMemo, useState } from "react";
 import { Link, useSearchParams } from "react-router-dom";
 import { eventLabels, landmarkLabels, type Landmark, type ShotDetail, type ShotEventKey } from "@shared/schemas/shots";
+import { frameClock } from "@shared/frame-clock";
 import { Button } from "@/components/ui";
 import { formatDateTime } from "@/lib/format";
 import { frameUrl } from "@/components/shot/frames";
@@ -46,6 +47,8 @@ export function Workspace({ teamId, shot }: { teamId: string; shot: ShotDetail }
         frameStart: shot.frameStart,
         frameEnd: shot.frameEnd,
         captureFps: shot.clip.captureFps,
+        clock: frameClock(shot.frameTimes, shot.clip.captureFps),
+        startMs: shot.startS * 1000,
         doc: start.doc,
         frame: Number(search.get("frame")) || undefined,
       }),

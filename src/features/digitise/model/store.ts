@@ -1,3 +1,4 @@
+import { frameClock, type FrameClock } from "@shared/frame-clock";
 import { eventLabels, eventOrderProblem, LANDMARKS, landmarkLabels, outsideFrameMessage, type Landmark, type Mark, type ShotEventKey, type ShotEventsDraft } from "@shared/schemas/shots";
 import { newScaleBar, type CalDraft } from "./calibration-draft";
 import { handlePosition, hitTest, type ToolName } from "./tools/hit";
@@ -29,12 +30,18 @@ export interface DigitiseSetup {
   frameStart: number;
   frameEnd: number;
   captureFps: number;
+  /** The clip's frame clock over the shot (decision 135); frame ÷ capture rate when absent. */
+  clock?: FrameClock;
+  /** Capture ms from the clip's first frame to frameStart. */
+  startMs?: number;
   doc: DigitiseDoc;
   /** Where to open (defaults to the shot's first frame). */
   frame?: number;
 }
 
-export interface DigitiseState extends Omit<DigitiseSetup, "frame"> {
+export interface DigitiseState extends Omit<DigitiseSetup, "frame" | "clock" | "startMs"> {
+  clock: FrameClock;
+  startMs: number;
   canUndo: boolean;
   canRedo: boolean;
   frame: number;
@@ -77,6 +84,8 @@ export class DigitiseStore {
     const { frame, ...rest } = setup;
     this.state = {
       ...rest,
+      clock: setup.clock ?? frameClock(null, setup.captureFps),
+      startMs: setup.startMs ?? ((setup.frameStart - 1) * 1000) / setup.captureFps,
       canUndo: false,
       canRedo: false,
       frame: this.clampFrame(frame ?? setup.frameStart, setup),

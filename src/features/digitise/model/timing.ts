@@ -1,11 +1,14 @@
 import { clockTimeBase, type TimingIrregularity } from "@shared/mechanics/time-base";
+import type { FrameClock } from "@shared/frame-clock";
 import type { ShotDetail } from "@shared/schemas/shots";
 
-// Times from the capture rate, never the stored (playback) rate: frame n is (n − 1) / fps after
-// the clip's first frame.
+// Times on the clip's own frame clock in capture time (shared/frame-clock.ts, decision 135), never
+// the stored (playback) rate nor frame index ÷ rate: across a dropped stretch the index is early.
 
-export const msSinceFirst = (frame: number, captureFps: number) => ((frame - 1) * 1000) / captureFps;
-export const msSince = (frame: number, from: number, captureFps: number) => ((frame - from) * 1000) / captureFps;
+/** Ms from the clip's first frame: the shot's start on the clip's clock plus the time from there. */
+export const msSinceFirst = (frame: number, s: { clock: FrameClock; startMs: number; frameStart: number }) => s.startMs + s.clock.ms(frame, s.frameStart);
+/** Ms from frame `from` to `frame`. */
+export const msSince = (frame: number, from: number, clock: FrameClock) => clock.ms(frame, from);
 
 /** "+12.500 ms" with a sign, digits enough to tell neighbouring frames apart. */
 export function formatMs(ms: number, captureFps: number): string {

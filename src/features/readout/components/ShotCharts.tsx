@@ -5,6 +5,7 @@ import { ChartLegend, TimeChart, type TimeEvent, type TimeLine } from "@/compone
 import { shotColors } from "@/components/shot/colors";
 import { digitiseUrl } from "@/components/shot/frames";
 import { chartPoints } from "@/components/shot/series";
+import { frameClock } from "@shared/frame-clock";
 import { convert, unitOf, type ShotReadout } from "@shared/schemas/readout";
 import { eventLabels } from "@shared/schemas/shots";
 import type { ShotResults } from "@shared/schemas/shot-results";
@@ -12,6 +13,13 @@ import type { UnitSystem } from "@shared/units";
 
 export function eventMarks(r: ShotReadout): TimeEvent[] {
   return r.events.filter((e) => e.tFromStrikeMs !== null).map((e) => ({ key: e.key, label: eventLabels[e.key], t: e.tFromStrikeMs! }));
+}
+
+/** The frame at a chart time (ms from puck strike, else from the shot's first frame), on the clip's own frame clock. */
+export function frameAtChartTime(r: Pick<ShotReadout, "events" | "shot" | "clip" | "frameTimes">, tMs: number): number {
+  const clock = frameClock(r.frameTimes, r.clip.captureFps);
+  const strike = r.events.find((e) => e.key === "puckStrike")?.frame ?? r.shot.frameStart;
+  return clock.frameAt(clock.t(strike) + tMs / 1000, r.shot.frameStart, r.shot.frameEnd);
 }
 
 /** Puck and blade speed, and bend angle, against time; a click opens that frame on the Digitise page. */
@@ -24,9 +32,7 @@ export function ShotCharts({ readout: r, results, units }: { readout: ShotReadou
   ];
   const bendLines: TimeLine[] = [{ key: "bend", label: "Bend angle", color: shotColors.bend, points: chartPoints(results.series.bendAngle, (v) => v) }];
   const events = eventMarks(r);
-  const strike = r.events.find((e) => e.key === "puckStrike")?.frame ?? r.shot.frameStart;
-  const frameOf = (t: number) => Math.min(r.shot.frameEnd, Math.max(r.shot.frameStart, strike + Math.round((t * r.clip.captureFps) / 1000)));
-  const pickedFrame = picked === null ? null : frameOf(picked);
+  const pickedFrame = picked === null ? null : frameAtChartTime(r, picked);
   const speedUnit = unitOf("speed", units);
   const pickLine = (
     <p className="mt-2 min-h-6 text-sm text-ink-muted" aria-live="polite">
