@@ -6,7 +6,8 @@ import { clipChanged, clipPath } from "@/entities/clip";
 
 /**
  * GET /api/teams/:teamId/clips/:clipId/progress as Server-Sent Events while `live`: each event
- * updates the bar; the end (ready, failed) refreshes the clip and the list.
+ * updates the bar; the end (ready, failed) refreshes the clip and the list. Merge it with the stored
+ * clip through `extractionView` (the stored clip may learn the end first).
  */
 export function useClipProgress(teamId: string, clipId: string, live: boolean): ClipProgress | null {
   const qc = useQueryClient();
@@ -29,7 +30,11 @@ export function useClipProgress(teamId: string, clipId: string, live: boolean): 
       source.close();
       refresh();
     });
-    return () => source.close();
+    return () => {
+      source.close();
+      // A later run (a retry) starts from the stored clip, not from this run's last event.
+      setProgress(null);
+    };
   }, [teamId, clipId, live, qc]);
   return progress;
 }

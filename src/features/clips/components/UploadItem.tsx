@@ -12,6 +12,7 @@ import { errorsFrom, fromMeta, validateMeta, type MetaErrors, type MetaFormValue
 import { CaptureRateConfirm } from "./CaptureRateConfirm";
 import { ClipMetaFields } from "./ClipMetaFields";
 import { ProgressBar } from "./ProgressBar";
+import { extractionShare, extractionView } from "../model/extraction";
 import { clipChanged } from "@/entities/clip";
 
 type Phase =
@@ -200,10 +201,8 @@ function UploadError({ problem, sentLabel, share, sequence }: { problem: UploadP
 
 function UploadDone({ teamId, clip: uploaded }: { teamId: string; clip: ClipSummary }) {
   const clip = useClip(teamId, uploaded.id).data ?? uploaded;
-  const live = useClipProgress(teamId, clip.id, clip.status === "extracting");
-  const framesDone = live?.framesDone ?? clip.framesDone;
-  const total = live?.frameCount ?? clip.frameCount;
-  const status = live?.status ?? clip.status;
+  const view = extractionView(clip, useClipProgress(teamId, clip.id, clip.status === "extracting"));
+  const { status, framesDone, frameCount: total } = view;
   return (
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap items-center gap-x-4 gap-y-1 text-sm">
@@ -215,9 +214,9 @@ function UploadDone({ teamId, clip: uploaded }: { teamId: string; clip: ClipSumm
         <Link className="font-medium text-accent hover:underline" to={`/clips/${clip.id}`}>Open clip</Link>
       </div>
       {status === "failed" ? (
-        <Alert tone="danger" title="Frame extraction failed">{live?.failureReason ?? "Open the clip to see why and retry."}</Alert>
+        <Alert tone="danger" title="Frame extraction failed">{view.failureReason ?? "Open the clip to see why and retry."}</Alert>
       ) : (
-        <ProgressBar value={status === "ready" ? 1 : total ? framesDone / total : 0} tone="accent"
+        <ProgressBar value={extractionShare(view)} tone="accent"
           label={status === "ready" ? "All frames ready" : `Extracting frames: ${formatCount(framesDone)} of ${formatCount(total)}`} />
       )}
       {clip.needsCaptureRateConfirmation && <CaptureRateConfirm teamId={teamId} clip={clip} />}

@@ -14,6 +14,7 @@ import { EditClipDialog } from "../components/EditClipDialog";
 import { FrameStrip, FrameViewer } from "../components/FrameViewer";
 import { FrameStepper } from "@/components/shot/stepping/frame-stepper";
 import { ProgressBar } from "../components/ProgressBar";
+import { extractionView } from "../model/extraction";
 import { formatCount, sessionLabel } from "../format";
 import { cameraViewLabels, shotTypeLabels } from "@shared/schemas/clips";
 
@@ -38,8 +39,9 @@ function ClipView({ teamId, clipId, staff }: { teamId: string; clipId: string; s
   const [editing, setEditing] = useState(false);
   const [confirmDelete, setConfirmDelete] = useState(false);
 
-  const liveStatus = live?.status ?? clip.data?.status;
-  const frames = liveStatus === "ready" ? clip.data?.frameCount ?? 0 : live?.framesDone ?? clip.data?.framesDone ?? 0;
+  const shown = clip.data ? extractionView(clip.data, live) : null;
+  const liveStatus = shown?.status;
+  const frames = liveStatus === "ready" ? clip.data?.frameCount ?? 0 : shown?.framesDone ?? 0;
   useEffect(() => {
     stepper.setRange(1, Math.max(1, frames));
     if (pendingOpen.current > 1 && (frames >= pendingOpen.current || liveStatus === "ready")) {
@@ -68,8 +70,7 @@ function ClipView({ teamId, clipId, staff }: { teamId: string; clipId: string; s
     );
 
   const c = clip.data;
-  const status = live?.status ?? c.status;
-  const framesDone = live?.framesDone ?? c.framesDone;
+  const { status, framesDone } = extractionView(c, live);
   const available = status === "ready" ? c.frameCount ?? 0 : framesDone;
   const openFrame1 = () => {
     stepper.goto(1);
@@ -100,7 +101,7 @@ function ClipView({ teamId, clipId, staff }: { teamId: string; clipId: string; s
         )}
         {status === "failed" && (
           <Alert tone="danger" title="Frame extraction failed">
-            <p>{live?.failureReason ?? c.failureReason}</p>
+            <p>{extractionView(c, live).failureReason}</p>
             {staff && (
               <Button size="sm" variant="secondary" className="mt-2" loading={retry.isPending}
                 onClick={() => retry.mutate(c.id, { onSuccess: () => { toast.success("Extraction queued again.", "Retrying"); void clip.refetch(); } })}>
