@@ -73,7 +73,7 @@ try {
   const { ingestUpload } = await import("../../server/clips/ingest");
   const { extractClip } = await import("../../server/jobs/clip-extract");
   const { log } = await import("../../server/log");
-  const repo = await import("../../server/shots/repository");
+  const repo = await import("../../server/entities/shot/repository");
 
   const src = await generateBenchClip(mediaConfig(), { dir: path.join(os.tmpdir(), "loadframe-bench-clips"), frames: FRAMES, rate: 30 });
   const file = path.join(work, "clip.mp4");

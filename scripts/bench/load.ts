@@ -168,8 +168,8 @@ try {
   }
 
   // --- 2. latency at 200 requests/s ----------------------------------------------------------
-  const clipRepo = await import("../../server/clips/repository");
-  const readoutRepo = await import("../../server/readout/repository");
+  const clipRepo = await import("../../server/entities/clip/repository");
+  const readoutRepo = await import("../../server/entities/shot/readout");
   const shotIds = (await (await import("../../server/db/client")).db().execute<{ id: string }>(
     (await import("drizzle-orm")).sql`select id from shot where team_id = ${ids.teamId} order by random() limit 2000`,
   )).rows.map((r) => r.id);

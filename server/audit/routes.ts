@@ -2,7 +2,7 @@ import { Router } from "express";
 import { actorOf } from "../auth/context";
 import { policy } from "../auth/policy";
 import { forbidden } from "../http/problem";
-import { listAudit } from "./repository";
+import { listAudit } from "../entities/audit/repository";
 
 export const auditRouter = Router({ mergeParams: true });
 auditRouter.get("/audit", async (req, res) => {

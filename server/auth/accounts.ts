@@ -9,7 +9,7 @@ import { viaAuth } from "../http/better-auth-errors";
 import { parse } from "../http/validate";
 import { EmailSchema, PasswordSchema, PersonNameSchema } from "../../shared/schemas/roster";
 import { z } from "zod";
-import { deleteSessionsOf, markEmailVerified } from "./repository";
+import { deleteSessionsOf, markEmailVerified } from "../entities/user/account";
 import { runAsProductSignUp } from "./sign-up-gate";
 
 const NewAccountSchema = z.object({ email: EmailSchema, name: PersonNameSchema, password: PasswordSchema });

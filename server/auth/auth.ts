@@ -10,7 +10,7 @@ import { sendMail } from "../mail/mailer";
 import { inviteMail, resetPasswordMail } from "../mail/templates";
 import { unsafeTextProblem, TEXT_LIMITS } from "../../shared/schemas/text";
 import { CLIENT_ADDRESS_HEADER } from "./http-routes";
-import { claimUnverifiedAccount } from "./repository";
+import { claimUnverifiedAccount } from "../entities/user/account";
 import { isProductSignUp } from "./sign-up-gate";
 import { SESSION_MEMO_S } from "./session-memo";
 

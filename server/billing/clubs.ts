@@ -2,7 +2,7 @@
 // adding a team to a club. Used by billing, by the plan limits and by the new club's sign-up.
 import { randomBytes } from "node:crypto";
 import { FREE_PLAN, type PlanId } from "../../shared/billing/plans";
-import * as repo from "./repository";
+import * as repo from "../entities/club/repository";
 
 /** The team's club; a team made outside any club gets a club of its own on the free plan. */
 export async function clubFor(teamId: string): Promise<repo.ClubRow> {

@@ -4,7 +4,7 @@
 import { HttpError } from "../http/problem";
 import { PLANS, storageText, type Plan } from "../../shared/billing/plans";
 import { clubFor } from "./clubs";
-import * as repo from "./repository";
+import * as repo from "../entities/club/repository";
 import { withNamedLock } from "../db/named-lock";
 
 /** The storage a team's club may use and which teams share it. */

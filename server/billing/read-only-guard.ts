@@ -8,7 +8,7 @@ import { readSession, roleIn } from "../auth/context";
 import { env } from "../env";
 import { sendProblem } from "../http/problem";
 import { accessOf } from "./access";
-import { clubOfTeam } from "./repository";
+import { clubOfTeam } from "../entities/club/repository";
 
 const SAFE = new Set(["GET", "HEAD", "OPTIONS"]);
 const TEAM_PATH = /^\/api\/teams\/([^/]+)(\/.*)?$/;

@@ -6,15 +6,15 @@ import type Stripe from "stripe";
 import { policy, type Actor } from "../auth/policy";
 import { env } from "../env";
 import { forbidden, HttpError } from "../http/problem";
-import { recordAudit } from "../audit/repository";
-import { teamUsageBytes } from "../clips/repository";
+import { recordAudit } from "../entities/audit/repository";
+import { teamUsageBytes } from "../entities/clip/repository";
 import { isPaidPlan, PLANS, type PlanId } from "../../shared/billing/plans";
 import type { BillingStatus, Invoice, PlanChangePreview } from "../../shared/schemas/billing";
 import { accessOf, graceEndsAt } from "./access";
 import { clubFor, createTeamInClub } from "./clubs";
 import { assertTeamRoom } from "./limits";
 import { payments, paymentsEnabled, priceOf } from "./payments";
-import * as repo from "./repository";
+import * as repo from "../entities/club/repository";
 import { currentSubscription } from "./sync";
 
 const iso = (d: Date | null) => d?.toISOString() ?? null;

@@ -6,13 +6,13 @@
 import type Stripe from "stripe";
 import type { Logger } from "pino";
 import { env } from "../env";
-import { recordAudit, type AuditAction } from "../audit/repository";
+import { recordAudit, type AuditAction } from "../entities/audit/repository";
 import { sendMail } from "../mail/mailer";
 import { paymentFailedMail, readOnlyMail } from "../mail/templates";
 import { FREE_PLAN, type PlanId } from "../../shared/billing/plans";
 import { accessOf, graceEndsAt } from "./access";
 import { payments, planOfPrice } from "./payments";
-import * as repo from "./repository";
+import * as repo from "../entities/club/repository";
 
 /** Subscription states that still hold a plan (the service's words). */
 const HOLDS_PLAN = new Set<Stripe.Subscription.Status>(["active", "trialing", "past_due", "unpaid"]);

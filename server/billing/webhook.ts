@@ -8,7 +8,7 @@ import type Stripe from "stripe";
 import { env } from "../env";
 import { sendProblem } from "../http/problem";
 import { payments } from "./payments";
-import { clubByCustomer, forgetEvent, recordEvent } from "./repository";
+import { clubByCustomer, forgetEvent, recordEvent } from "../entities/club/repository";
 import { syncClub } from "./sync";
 
 export const WEBHOOK_PATH = "/api/billing/webhook";

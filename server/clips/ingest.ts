@@ -17,7 +17,7 @@ import { looksLikeZip } from "./sequence/archive";
 import { sequenceZipToVideo, type SequenceFacts } from "./sequence/to-video";
 import { mediaConfig, storage } from "./deps";
 import * as memberRepo from "../entities/member/repository";
-import * as repo from "./repository";
+import * as repo from "../entities/clip/repository";
 
 /** A problem with extra members in its body (e.g. the existing clip of a duplicate). */
 export class ClipProblem extends HttpError {

@@ -3,9 +3,9 @@ import { env } from "../env";
 import { log } from "../log";
 import { sendMail } from "../mail/mailer";
 import { clipFailedMail, clipReadyMail } from "../mail/clip-templates";
-import { getPrefs } from "../me/repository";
+import { getPrefs } from "../entities/user/prefs";
 import { needsCaptureRateConfirmation } from "../../shared/schemas/clips";
-import { userContact, type ClipRow } from "./repository";
+import { userContact, type ClipRow } from "../entities/clip/repository";
 
 export async function notifyClipDone(c: ClipRow): Promise<void> {
   if (!c.uploadedBy) return;

@@ -1,6 +1,6 @@
 // Clip rows as the API shows them (shared/schemas/clips.ts).
 import { needsCaptureRateConfirmation, type ClipDetail, type ClipProgress, type ClipSummary } from "../../shared/schemas/clips";
-import type { ClipRow, JoinedClip, JoinedClipSummary } from "./repository";
+import type { ClipRow, JoinedClip, JoinedClipSummary } from "../entities/clip/repository";
 
 export const clipBase = (teamId: string, clipId: string) => `/api/teams/${teamId}/clips/${clipId}`;
 

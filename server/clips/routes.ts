@@ -7,7 +7,7 @@ import { clipKeys } from "../storage";
 import { thumbnailKey } from "../jobs/clip-extract";
 import { ClipListQuerySchema, ClipPatchSchema } from "../../shared/schemas/clips";
 import * as svc from "./service";
-import { clipById } from "./repository";
+import { clipById } from "../entities/clip/repository";
 import { toProgress } from "./present";
 import { sendImage, sendOriginal, videoMime } from "./serve";
 

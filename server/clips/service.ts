@@ -1,6 +1,6 @@
 // The rules of the clip library: who sees and changes which clip, retry and delete.
 import { policy, type Actor } from "../auth/policy";
-import { recordAudit } from "../audit/repository";
+import { recordAudit } from "../entities/audit/repository";
 import { log } from "../log";
 import { forbidden, HttpError, notFound } from "../http/problem";
 import { cancelExtract, sendExtract } from "../jobs/clip-queue";
@@ -13,7 +13,7 @@ import { toDetail, toProgress, toSummary } from "./present";
 import * as memberRepo from "../entities/member/repository";
 import { countClipShotsOf } from "../entities/shot/players";
 import { isUuid } from "../http/ids";
-import * as repo from "./repository";
+import * as repo from "../entities/clip/repository";
 
 const clipNotFound = () => notFound("That clip");
 

@@ -19,7 +19,7 @@ import { StorageError } from "../storage/types";
 import { ClipMetaSchema, type ClipMeta } from "../../shared/schemas/clips";
 import { checkMetaRefs, ClipProblem, ingestUpload, requireSequenceRate } from "./ingest";
 import { tusDir } from "./deps";
-import { clipInTeam, teamUsageBytes } from "./repository";
+import { clipInTeam, teamUsageBytes } from "../entities/clip/repository";
 import { storageAllowance, storageRefusal } from "../billing/limits";
 import { storageText } from "../../shared/billing/plans";
 import { toSummary } from "./present";

@@ -1,3 +1,4 @@
+import { sql } from "drizzle-orm";
 import { drizzle } from "drizzle-orm/node-postgres";
 import pg from "pg";
 import * as schema from "./schema";
@@ -18,4 +19,9 @@ let cached: Db | undefined;
 export function db(): Db {
   cached ??= makeDb(env().DATABASE_URL);
   return cached;
+}
+
+/** One round trip to the database (readiness). */
+export async function pingDatabase(): Promise<void> {
+  await db().execute(sql`select 1`);
 }

@@ -3,8 +3,7 @@
 // ffmpeg/ffprobe (can they be started?). Each answers a short detail for the operator.
 import { randomUUID } from "node:crypto";
 import { Readable } from "node:stream";
-import { sql } from "drizzle-orm";
-import { db } from "../db/client";
+import { liveJobCounts, queueNames } from "../db/queue-tables";
 import { env } from "../env";
 import { runTool } from "../media/ffmpeg";
 import { storage } from "../clips/deps";
@@ -14,17 +13,13 @@ import { jobPolicies } from "../jobs/types";
 /** Waiting and running jobs; fails when pg-boss has not installed its schema or our queues. */
 export async function checkQueue(): Promise<string> {
   const names = Object.keys(jobPolicies);
-  const queues = await db().execute<{ name: string }>(sql`select name from pgboss.queue`).catch((err) => {
+  const have = await queueNames().catch((err) => {
     throw new Error(`the job queue tables are missing (${(err as Error).message}); start the app or a worker once to create them`);
   });
-  const have = new Set(queues.rows.map((r) => r.name));
   const missing = names.filter((n) => !have.has(n));
   if (missing.length) throw new Error(`queues not created yet: ${missing.join(", ")}`);
-  const counts = await db().execute<{ state: string; n: number }>(
-    sql`select state, count(*)::int as n from pgboss.job where state in ('created', 'retry', 'active') group by state`,
-  );
-  const by = Object.fromEntries(counts.rows.map((r) => [r.state, r.n]));
-  return `${(by.created ?? 0) + (by.retry ?? 0)} waiting, ${by.active ?? 0} running`;
+  const { waiting, running } = await liveJobCounts();
+  return `${waiting} waiting, ${running} running`;
 }
 
 /** Writes, reads back and deletes a tiny object, so a read-only or full disk shows here first. */

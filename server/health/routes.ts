@@ -1,10 +1,9 @@
 import { Router, type Request } from "express";
-import { sql } from "drizzle-orm";
-import { db } from "../db/client";
+import { pingDatabase } from "../db/client";
 import { readinessChecks } from "./checks";
 import { isDraining } from "./draining";
 import { readSession } from "../auth/context";
-import { isAdminAnywhere } from "../auth/repository";
+import { isAdminAnywhere } from "../entities/user/account";
 
 const LOOPBACK = /^(127\.\d+\.\d+\.\d+|::1|::ffff:127\.\d+\.\d+\.\d+)$/;
 
@@ -37,7 +36,7 @@ healthRouter.get("/ready", async (req, res) => {
     }
   };
   await Promise.all([
-    run("database", () => db().execute(sql`select 1`)),
+    run("database", pingDatabase),
     ...Object.entries(readinessChecks).map(([name, fn]) => run(name, fn)),
   ]);
   if (isDraining()) checks.process = { ok: false, detail: "shutting down" };

@@ -7,13 +7,16 @@ import { shotTypes, type ShotType } from "../../shared/schemas/clips";
 import type { ShotResults } from "../../shared/schemas/shot-results";
 import { metricDef } from "../../shared/schemas/readout";
 import { shotDate } from "../entities/shot/date";
-import * as readoutRepo from "../readout/repository";
-import { pendingInvitationsOf } from "../roster/repository";
+import * as readoutRepo from "../entities/shot/readout";
+import { pendingInvitationsOf } from "../entities/member/membership";
 import { listSticks } from "../sticks/service";
 import { staffSeatUse } from "../billing/limits";
-import * as repo from "./repository";
+import { clipsWaiting } from "../entities/clip/repository";
+import { liveTrackingRuns } from "../entities/tracking-run/repository";
 
 const SHARED_WITHIN_DAYS = 14;
+/** Each task shows its count and at most this many examples, so the page costs a handful of index reads. */
+const EXAMPLES = 3;
 const plural = (n: number, one: string, many = `${one}s`) => `${n.toLocaleString("en")} ${n === 1 ? one : many}`;
 const clipName = (c: { title: string | null; originalName: string | null }) => c.title || c.originalName || "Untitled clip";
 const shotName = (s: { label: string | null }) => s.label || "Unlabelled shot";
@@ -32,12 +35,12 @@ function homeShot(r: { id: string; label: string | null; date: string; shotType:
 
 async function staffTasks(a: Actor): Promise<HomeTask[]> {
   const [unconfirmed, failed, notDigitised, review, sticks, runs] = await Promise.all([
-    repo.clipsWaiting(a.teamId, "rateUnconfirmed"),
-    repo.clipsWaiting(a.teamId, "failed"),
-    repo.clipsWaiting(a.teamId, "notDigitised"),
-    repo.shotsInReview(a.teamId),
+    clipsWaiting(a.teamId, "rateUnconfirmed", EXAMPLES),
+    clipsWaiting(a.teamId, "failed", EXAMPLES),
+    clipsWaiting(a.teamId, "notDigitised", EXAMPLES),
+    readoutRepo.shotsInReview(a.teamId, EXAMPLES),
     listSticks(a),
-    repo.liveTrackingRuns(a.teamId),
+    liveTrackingRuns(a.teamId, EXAMPLES),
   ]);
   const tasks: HomeTask[] = [];
   const clipTask = (key: HomeTask["key"], rows: typeof failed, title: (n: number) => string, href: string, to: (id: string) => string) => {
@@ -89,7 +92,7 @@ async function adminTasks(a: Actor): Promise<HomeTask[]> {
 async function playerHome(a: Actor): Promise<NonNullable<HomeResponse["player"]>> {
   const [visible, shared] = await Promise.all([
     readoutRepo.listShots(a, { playerId: a.userId }),
-    repo.recentlySharedWith(a, new Date(Date.now() - SHARED_WITHIN_DAYS * 86_400_000)),
+    readoutRepo.recentlySharedWith(a, new Date(Date.now() - SHARED_WITHIN_DAYS * 86_400_000)),
   ]);
   const own = visible.filter((r) => r.playerId === a.userId).map((r) => homeShot({ ...r, date: shotDate(r) }));
   const withResults = visible.filter((r) => r.playerId === a.userId && r.summary);

@@ -9,7 +9,7 @@ import { extractClipFrames } from "../media/ingest";
 import { isRetryable } from "../media/errors";
 import { clipKeys } from "../storage";
 import { mediaConfig, storage } from "../clips/deps";
-import { clipById, setProgress, updateClip, type ClipRow } from "../clips/repository";
+import { clipById, setProgress, updateClip, type ClipRow } from "../entities/clip/repository";
 import { notifyClipDone } from "../clips/notify";
 
 /** Written beside the frames; the clips table shows it. */

@@ -1,14 +1,12 @@
 // Clip jobs on the queue: send one extraction per clip, find and cancel a clip's jobs, and
 // schedule the repair sweep. pg-boss keeps its jobs in PostgreSQL (schema pgboss), so a clip's
 // live job is found by its payload.
-import { sql } from "drizzle-orm";
-import { db } from "../db/client";
+import { jobStateOf, liveJobsWith, type LiveJobState } from "../db/queue-tables";
 import { withNamedLock } from "../db/named-lock";
 import { log } from "../log";
 import { enqueue, startedQueue } from "./queue";
 
-type LiveState = "created" | "retry" | "active";
-export interface LiveJob { id: string; state: LiveState; startedOn: Date | null; retryCount: number }
+export interface LiveJob { id: string; state: LiveJobState; startedOn: Date | null; retryCount: number }
 
 function boss() {
   const b = startedQueue();
@@ -16,12 +14,8 @@ function boss() {
   return b;
 }
 
-export async function liveExtractJobs(clipId: string): Promise<LiveJob[]> {
-  const r = await db().execute<{ id: string; state: LiveState; started_on: Date | null; retry_count: number }>(
-    sql`select id, state, started_on, retry_count from pgboss.job
-        where name = 'clip.extract' and data->>'clipId' = ${clipId} and state in ('created', 'retry', 'active')`,
-  );
-  return r.rows.map((j) => ({ id: j.id, state: j.state, startedOn: j.started_on, retryCount: j.retry_count }));
+export function liveExtractJobs(clipId: string): Promise<LiveJob[]> {
+  return liveJobsWith("clip.extract", "clipId", clipId);
 }
 
 /**
@@ -58,9 +52,8 @@ export async function failJob(jobId: string, reason: string) {
 }
 
 /** The state pg-boss gives a job after it was failed (retry, or failed once attempts are used up). */
-export async function jobState(jobId: string): Promise<string | null> {
-  const r = await db().execute<{ state: string }>(sql`select state from pgboss.job where id = ${jobId}`);
-  return r.rows[0]?.state ?? null;
+export function jobState(jobId: string): Promise<string | null> {
+  return jobStateOf(jobId);
 }
 
 export const SWEEP_CRON = "*/5 * * * *";

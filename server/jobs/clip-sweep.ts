@@ -8,7 +8,7 @@ import { z } from "zod";
 import { sweepStaleJobDirs } from "../media/ffmpeg";
 import { clipKeys, LocalDiskStorage } from "../storage";
 import { mediaConfig, storage } from "../clips/deps";
-import { clipById, existingClipIds, readyClips, staleExtracting, updateClip } from "../clips/repository";
+import { clipById, existingClipIds, readyClips, staleExtracting, updateClip } from "../entities/clip/repository";
 import { failJob, liveExtractJobs, sendExtract } from "./clip-queue";
 import { jobPolicies } from "./types";
 

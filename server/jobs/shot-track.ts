@@ -15,7 +15,7 @@ import { clipKeys } from "../storage";
 import { mediaConfig, storage } from "../clips/deps";
 import { FrameStore } from "../tracking/frame-store";
 import { buildProposals } from "../tracking/proposals";
-import * as repo from "../tracking/repository";
+import * as repo from "../entities/tracking-run/repository";
 import { isTrackInputError } from "../../shared/tracking/errors";
 import { trackShot } from "../../shared/tracking/shot-tracker";
 import type { Landmark } from "../../shared/schemas/shot-document";

@@ -3,7 +3,7 @@
 // are spent; a run queued with no job (this process had no queue) is queued now. Nothing a dead
 // worker half-did survives: a run's proposals are only ever written whole.
 import type pino from "pino";
-import * as repo from "../tracking/repository";
+import * as repo from "../entities/tracking-run/repository";
 import { failTrackJob, sendTrack, trackJobState } from "./track-queue";
 import { jobPolicies } from "./types";
 import { trackStaleMs } from "./shot-track";

@@ -2,13 +2,13 @@
 // The same visibility as the readout: a shot one may not see answers 404, like a missing one.
 import type { Actor } from "../auth/policy";
 import { env } from "../env";
-import { getPrefs } from "../me/repository";
+import { getPrefs } from "../entities/user/prefs";
 import { readoutPath, shotTitle } from "../../shared/schemas/readout";
 import type { UnitSystem } from "../../shared/units";
 import { marksCsv, resultsCsv } from "./csv";
 import { shotClockOf } from "./present";
 import { eventThumbs, renderShotReport } from "./pdf/render";
-import * as repo from "./repository";
+import * as repo from "../entities/shot/readout";
 import { getReadout, resultsOrThrow, visibleShot } from "./service";
 import { shotDate } from "../entities/shot/date";
 

@@ -1,7 +1,7 @@
 // From stored rows to the answers of the readout API. Pure apart from nothing: no queries here.
 import { EVENTS, toShotDocument, type ShotStickInfo } from "../../shared/schemas/shots";
 import { frameClockMs, type ReadoutEvent, type ShareRow, type ShotListItem, type ShotReadout, type ShotType } from "../../shared/schemas/readout";
-import type { ListRow, ReadoutRow } from "./repository";
+import type { ListRow, ReadoutRow } from "../entities/shot/readout";
 import { shotDate } from "../entities/shot/date";
 import { shotFrameTimes } from "../../shared/schemas/clips";
 

@@ -15,7 +15,7 @@ import { shotAccess } from "../entities/shot/visibility";
 import { mostCommonType, progressPoints, summarise } from "./progress";
 import * as memberRepo from "../entities/member/repository";
 import { isUuid } from "../http/ids";
-import * as repo from "./repository";
+import * as repo from "../entities/shot/readout";
 
 
 const shotNotFound = (which = "That shot") =>

@@ -3,18 +3,18 @@
 // unless they turned shot e-mails off. Who then sees the shot is decided in one place only:
 // server/entities/shot/visibility.ts (a player, or a teammate it is shared with, once published).
 import { isStaff, policy, type Actor } from "../auth/policy";
-import { recordAudit } from "../audit/repository";
+import { recordAudit } from "../entities/audit/repository";
 import { env } from "../env";
 import { forbidden, HttpError } from "../http/problem";
 import { log } from "../log";
 import { sendMail } from "../mail/mailer";
 import { shotSharedMail } from "../mail/readout-templates";
-import { getPrefs } from "../me/repository";
+import { getPrefs } from "../entities/user/prefs";
 import { METRICS, formatWithU, readoutPath, shotTitle, type PublishResponse, type ShareResponse, type ShareShotBody } from "../../shared/schemas/readout";
 import type { ShotResults } from "../../shared/schemas/shot-results";
 import { shotDate } from "../entities/shot/date";
 import * as memberRepo from "../entities/member/repository";
-import * as repo from "./repository";
+import * as repo from "../entities/shot/readout";
 import { invalid, visibleShot } from "./service";
 
 type Member = Awaited<ReturnType<typeof memberRepo.teamMembers>>[number];

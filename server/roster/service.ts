@@ -1,14 +1,14 @@
 import { auth } from "../auth/auth";
 import type { SignedIn } from "../auth/context";
 import { policy, type Actor } from "../auth/policy";
-import { recordAudit } from "../audit/repository";
+import { recordAudit } from "../entities/audit/repository";
 import { createAccount } from "../auth/accounts";
-import { deleteUser, markEmailVerified } from "../auth/repository";
+import { deleteUser, markEmailVerified } from "../entities/user/account";
 import { mergeSetCookies, viaAuth } from "../http/better-auth-errors";
 import { forbidden, HttpError, notFound } from "../http/problem";
 import { type InvitationPublic, type Role, type RosterResponse } from "../../shared/schemas/roster";
 import { parseRole, roleForList } from "../entities/member/role";
-import * as repo from "./repository";
+import * as repo from "../entities/member/membership";
 import { assertStaffSeat, withSeatLock } from "../billing/limits";
 
 const asRole = roleForList;

@@ -11,7 +11,7 @@ import { buildFfmpegArgs } from "../media/command";
 import { runTool, withJobDir } from "../media/ffmpeg";
 import { ingestUpload } from "../clips/ingest";
 import { mediaConfig } from "../clips/deps";
-import { updateClip } from "../clips/repository";
+import { updateClip } from "../entities/clip/repository";
 import { extractClip } from "../jobs/clip-extract";
 import { DEMO_STICK_LABELS } from "./sticks";
 import type { DemoIds } from "./demo-people";

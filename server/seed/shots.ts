@@ -17,7 +17,7 @@ import { normalSource } from "../../shared/mechanics/uncertainty";
 import { LANDMARKS, type ShotMarks } from "../../shared/schemas/shots";
 import { DEMO_CLIPS, DEMO_SESSION, type DemoClip } from "../../scripts/demo/demo-scenes";
 import { clipTruth, renderClip } from "../../scripts/demo/render-scene";
-import * as repo from "../shots/repository";
+import * as repo from "../entities/shot/repository";
 import { recomputeShot } from "../shots/results";
 import { DEMO_STICK_LABELS } from "./sticks";
 import type { DemoIds } from "./demo-people";

@@ -4,7 +4,7 @@
 import { NPM_PER_LBF_PER_IN } from "../../shared/units";
 import type { Actor } from "../auth/policy";
 import { addBenchTest } from "../sticks/bench-service";
-import * as repo from "../sticks/repository";
+import * as repo from "../entities/stick/repository";
 import { createStick } from "../sticks/service";
 import type { DemoIds } from "./demo-people";
 

@@ -1,5 +1,3 @@
-import { sql } from "drizzle-orm";
-import { db } from "../db/client";
 import { log } from "../log";
 import { ENGINE_VERSION } from "../../shared/mechanics/index";
 import { offLoop } from "../cpu/pool";
@@ -7,7 +5,7 @@ import { shotFrameTimes } from "../../shared/schemas/clips";
 import { toShotDocument, type StoredResult } from "../../shared/schemas/shots";
 import { shotStickInfo } from "../entities/stick/stiffness";
 import { canQueueRecompute, sendRecompute, type RecomputeTarget } from "../jobs/recompute-queue";
-import * as repo from "./repository";
+import * as repo from "../entities/shot/repository";
 
 // The stored, authoritative results of a shot. Called whenever marks, events, the clip's
 // calibration or the stick (or its bench tests) change. Each run re-reads the latest state under a
@@ -26,8 +24,7 @@ export function toStoredResult(r: { engineVersion: string; results: unknown; err
  * shot no longer exists.
  */
 export async function recomputeShot(shotId: string): Promise<StoredResult | null> {
-  return db().transaction(async (tx) => {
-    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${"shot-result:" + shotId}))`);
+  return repo.withShotResultLock(shotId, async (tx) => {
     const readAt = await repo.clockNow(tx);
     const inputs = await repo.recomputeInputs(tx, shotId);
     if (!inputs) return null;

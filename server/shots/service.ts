@@ -1,6 +1,6 @@
 import { shotAccess } from "../entities/shot/visibility";
 import { policy, type Actor } from "../auth/policy";
-import { recordAudit, type AuditEntry } from "../audit/repository";
+import { recordAudit, type AuditEntry } from "../entities/audit/repository";
 import { forbidden, HttpError, notFound } from "../http/problem";
 import { checkCalibration } from "../../shared/mechanics/calibration";
 import { captureTimeOf, shotFrameTimes } from "../../shared/schemas/clips";
@@ -11,7 +11,7 @@ import {
 import { VersionConflictError } from "./conflict";
 import * as memberRepo from "../entities/member/repository";
 import { isUuid } from "../http/ids";
-import * as repo from "./repository";
+import * as repo from "../entities/shot/repository";
 import { recomputeLater, recomputeShot, toStoredResult } from "./results";
 import { shotStickInfo } from "../entities/stick/stiffness";
 

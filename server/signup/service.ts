@@ -10,11 +10,11 @@ import { HttpError, notFound } from "../http/problem";
 import { mergeSetCookies, viaAuth } from "../http/better-auth-errors";
 import { sendMail } from "../mail/mailer";
 import { createAccount } from "../auth/accounts";
-import { deleteUser } from "../auth/repository";
+import { deleteUser } from "../entities/user/account";
 import { signupExistingMail, signupMail } from "../mail/templates";
 import { createClubWithTeam } from "../billing/clubs";
 import type { SignupComplete } from "../../shared/schemas/signup";
-import * as repo from "./repository";
+import * as repo from "../entities/user/signup-requests";
 
 export const SIGNUP_LINK_TTL_MS = 24 * 3600_000;
 /** Links sent to one address per hour; further requests are answered alike and send nothing. */

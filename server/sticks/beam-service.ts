@@ -10,7 +10,7 @@ import { parse } from "../http/validate";
 import { beamFromShot, solveBeam } from "../../shared/mechanics/sticklab";
 import { beamInputSchema, type BeamSolveResponse, type ShotBeamResponse } from "../../shared/schemas/sticks";
 import { viaEngine } from "./engine-errors";
-import * as repo from "./repository";
+import * as repo from "../entities/stick/repository";
 import { stickStiffness } from "./stiffness";
 
 export function solveBeamRequest(_a: Actor, body: unknown): BeamSolveResponse {

@@ -2,7 +2,7 @@
 // engine (shared/mechanics/sticklab), stored with the fit. Anything the engine refuses becomes
 // a 422 with its message, and nothing is stored.
 import { policy, type Actor } from "../auth/policy";
-import { recordAudit } from "../audit/repository";
+import { recordAudit } from "../entities/audit/repository";
 import { HttpError, notFound } from "../http/problem";
 import { parse } from "../http/validate";
 import { READINGS_LIMITS, fitBench, parseReadingsCsv, readingsToSi, type BenchReading } from "../../shared/mechanics/sticklab";
@@ -10,7 +10,7 @@ import { BenchCsvFieldsSchema, benchTestInputSchema, type BenchEntry, type Bench
 import type { BenchTest } from "../../shared/schemas/stick-lab";
 import { viaEngine } from "./engine-errors";
 import { presentBenchTest, type StoredFit } from "./present";
-import * as repo from "./repository";
+import * as repo from "../entities/stick/repository";
 import { editableStick } from "./service";
 import { stickStiffnessChanged } from "./stiffness";
 

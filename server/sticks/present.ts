@@ -3,7 +3,7 @@
 // against the stick's current rating whenever a test is shown.
 import type { BenchFit, BenchReading } from "../../shared/mechanics/sticklab";
 import type { BenchEntry, BenchTestRow, LatestBenchTest, StickRow } from "../../shared/schemas/sticks";
-import type { BenchTestRecord, StickRecord } from "./repository";
+import type { BenchTestRecord, StickRecord } from "../entities/stick/repository";
 
 /** The jsonb `fit` column: the engine's fit plus how the readings were entered. */
 export interface StoredFit extends BenchFit {

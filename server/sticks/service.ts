@@ -1,7 +1,7 @@
 // Sticks and the team's flex alert level. Staff see and edit every stick of the team; a player
 // sees only their own (policy.viewStick); another team's stick is simply not found.
 import { policy, type Actor } from "../auth/policy";
-import { recordAudit } from "../audit/repository";
+import { recordAudit } from "../entities/audit/repository";
 import { forbidden, HttpError, notFound } from "../http/problem";
 import {
   DEFAULT_FLEX_ALERT_PERCENT,
@@ -15,7 +15,7 @@ import {
 import { StickCreateSchema } from "../../shared/schemas/sticks";
 import { presentBenchTest, presentStick } from "./present";
 import * as memberRepo from "../entities/member/repository";
-import * as repo from "./repository";
+import * as repo from "../entities/stick/repository";
 import { stickStiffnessChanged } from "./stiffness";
 
 export const flexAlertPercent = async (teamId: string) => (await repo.flexAlertPercentOf(teamId)) ?? DEFAULT_FLEX_ALERT_PERCENT;

@@ -5,7 +5,7 @@ import type { StickStiffness } from "../../shared/schemas/sticks";
 import { log } from "../log";
 import { recomputeLater } from "../shots/results";
 import type { RecomputeTarget } from "../jobs/types";
-import * as repo from "./repository";
+import * as repo from "../entities/stick/repository";
 
 export async function stickStiffness(teamId: string, stickId: string, onDate: string): Promise<StickStiffness | null> {
   const row = await repo.stickById(teamId, stickId);

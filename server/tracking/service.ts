@@ -6,7 +6,7 @@ import { editableShot, visibleShot } from "../shots/service";
 import { cancelTrackJob, sendTrack } from "../jobs/track-queue";
 import { LANDMARKS, landmarkLabels, outsideFrameMessage } from "../../shared/schemas/shots";
 import type { StartTrackingBody, TrackingAnswer, TrackingRun } from "../../shared/schemas/tracking";
-import * as repo from "./repository";
+import * as repo from "../entities/tracking-run/repository";
 
 const invalid = (path: string, message: string) => new HttpError(422, "validation_failed", `${path}: ${message}`, [{ path, message }]);
 

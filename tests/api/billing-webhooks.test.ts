@@ -48,7 +48,7 @@ async function paidClub() {
 describe("payment webhooks", () => {
   it("a delivered event sent again is acknowledged, logged and not applied twice", async () => {
     const c = await paidClub();
-    const { clubById } = await import("../../server/billing/repository");
+    const { clubById } = await import("../../server/entities/club/repository");
     const d = w.fake.deliveries().filter((x) => x.status === 200).at(-1)!;
     const before = await eventCount(c.clubId);
     const syncedAt = (await clubById(c.clubId))!.syncedAt;
@@ -98,7 +98,7 @@ describe("payment webhooks", () => {
       // No webhook yet: the app still knows nothing, so a change of plan cannot be asked for.
       expect((await c.admin.get(B(c.teamId))).json.plan).toBe("pond");
       const { payments } = await import("../../server/billing/payments");
-      const { clubById } = await import("../../server/billing/repository");
+      const { clubById } = await import("../../server/entities/club/repository");
       const customer = (await clubById(c.clubId))!.customerId!;
       const sub = (await payments().subscriptions.list({ customer })).data[0]!;
       await payments().subscriptions.update(sub.id, { items: [{ id: sub.items.data[0]!.id, price: "price_arena_monthly" }], proration_behavior: "always_invoice" });

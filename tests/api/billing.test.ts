@@ -23,7 +23,7 @@ async function subscribe(admin: Client, teamId: string, plan = "rink", card = "4
 }
 
 async function subscriptionOf(clubId: string) {
-  const { clubById } = await import("../../server/billing/repository");
+  const { clubById } = await import("../../server/entities/club/repository");
   return (await clubById(clubId))!;
 }
 

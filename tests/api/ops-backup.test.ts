@@ -15,7 +15,7 @@ import { startJobs, stopJobs } from "../../server/jobs/runtime";
 import { extractClip } from "../../server/jobs/clip-extract";
 import { db } from "../../server/db/client";
 import { shot, shotResult, stick } from "../../server/db/schema";
-import { recordAudit } from "../../server/audit/repository";
+import { recordAudit } from "../../server/entities/audit/repository";
 import { log } from "../../server/log";
 import { startCluster, type Cluster } from "../slow/lib/pg-cluster";
 

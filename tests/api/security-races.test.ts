@@ -52,7 +52,7 @@ describe("races", () => {
     const rows = await db().select().from(trainingSession).where(and(eq(trainingSession.teamId, world.teamId), eq(trainingSession.venue, venue)));
     expect(rows).toHaveLength(1);
     // The same at the repository, where the requests overlap most closely.
-    const { findOrCreateSession } = await import("../../server/clips/repository");
+    const { findOrCreateSession } = await import("../../server/entities/clip/repository");
     const venue2 = `Race rink bis ${Date.now()}`;
     const ids = await Promise.all(Array.from({ length: 8 }, () => findOrCreateSession(world.teamId, { date: "2026-03-16", venue: venue2, drill: "" })));
     expect(new Set(ids).size).toBe(1);

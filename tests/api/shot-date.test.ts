@@ -7,7 +7,7 @@ import { eq } from "drizzle-orm";
 import { db } from "../../server/db/client";
 import { clip, shot, stick, trainingSession } from "../../server/db/schema";
 import { shotDate } from "../../server/entities/shot/date";
-import { pageIdsQuery } from "../../server/readout/repository";
+import { pageIdsQuery } from "../../server/entities/shot/readout";
 
 let srv: TestServer;
 let world: Awaited<ReturnType<typeof seedWorld>>;

@@ -44,6 +44,8 @@ describe("import boundaries", { timeout: 60_000 }, () => {
 
   it("Drizzle outside an entity repository or server/db fails", async () => {
     expect(await ruleIds("server/readout/routes.ts", `import { sql } from "drizzle-orm";\nexport const q = sql\`select 1\`;\n`)).toContain("no-restricted-imports");
+    // A feature's own repository is no exception any more (decision 126): its queries live in the entity.
+    expect(await ruleIds("server/clips/repository.ts", `import { sql } from "drizzle-orm";\nexport const q = sql\`select 1\`;\n`)).toContain("no-restricted-imports");
     expect(await ruleIds("server/entities/shot/repository.ts", `import { sql } from "drizzle-orm";\nexport const q = sql\`select 1\`;\n`)).toEqual([]);
   });
 

@@ -1,7 +1,7 @@
 import { eq } from "drizzle-orm";
-import { db } from "../db/client";
-import { member, organization, userPrefs } from "../db/schema";
-import type { Prefs } from "../../shared/schemas/roster";
+import { db } from "../../db/client";
+import { member, organization, userPrefs } from "../../db/schema";
+import type { Prefs } from "../../../shared/schemas/roster";
 
 export const defaultPrefs: Prefs = { units: "metric", notifyClipReady: true, notifyShotShared: true };
 

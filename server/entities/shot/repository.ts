@@ -1,11 +1,11 @@
 import { and, asc, eq, inArray, isNull, lt, sql } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
-import { db } from "../db/client";
-import { clip, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../db/schema";
+import { db } from "../../db/client";
+import { clip, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../../db/schema";
 import { recordAudit, type AuditEntry } from "../audit/repository";
-import { shotDateSql } from "../entities/shot/date";
-import { benchTestInForce } from "../entities/stick/stiffness";
-import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../shared/schemas/shots";
+import { shotDateSql } from "./date";
+import { benchTestInForce } from "../stick/stiffness";
+import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../../shared/schemas/shots";
 
 // Drizzle only: every query names the team, so a row of another team is simply not found.
 
@@ -164,6 +164,14 @@ export async function recomputeInputs(tx: Tx, shotId: string) {
 }
 
 export type Tx = Parameters<Parameters<ReturnType<typeof db>["transaction"]>[0]>[0];
+
+/** Runs `fn` in a transaction holding the shot's results lock, so two runs for one shot store one after the other. */
+export function withShotResultLock<T>(shotId: string, fn: (tx: Tx) => Promise<T>): Promise<T> {
+  return db().transaction(async (tx) => {
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${"shot-result:" + shotId}))`);
+    return fn(tx);
+  });
+}
 
 /** A team that skips the review step: a shot with results is published by itself (by nobody). */
 export async function autoPublishIfTeamWants(tx: Tx, shotId: string) {

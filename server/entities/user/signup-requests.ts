@@ -1,6 +1,6 @@
 import { and, eq, gt, isNull, sql } from "drizzle-orm";
-import { db } from "../db/client";
-import { signupRequest, user } from "../db/schema";
+import { db } from "../../db/client";
+import { signupRequest, user } from "../../db/schema";
 
 export async function createRequest(email: string, tokenHash: string, expiresAt: Date) {
   await db().insert(signupRequest).values({ email, tokenHash, expiresAt });

@@ -1,8 +1,8 @@
 import { and, eq, sql } from "drizzle-orm";
-import { db } from "../db/client";
-import { invitation, member, organization, user } from "../db/schema";
+import { db } from "../../db/client";
+import { invitation, member, organization, user } from "../../db/schema";
 import { recordAudit, type AuditAction } from "../audit/repository";
-import { RoleSchema, type Role } from "../../shared/schemas/roster";
+import { RoleSchema, type Role } from "../../../shared/schemas/roster";
 
 export async function membersOf(teamId: string) {
   return db()

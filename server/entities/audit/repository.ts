@@ -1,6 +1,6 @@
 import { desc, eq } from "drizzle-orm";
-import { db } from "../db/client";
-import { auditLog, user } from "../db/schema";
+import { db } from "../../db/client";
+import { auditLog, user } from "../../db/schema";
 
 export type AuditAction =
   | "member.role_changed" | "member.removed" | "member.joined"

@@ -2,11 +2,11 @@
 // working on it and requires the row still running: a cancelled or deleted run (the clip or shot
 // deleted cascades here) turns every later write into a no-op the worker sees, and a run is
 // finished in one update that sets its status and all its proposals together.
-import { and, desc, eq, inArray, lt, ne, or, sql } from "drizzle-orm";
-import { db } from "../db/client";
-import { clip, shot, trackingRun, user } from "../db/schema";
-import type { TrackingPhase, TrackingProposals } from "../../shared/schemas/tracking";
-import type { ClipCalibration } from "../../shared/schemas/shots";
+import { and, asc, desc, eq, inArray, lt, ne, or, sql } from "drizzle-orm";
+import { db } from "../../db/client";
+import { clip, shot, trackingRun, user } from "../../db/schema";
+import type { TrackingPhase, TrackingProposals } from "../../../shared/schemas/tracking";
+import type { ClipCalibration } from "../../../shared/schemas/shots";
 
 const LIVE = ["queued", "running"] as const;
 
@@ -150,4 +150,15 @@ export async function workOf(shotId: string) {
     .innerJoin(clip, eq(clip.id, shot.clipId))
     .where(eq(shot.id, shotId));
   return row ? { ...row, calibration: row.calibration as ClipCalibration | null, probe: row.probe as { videoStreamIndex?: number } | null } : null;
+}
+
+/** The team's runs queued or running, oldest first: at most `limit`, each row with the count of all of them. */
+export async function liveTrackingRuns(teamId: string, limit: number) {
+  return db()
+    .select({ shotId: shot.id, clipId: shot.clipId, label: shot.label, status: trackingRun.status, done: trackingRun.done, total: trackingRun.total, all: sql<number>`(count(*) over ())::int` })
+    .from(trackingRun)
+    .innerJoin(shot, eq(shot.id, trackingRun.shotId))
+    .where(and(eq(trackingRun.teamId, teamId), inArray(trackingRun.status, LIVE)))
+    .orderBy(asc(trackingRun.createdAt))
+    .limit(limit);
 }

@@ -1,9 +1,9 @@
 // The only Drizzle code of billing: clubs, the teams they own, applied webhook events.
 import { and, eq, inArray, sql } from "drizzle-orm";
-import { db, type Db } from "../db/client";
-import { prepared } from "../db/prepared";
-import { auditLog, billingEvent, club, clubTeam, invitation, member, organization, user } from "../db/schema";
-import type { PlanId } from "../../shared/billing/plans";
+import { db, type Db } from "../../db/client";
+import { prepared } from "../../db/prepared";
+import { auditLog, billingEvent, club, clubTeam, invitation, member, organization, user } from "../../db/schema";
+import type { PlanId } from "../../../shared/billing/plans";
 
 export type ClubRow = typeof club.$inferSelect;
 export type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];

@@ -1,17 +1,17 @@
 import { createHash } from "node:crypto";
-import { and, asc, desc, eq, inArray, isNotNull, isNull, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, gt, inArray, isNotNull, isNull, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { LRUCache } from "lru-cache";
-import { db } from "../db/client";
-import { prepared, preparedBy } from "../db/prepared";
-import { auditLog, clip, member, organization, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../db/schema";
-import { benchTestInForce } from "../entities/stick/stiffness";
-import { isStaff, type Actor } from "../entities/member/role";
-import { newestShotFirst, shotDateSql } from "../entities/shot/date";
-import { shotVisibleWhere } from "../entities/shot/visibility";
-import { ShotResults } from "../../shared/schemas/shot-results";
-import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../shared/schemas/shots";
-import type { ShotListQuery } from "../../shared/schemas/readout";
+import { db } from "../../db/client";
+import { prepared, preparedBy } from "../../db/prepared";
+import { auditLog, clip, member, organization, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../../db/schema";
+import { benchTestInForce } from "../stick/stiffness";
+import { isStaff, type Actor } from "../member/role";
+import { newestShotFirst, shotDateSql } from "./date";
+import { shotVisibleWhere } from "./visibility";
+import { ShotResults } from "../../../shared/schemas/shot-results";
+import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../../shared/schemas/shots";
+import type { ShotListQuery } from "../../../shared/schemas/readout";
 
 // Drizzle only. Every query names the team, so a row of another team is simply not found. Reads
 // the shots, clips and results tables of other areas directly (read-only) to join them in one go.
@@ -47,6 +47,9 @@ const withEverything = {
   stickTestInForce: benchTestInForce(shot.stickId, shotDateSql),
   publishedByName: sql<string | null>`(select ${user.name} from ${user} where ${user.id} = ${shot.publishedBy})`,
 };
+
+/** The shot (of the outer query) has stored results: it waits for review until published. */
+export const shotHasResults = sql`exists (select 1 from ${shotResult} where ${shotResult.shotId} = ${shot.id} and ${shotResult.results} is not null)`;
 
 // The joins of every shot query: its clip, session, player, stick and stored result.
 function joined(columns: typeof withEverything) {
@@ -123,7 +126,7 @@ function listWhere(a: Actor, f: ShotListQuery) {
   if (f.stickId) where.push(eq(shot.stickId, f.stickId));
   if (f.shotType) where.push(eq(shot.shotType, f.shotType));
   if (f.review === "published") where.push(isNotNull(shot.publishedAt));
-  if (f.review === "waiting") where.push(isNull(shot.publishedAt), sql`exists (select 1 from ${shotResult} where ${shotResult.shotId} = ${shot.id} and ${shotResult.results} is not null)`);
+  if (f.review === "waiting") where.push(isNull(shot.publishedAt), shotHasResults);
   return and(...where);
 }
 
@@ -245,7 +248,7 @@ export async function setAutoPublish(teamId: string, autoPublish: boolean) {
       await tx
         .update(shot)
         .set({ publishedAt: sql`now()` })
-        .where(and(eq(shot.teamId, teamId), isNull(shot.publishedAt), sql`exists (select 1 from ${shotResult} where ${shotResult.shotId} = ${shot.id} and ${shotResult.results} is not null)`));
+        .where(and(eq(shot.teamId, teamId), isNull(shot.publishedAt), shotHasResults));
   });
 }
 
@@ -274,4 +277,35 @@ export async function shotDeletion(teamId: string, shotId: string) {
 export async function teamName(teamId: string) {
   const [row] = await db().select({ name: organization.name }).from(organization).where(eq(organization.id, teamId));
   return row?.name ?? "your team";
+}
+
+const total = sql<number>`(count(*) over ())::int`;
+
+/** Shots with results that staff have not yet published to their player, newest first: at most
+ * `limit`, each row with the count of all of them. */
+export async function shotsInReview(teamId: string, limit: number) {
+  return db()
+    .select({ id: shot.id, label: shot.label, playerName: user.name, total })
+    .from(shot)
+    .leftJoin(user, eq(user.id, shot.playerId))
+    .where(and(eq(shot.teamId, teamId), isNull(shot.publishedAt), isNotNull(shot.playerId), shotHasResults))
+    .orderBy(...newestShotFirst)
+    .limit(limit);
+}
+
+/** Shots of teammates shared with the viewer since `since` that the viewer may see, newest share first. */
+export async function recentlySharedWith(a: Actor, since: Date, limit = 5) {
+  return db()
+    .select({
+      id: shot.id, label: shot.label, date: shotDateSql, shotType: clip.shotType, playerName: user.name, sharedAt: shotShare.createdAt,
+      summary: sql<Omit<ShotResults, "series"> | null>`${shotResult.summary}`,
+    })
+    .from(shotShare)
+    .innerJoin(shot, eq(shot.id, shotShare.shotId))
+    .innerJoin(clip, eq(clip.id, shot.clipId))
+    .leftJoin(user, eq(user.id, shot.playerId))
+    .leftJoin(shotResult, eq(shotResult.shotId, shot.id))
+    .where(and(eq(shotShare.userId, a.userId), gt(shotShare.createdAt, since), shotVisibleWhere(a)))
+    .orderBy(desc(shotShare.createdAt))
+    .limit(limit);
 }

@@ -1,7 +1,7 @@
 // The few writes to better-auth's own tables the product makes itself (Drizzle only here).
 import { and, eq } from "drizzle-orm";
-import { db } from "../db/client";
-import { member, session, user } from "../db/schema";
+import { db } from "../../db/client";
+import { member, session, user } from "../../db/schema";
 
 export async function markEmailVerified(userId: string) {
   await db().update(user).set({ emailVerified: true }).where(eq(user.id, userId));

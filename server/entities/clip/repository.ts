@@ -1,14 +1,15 @@
 // The only Drizzle code of clip ingest.
 import { and, asc, desc, eq, getTableColumns, inArray, isNotNull, lt, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
-import { db } from "../db/client";
-import { preparedBy } from "../db/prepared";
-import { clip, shot, stick, trainingSession, user } from "../db/schema";
-import type { ClipSort, ShotType } from "../../shared/schemas/clips";
+import { db } from "../../db/client";
+import { preparedBy } from "../../db/prepared";
+import { clip, shot, stick, trainingSession, user } from "../../db/schema";
+import type { ClipSort, ShotType } from "../../../shared/schemas/clips";
 import { recordAudit, type AuditEntry } from "../audit/repository";
-import { countClipShotsOf, moveClipShots } from "../entities/shot/players";
-import type { Actor } from "../entities/member/role";
-import { shotVisibleWhere } from "../entities/shot/visibility";
+import { countClipShotsOf, moveClipShots } from "../shot/players";
+import type { Actor } from "../member/role";
+import { shotVisibleWhere } from "../shot/visibility";
+import { shotHasResults } from "../shot/readout";
 
 export type ClipRow = typeof clip.$inferSelect;
 export type NewClipRow = typeof clip.$inferInsert;
@@ -219,4 +220,26 @@ export async function readyClips() {
 export async function clipReachableByShot(clipId: string, a: Actor): Promise<boolean> {
   const found = await db().select({ id: shot.id }).from(shot).where(and(eq(shot.clipId, clipId), shotVisibleWhere(a))).limit(1);
   return found.length > 0;
+}
+
+export type ClipWait = "rateUnconfirmed" | "failed" | "notDigitised";
+
+/** Clips of the team waiting for staff, newest first: at most `limit`, each row with the count of all of them. */
+export async function clipsWaiting(teamId: string, kind: ClipWait, limit: number) {
+  const cond = {
+    // Frames come out meanwhile, but no time (so no result) can be trusted until someone confirms the rate.
+    rateUnconfirmed: and(eq(clip.captureFpsConfirmed, false), inArray(clip.status, ["probing", "extracting", "ready"])),
+    failed: eq(clip.status, "failed"),
+    notDigitised: and(
+      eq(clip.status, "ready"),
+      eq(clip.captureFpsConfirmed, true),
+      sql`not exists (select 1 from ${shot} where ${shot.clipId} = ${clip.id} and ${shotHasResults})`,
+    ),
+  }[kind];
+  return db()
+    .select({ id: clip.id, title: clip.title, originalName: clip.originalName, total: sql<number>`(count(*) over ())::int` })
+    .from(clip)
+    .where(and(eq(clip.teamId, teamId), cond))
+    .orderBy(desc(clip.createdAt), asc(clip.id))
+    .limit(limit);
 }

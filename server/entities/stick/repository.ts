@@ -1,11 +1,11 @@
 // Stick lab rows: sticks, bench tests, the team's alert level, and the shots taken with a stick.
 // Drizzle only; the rules live in service.ts. Every query names the team.
 import { and, asc, eq, inArray, isNotNull, sql } from "drizzle-orm";
-import { db } from "../db/client";
-import { benchTest, clip, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../db/schema";
-import type { Actor } from "../entities/member/role";
-import { newestShotFirst, shotDateSql } from "../entities/shot/date";
-import { shotVisibleWhere } from "../entities/shot/visibility";
+import { db } from "../../db/client";
+import { benchTest, clip, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../../db/schema";
+import type { Actor } from "../member/role";
+import { newestShotFirst, shotDateSql } from "../shot/date";
+import { shotVisibleWhere } from "../shot/visibility";
 
 export type StickRecord = typeof stick.$inferSelect;
 export type BenchTestRecord = typeof benchTest.$inferSelect;
