@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { DEFAULT_PRICE_IDS } from "../shared/billing/plans";
+import { GB } from "../shared/bytes";
 
 // The whole server configuration, validated once at start-up. A bad or missing value stops the
 // process with one readable line per problem rather than failing later in a request.
@@ -37,7 +38,7 @@ const EnvSchema = z.object({
   TRACK_MEMORY_MB: z.coerce.number().int().min(16).max(65536).default(768),
   /** Seconds a queued recompute waits for the triggers (calibration writes, bench tests) to pause (decision 125). */
   RECOMPUTE_DELAY_SECONDS: z.coerce.number().min(0).max(60).default(1),
-  MAX_UPLOAD_BYTES: z.coerce.number().int().positive().default(4 * 1024 ** 3),
+  MAX_UPLOAD_BYTES: z.coerce.number().int().positive().default(4 * GB),
   MAX_PIXELS: z.coerce.number().int().positive().default(4096 * 2160),
   EMBEDDED_WORKER: bool.default(true),
   /** Web processes sharing PORT (node:cluster); 1 = this process serves requests itself. */

@@ -1,6 +1,8 @@
 // The plans a club can be on (names of our own). The limits here are the ones the server
 // enforces; the monthly price is what the plan pages show — the amount actually charged is the
 // payment service's price, which the server maps to a plan by its id (server/billing/prices.ts).
+import { bytesText, GB, TB } from "../bytes";
+
 export const PLAN_IDS = ["pond", "rink", "arena"] as const;
 export type PlanId = (typeof PLAN_IDS)[number];
 
@@ -18,23 +20,18 @@ export interface Plan {
   blurb: string;
 }
 
-const GB = 1024 ** 3;
 
 export const PLANS: Record<PlanId, Plan> = {
   pond: { id: "pond", name: "Pond", monthlyCents: 0, currency: "usd", storageBytes: 5 * GB, staffSeats: 3, teams: 1, blurb: "Try Loadframe with one team." },
   rink: { id: "rink", name: "Rink", monthlyCents: 3900, currency: "usd", storageBytes: 250 * GB, staffSeats: 10, teams: 3, blurb: "A club with a few teams and its own coaches." },
-  arena: { id: "arena", name: "Arena", monthlyCents: 9900, currency: "usd", storageBytes: 1024 * GB, staffSeats: 40, teams: 12, blurb: "A whole program: every age group, a full staff." },
+  arena: { id: "arena", name: "Arena", monthlyCents: 9900, currency: "usd", storageBytes: TB, staffSeats: 40, teams: 12, blurb: "A whole program: every age group, a full staff." },
 };
 
 export const FREE_PLAN: PlanId = "pond";
 export const isPaidPlan = (p: PlanId) => PLANS[p].monthlyCents > 0;
 
-/** "5.00 GB", "1.0 TB", "12.3 MB" — storage as people read it (binary units, as the limits count them). */
-export function storageText(bytes: number): string {
-  if (bytes >= 1024 ** 4) return `${(bytes / 1024 ** 4).toFixed(1)} TB`;
-  if (bytes >= GB) return `${(bytes / GB).toFixed(bytes < 10 * GB ? 2 : 1)} GB`;
-  return `${(bytes / 1024 ** 2).toFixed(1)} MB`;
-}
+/** Storage as people read it (decimal units, as the limits count them). */
+export const storageText = bytesText;
 
 export const moneyText = (cents: number, currency = "usd") =>
   new Intl.NumberFormat("en-US", { style: "currency", currency: currency.toUpperCase() }).format(cents / 100);

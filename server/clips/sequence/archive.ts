@@ -10,6 +10,7 @@ import { pipeline } from "node:stream/promises";
 import yauzl, { type Entry, type ZipFile } from "yauzl";
 import { MediaInputError } from "../../media/errors";
 import { planSequence, type SequencePlan } from "./names";
+import { bytesText } from "../../../shared/bytes";
 
 export interface ArchiveLimits {
   /** Most entries (files and folders) an archive may list. */
@@ -92,7 +93,7 @@ export async function unpackSequence(file: string, dir: string, limits: ArchiveL
     if (unpackedBytes > limits.maxUnpackedBytes)
       throw new MediaInputError(
         "sequence_too_large",
-        `The frames in this ZIP unpack to ${gb(unpackedBytes)}; a sequence can unpack to at most ${gb(limits.maxUnpackedBytes)}. Trim the run around the shot.`,
+        `The frames in this ZIP unpack to ${bytesText(unpackedBytes)}; a sequence can unpack to at most ${bytesText(limits.maxUnpackedBytes)}. Trim the run around the shot.`,
         { unpackedBytes, maxUnpackedBytes: limits.maxUnpackedBytes },
       );
     const free = await statfs(dir).then((s) => s.bavail * s.bsize).catch(() => Infinity);
@@ -119,4 +120,3 @@ export async function unpackSequence(file: string, dir: string, limits: ArchiveL
   }
 }
 
-const gb = (bytes: number) => `${(bytes / 1024 ** 3).toFixed(bytes < 10 * 1024 ** 3 ? 1 : 0)} GB`;

@@ -1,5 +1,6 @@
 import type { SessionRef } from "@shared/schemas/clips";
 import { formatDate } from "@/lib/format";
+import { bytesText } from "@shared/bytes";
 
 const whole = new Intl.NumberFormat(undefined, { maximumFractionDigits: 0 });
 const upTo2 = new Intl.NumberFormat(undefined, { maximumFractionDigits: 2 });
@@ -8,13 +9,8 @@ const upTo2 = new Intl.NumberFormat(undefined, { maximumFractionDigits: 2 });
 export const formatFps = (fps: number | null | undefined) => (fps ? `${fps >= 100 ? whole.format(fps) : upTo2.format(fps)} fps` : "—");
 export const formatCount = (n: number | null | undefined) => (n === null || n === undefined ? "—" : whole.format(n));
 
-export function formatBytes(n: number | null | undefined): string {
-  if (n === null || n === undefined) return "—";
-  if (n >= 1024 ** 3) return `${upTo2.format(n / 1024 ** 3)} GB`;
-  if (n >= 1024 ** 2) return `${upTo2.format(n / 1024 ** 2)} MB`;
-  if (n >= 1024) return `${whole.format(n / 1024)} KB`;
-  return `${n} B`;
-}
+/** Decimal units, the same text the server's limits use (shared/bytes.ts). */
+export const formatBytes = (n: number | null | undefined) => (n === null || n === undefined ? "—" : bytesText(n));
 
 export function sessionLabel(s: Pick<SessionRef, "date" | "venue" | "drill"> | null | undefined): string {
   if (!s) return "No session";
