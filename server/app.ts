@@ -1,12 +1,12 @@
 import fs from "node:fs";
 import path from "node:path";
 import express from "express";
-import helmet from "helmet";
 import { toNodeHandler } from "better-auth/node";
 import { auth } from "./auth/auth";
 import { env } from "./env";
-import { requestLog } from "./log";
+import { lazyRequestLoggers, requestLog } from "./log";
 import { problemHandler, sendProblem } from "./http/problem";
+import { leanJsonAnswers } from "./http/json-answer";
 import { refuseControlCharactersInUrl } from "./http/request-guards";
 import { asProblemResponse } from "./http/better-auth-errors";
 import { authRouteGuard } from "./auth/http-routes";
@@ -14,6 +14,7 @@ import { apiRouter } from "./routes";
 import { mountRawRoutes } from "./raw-routes";
 import { applyRateLimits, signInFailureLimit } from "./security/rate-limits";
 import { sameOriginWrites } from "./security/same-origin";
+import { helmetOptions, securityHeaders } from "./security/headers";
 import { trustedOrigins } from "./security/origins";
 import { refuseWritesWhenUnpaid } from "./billing/read-only-guard";
 
@@ -24,34 +25,14 @@ export function createApp() {
   const e = env();
   const app = express();
   app.disable("x-powered-by");
+  // API JSON written in one piece with a cheap validator (decision 177).
+  leanJsonAnswers(app);
+  lazyRequestLoggers(app.request);
   // Forwarded addresses count only when TRUST_PROXY names the proxy (decision 112).
   app.set("trust proxy", e.TRUST_PROXY ?? false);
-  // Browsers must be told to use https only when people reach the app over https: on a club's
-  // plain-http network (PUBLIC_URL=http://192.168.1.20:3000) both headers would turn every
-  // asset request into an https one that fails, leaving a blank page.
-  const https = e.PUBLIC_URL.startsWith("https://");
   app.use(requestLog);
-  app.use(
-    helmet({
-      strictTransportSecurity: https,
-      contentSecurityPolicy: {
-        directives: {
-          defaultSrc: ["'self'"],
-          imgSrc: ["'self'", "data:", "blob:"],
-          workerSrc: ["'self'", "blob:"],
-          // opencv.js (tracking assist) compiles WebAssembly in a worker
-          scriptSrc: ["'self'", "'wasm-unsafe-eval'"],
-          styleSrc: ["'self'", "'unsafe-inline'"],
-          connectSrc: ["'self'"],
-          fontSrc: ["'self'", "data:"],
-          objectSrc: ["'none'"],
-          frameAncestors: ["'none'"],
-          upgradeInsecureRequests: https ? [] : null,
-        },
-      },
-      crossOriginEmbedderPolicy: false,
-    }),
-  );
+  // helmet's headers, computed once at start-up (decision 177).
+  app.use(securityHeaders(helmetOptions(e.PUBLIC_URL.startsWith("https://"))));
 
   app.use("/api", refuseControlCharactersInUrl);
   // Cross-site writes refused on every API route, better-auth's included.

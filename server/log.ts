@@ -15,24 +15,41 @@ declare global {
   }
 }
 
+/**
+ * `req.log`: a child logger carrying the request's id, made on first use only, since most
+ * requests log nothing but their closing line (decision 177).
+ */
+export function lazyRequestLoggers(proto: object) {
+  const made = new WeakMap<object, pino.Logger>();
+  Object.defineProperty(proto, "log", {
+    configurable: true,
+    get(this: Express.Request) {
+      let l = made.get(this);
+      if (!l) made.set(this, (l = log.child({ reqId: this.id })));
+      return l;
+    },
+  });
+}
+
 /** A request id (taken from X-Request-Id when a proxy set one) on every log line and job. */
 export const requestLog: RequestHandler = (req, res, next) => {
-  const incoming = req.get("x-request-id");
-  req.id = incoming && /^[\w-]{1,64}$/.test(incoming) ? incoming : randomUUID();
-  req.log = log.child({ reqId: req.id });
-  if (incoming !== req.id) {
+  const incoming = req.headers["x-request-id"];
+  const kept = typeof incoming === "string" && /^[\w-]{1,64}$/.test(incoming);
+  req.id = kept ? incoming : randomUUID();
+  if (!kept) {
     // Handlers that rebuild headers from the raw request (the tus upload endpoint, via srvx)
     // must see the same id, so the job they queue carries it.
     req.headers["x-request-id"] = req.id;
     const raw = req.rawHeaders;
-    for (let i = raw.length - 2; i >= 0; i -= 2) if (raw[i].toLowerCase() === "x-request-id") raw.splice(i, 2);
+    if (incoming !== undefined) for (let i = raw.length - 2; i >= 0; i -= 2) if (raw[i].toLowerCase() === "x-request-id") raw.splice(i, 2);
     raw.push("X-Request-Id", req.id);
   }
   res.setHeader("X-Request-Id", req.id);
-  const t0 = process.hrtime.bigint();
-  res.on("finish", () => {
-    const ms = Number(process.hrtime.bigint() - t0) / 1e6;
-    if (req.path.startsWith("/api")) req.log.info({ method: req.method, path: req.path, status: res.statusCode, ms: Math.round(ms * 10) / 10 }, "request");
+  if (!log.isLevelEnabled("info")) return next();
+  const t0 = performance.now();
+  res.once("finish", () => {
+    if (req.originalUrl.startsWith("/api"))
+      log.info({ reqId: req.id, method: req.method, path: req.originalUrl.split("?", 1)[0], status: res.statusCode, ms: Math.round((performance.now() - t0) * 10) / 10 }, "request");
   });
   next();
 };

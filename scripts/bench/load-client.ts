@@ -30,23 +30,28 @@ export function httpClient(cookie = "") {
         res.on("end", () => resolve(res.statusCode ?? 0));
         res.on("error", reject);
       });
-      q.on("error", reject);
+      // Say whether a failed request went out on a kept-alive socket (the race with the server
+      // closing an idle one) or a new one.
+      q.on("error", (err: NodeJS.ErrnoException) => reject(Object.assign(new Error(`${err.code ?? err.message}${q.reusedSocket ? " on a reused socket" : ""}`), { cause: err })));
     });
   return { get, close: () => agent.destroy() };
 }
 
-export interface Figures { n: number; errors: number; p50: number; p95: number; p99: number; max: number; achievedRps: number }
+export interface Figures { n: number; errors: number; errorKinds: Record<string, number>; p50: number; p95: number; p99: number; max: number; achievedRps: number }
 
-export function figures(ms: number[], errors = 0, seconds = 0): Figures {
+export function figures(ms: number[], errorKinds: Record<string, number> = {}, seconds = 0): Figures {
   const s = [...ms].sort((a, b) => a - b);
   const q = (p: number) => (s.length ? quantileSorted(s, p) : NaN);
-  return { n: ms.length, errors, p50: q(0.5), p95: q(0.95), p99: q(0.99), max: s.at(-1) ?? NaN, achievedRps: seconds ? ms.length / seconds : NaN };
+  const errors = Object.values(errorKinds).reduce((a, b) => a + b, 0);
+  return { n: ms.length, errors, errorKinds, p50: q(0.5), p95: q(0.95), p99: q(0.99), max: s.at(-1) ?? NaN, achievedRps: seconds ? ms.length / seconds : NaN };
 }
 
-export async function openLoop(o: { rate: number; seconds: number; timeoutMs: number; request: (i: number, signal: AbortSignal) => Promise<boolean> }): Promise<Figures> {
+/** `request` answers true for a good answer, or false or a short reason ("status 503") for a bad one. */
+export async function openLoop(o: { rate: number; seconds: number; timeoutMs: number; request: (i: number, signal: AbortSignal) => Promise<boolean | string> }): Promise<Figures> {
   const total = Math.round(o.rate * o.seconds);
   const ms: number[] = [];
-  let errors = 0;
+  const errorKinds: Record<string, number> = {};
+  const failed = (kind: string) => (errorKinds[kind] = (errorKinds[kind] ?? 0) + 1);
   const t0 = performance.now() + 50;
   const inflight: Promise<void>[] = [];
   for (let i = 0; i < total; i++) {
@@ -57,17 +62,17 @@ export async function openLoop(o: { rate: number; seconds: number; timeoutMs: nu
       o.request(i, AbortSignal.timeout(o.timeoutMs)).then(
         (ok) => {
           ms.push(performance.now() - planned);
-          if (!ok) errors++;
+          if (ok !== true) failed(ok === false ? "not 200" : ok);
         },
-        () => {
+        (err: Error) => {
           ms.push(performance.now() - planned);
-          errors++;
+          failed(err.name === "TimeoutError" || err.name === "AbortError" ? "timed out" : err.message);
         },
       ),
     );
   }
   await Promise.all(inflight);
-  return figures(ms, errors, (performance.now() - t0) / 1000);
+  return figures(ms, errorKinds, (performance.now() - t0) / 1000);
 }
 
 /** The same work one at a time, for the raw baseline. */
@@ -82,4 +87,4 @@ export async function sequential(n: number, fn: (i: number) => Promise<unknown>)
 }
 
 export const fmt = (f: Figures) =>
-  `n=${f.n}${f.errors ? ` errors=${f.errors}` : ""} p50 ${f.p50.toFixed(1)} ms  p95 ${f.p95.toFixed(1)} ms  p99 ${f.p99.toFixed(1)} ms  max ${f.max.toFixed(1)} ms${Number.isNaN(f.achievedRps) ? "" : `  (${f.achievedRps.toFixed(0)} req/s)`}`;
+  `n=${f.n}${f.errors ? ` errors=${f.errors} (${Object.entries(f.errorKinds).map(([k, n]) => `${n}× ${k}`).join(", ")})` : ""} p50 ${f.p50.toFixed(1)} ms  p95 ${f.p95.toFixed(1)} ms  p99 ${f.p99.toFixed(1)} ms  max ${f.max.toFixed(1)} ms${Number.isNaN(f.achievedRps) ? "" : `  (${f.achievedRps.toFixed(0)} req/s)`}`;

@@ -176,7 +176,10 @@ try {
   const player = seeded.players[0];
   const sorts = ["created", "title", "player", "status"] as const;
   let client = httpClient(cookie);
-  const get = (u: string) => async (signal: AbortSignal) => (await client.get(u, signal)) === 200;
+  const get = (u: string) => async (signal: AbortSignal) => {
+    const status = await client.get(u, signal);
+    return status === 200 || `status ${status}`;
+  };
   interface Scenario { name: string; rate: number; seconds: number; http: (i: number) => string; raw?: (i: number) => Promise<unknown> }
   // What people do all day, at 200 requests/s with one and with two web processes.
   const busy: Scenario[] = [
@@ -305,7 +308,7 @@ try {
   console.log(`  uploads: ${matching}/${UPLOADS} checksums match`);
   console.log(`  bare Express @ ${RATE}/s: p50 ${bareFig.p50.toFixed(1)} / p95 ${bareFig.p95.toFixed(1)} / p99 ${bareFig.p99.toFixed(1)} ms, CPU ${bareCpu.toFixed(2)} ms a request`);
   for (const t of table)
-    console.log(`  ${t.name} @ ${t.rate}/s, ${t.procs} process${t.procs > 1 ? "es" : ""}: p50 ${t.api.p50.toFixed(1)} / p95 ${t.api.p95.toFixed(1)} / p99 ${t.api.p99.toFixed(1)} ms; CPU ${t.cpu.toFixed(2)} ms a request (×${(t.cpu / bareCpu).toFixed(1)} bare)${t.raw ? `; SQL alone p50 ${t.raw.p50.toFixed(1)} / p95 ${t.raw.p95.toFixed(1)} ms` : ""}${t.api.errors ? `; ${t.api.errors} errors` : ""}`);
+    console.log(`  ${t.name} @ ${t.rate}/s, ${t.procs} process${t.procs > 1 ? "es" : ""}: p50 ${t.api.p50.toFixed(1)} / p95 ${t.api.p95.toFixed(1)} / p99 ${t.api.p99.toFixed(1)} ms; CPU ${t.cpu.toFixed(2)} ms a request (×${(t.cpu / bareCpu).toFixed(1)} bare)${t.raw ? `; SQL alone p50 ${t.raw.p50.toFixed(1)} / p95 ${t.raw.p95.toFixed(1)} ms` : ""}${t.api.errors ? `; ${t.api.errors} errors (${Object.entries(t.api.errorKinds).map(([k, n]) => `${n}× ${k}`).join(", ")})` : ""}`);
   console.log(`  /api/health while 10 PDFs render: p50 ${underPdf.p50.toFixed(1)} / p95 ${underPdf.p95.toFixed(1)} / p99 ${underPdf.p99.toFixed(1)} ms (${pdfs} reports)`);
   console.log(`  total ${((Date.now() - t0) / 1000).toFixed(0)} s; load average ${load()} at the end (${os.cpus().length} cores)`);
   client.close();

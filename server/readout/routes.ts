@@ -1,6 +1,7 @@
 import { Router, type Request, type Response } from "express";
 import { actorOf } from "../auth/context";
 import { parse } from "../http/validate";
+import { sendJsonText } from "../http/json-answer";
 import { CompareQuery, ExportQuery, ProgressQuery, PublishShotBody, ReviewSettings, ShareShotBody, ShotListPageQuery } from "../../shared/schemas/readout";
 import type { FileAnswer } from "./exports";
 import { marksExport, reportExport, resultsExport } from "./exports";
@@ -21,7 +22,10 @@ function sendFile(res: Response, f: FileAnswer) {
 }
 
 readoutRouter.get("/readout/shots", async (req, res) => void res.json(await svc.listShots(actorOf(req), parse(ShotListPageQuery, req.query))));
-readoutRouter.get("/readout/shots/:shotId", async (req, res) => void res.type("json").send(await svc.readoutJson(actorOf(req), shotId(req))));
+readoutRouter.get("/readout/shots/:shotId", async (req, res) => {
+  const { text, tag } = await svc.readoutJson(actorOf(req), shotId(req));
+  sendJsonText(res, text, tag);
+});
 readoutRouter.get("/readout/compare", async (req, res) => void res.json(await svc.compare(actorOf(req), parse(CompareQuery, req.query))));
 readoutRouter.get("/readout/players", async (req, res) => void res.json(await svc.players(actorOf(req))));
 readoutRouter.get("/readout/progress", async (req, res) => void res.json(await svc.progress(actorOf(req), parse(ProgressQuery, req.query))));

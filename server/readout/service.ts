@@ -15,6 +15,7 @@ import { shotAccess } from "../entities/shot/visibility";
 import { mostCommonType, progressPoints, summarise } from "./progress";
 import * as memberRepo from "../entities/member/repository";
 import { isUuid } from "../http/ids";
+import { weakTagOf } from "../http/json-answer";
 import * as repo from "../entities/shot/readout";
 
 
@@ -30,7 +31,7 @@ function shareRows(rows: Awaited<ReturnType<typeof repo.sharesOf>>): ShareRow[] 
 /** A shot the actor may see with its shares, else 404 (410 for staff when the audit log says it was deleted). */
 export async function visibleShot(a: Actor, shotId: string, which = "That shot", o: { marks?: "always"; resultsAsText?: true } = {}) {
   if (!isUuid(shotId)) throw shotNotFound(which);
-  const row: (repo.ReadoutRow & { resultsText?: string | null }) | null = o.resultsAsText ? await repo.shotTextById(a.teamId, shotId) : await repo.shotById(a.teamId, shotId, { marks: o.marks });
+  const row: (repo.ReadoutRow & { resultsText?: string | null; resultsHash?: string }) | null = o.resultsAsText ? await repo.shotTextById(a.teamId, shotId) : await repo.shotById(a.teamId, shotId, { marks: o.marks });
   if (!row) {
     const gone = isStaff(a) ? await repo.shotDeletion(a.teamId, shotId) : null;
     if (gone)
@@ -64,10 +65,13 @@ export async function getReadout(a: Actor, shotId: string): Promise<ShotReadout>
  * are most of the answer (tens of kB), and parsing and serialising them again was the route's
  * largest CPU cost (decision 175).
  */
-export async function readoutJson(a: Actor, shotId: string): Promise<string> {
+export async function readoutJson(a: Actor, shotId: string): Promise<{ text: string; tag: string }> {
   const v = await visibleShot(a, shotId, "That shot", { resultsAsText: true });
   const { results: _none, ...rest } = await toReadout(a, v);
-  return `${JSON.stringify(rest).slice(0, -1)},"results":${v.row.resultsText ?? "null"}}`;
+  const head = JSON.stringify(rest).slice(0, -1);
+  const text = `${head},"results":${v.row.resultsText ?? "null"}}`;
+  // Its validator from the head and the results' hash, which the shape check already took.
+  return { text, tag: weakTagOf(text.length, head, v.row.resultsHash ?? "") };
 }
 
 export async function listShots(a: Actor, q: z.output<typeof ShotListPageQuery>): Promise<ShotListResponse> {

@@ -294,3 +294,78 @@ describe("progress", () => {
     expect(self.map((p: { id: string }) => p.id)).toEqual([uid(EMAILS.player2)]);
   });
 });
+
+// API JSON is written in one piece with a weak ETag (server/http/json-answer.ts, decision 177):
+// a client holding the current copy gets 304 and no body, any change of the answer a new tag,
+// Content-Length counts bytes (not characters), HEAD sends no body.
+// As a browser revalidates its cached copy. (fetch() given If-None-Match alone adds
+// "Cache-Control: no-cache", which asks for a full answer: WHATWG Fetch, HTTP-network-or-cache fetch.)
+const ifNoneMatch = (p: string, tag: string) => coach.request("GET", p, undefined, { headers: { "if-none-match": tag, "cache-control": "max-age=0" } });
+
+describe("JSON answers: one write, a weak ETag, 304 while current", () => {
+  it("one shot's readout: 304 while current; a new tag when the shot or its stored results change", async () => {
+    const { db } = await import("../../server/db/client");
+    const { shot, shotResult } = await import("../../server/db/schema");
+    const { eq } = await import("drizzle-orm");
+    const s = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Tir du poignet — élan" });
+    const p = `${R()}/shots/${s.shotId}`;
+    const first = await coach.get(p);
+    expect(first.status).toBe(200);
+    const tag = first.headers.get("etag")!;
+    expect(tag).toMatch(/^W\/"[0-9a-f]+-[\w-]+"$/);
+    expect(Number(first.headers.get("content-length"))).toBe(Buffer.byteLength(first.text));
+    expect(first.json.shot.label).toBe("Tir du poignet — élan");
+
+    const again = await ifNoneMatch(p, tag);
+    expect(again.status).toBe(304);
+    expect(again.text).toBe("");
+    expect(again.headers.get("etag")).toBe(tag);
+
+    const head = await coach.request("HEAD", p);
+    expect(head.status).toBe(200);
+    expect(head.text).toBe("");
+    expect(head.headers.get("etag")).toBe(tag);
+    expect(head.headers.get("content-length")).toBe(first.headers.get("content-length"));
+
+    // The shot renamed (outside the results): a new tag, the new answer.
+    await db().update(shot).set({ label: "Renamed" }).where(eq(shot.id, s.shotId));
+    const renamed = await ifNoneMatch(p, tag);
+    expect(renamed.status).toBe(200);
+    expect(renamed.json.shot.label).toBe("Renamed");
+    const tag2 = renamed.headers.get("etag")!;
+    expect(tag2).not.toBe(tag);
+
+    // Only the stored results changed, to a value of the same length: still a new tag.
+    const v = s.results!.puckExitSpeed.valueMps;
+    const nudged = Number((v + (v >= 10 ? -1 : 1)).toFixed(String(v).split(".")[1]?.length ?? 0));
+    await db().update(shotResult).set({ results: { ...s.results!, puckExitSpeed: { ...s.results!.puckExitSpeed, valueMps: nudged } } }).where(eq(shotResult.shotId, s.shotId));
+    const recomputed = await ifNoneMatch(p, tag2);
+    expect(recomputed.status).toBe(200);
+    expect(recomputed.json.results.puckExitSpeed.valueMps).toBe(nudged);
+    expect(recomputed.headers.get("etag")).not.toBe(tag2);
+  });
+
+  it("the clip list (res.json): 304 while current, 200 with the new list after a change; writes carry no tag", async () => {
+    const p = `/api/teams/${world.teamId}/clips?page=1&pageSize=25`;
+    const first = await coach.get(p);
+    expect(first.status).toBe(200);
+    expect(first.headers.get("content-type")).toBe("application/json; charset=utf-8");
+    const tag = first.headers.get("etag")!;
+    expect(tag).toBeTruthy();
+    expect(Number(first.headers.get("content-length"))).toBe(Buffer.byteLength(first.text));
+    expect((await ifNoneMatch(p, tag)).status).toBe(304);
+
+    const clipId = first.json.items[0].id;
+    const patched = await coach.patch(`/api/teams/${world.teamId}/clips/${clipId}`, { title: "Renommé ✓" });
+    expect(patched.status, patched.text).toBe(200);
+    expect(patched.headers.get("etag")).toBeNull();
+    const after = await ifNoneMatch(p, tag);
+    expect(after.status).toBe(200);
+    expect(after.json.items.find((c: { id: string }) => c.id === clipId).title).toBe("Renommé ✓");
+
+    // A problem answer keeps its own type and no tag.
+    const missing = await coach.get(`/api/teams/${world.teamId}/clips/00000000-0000-4000-8000-000000000000`);
+    expect(missing.status).toBe(404);
+    expect(missing.headers.get("content-type")).toMatch(/^application\/problem\+json/);
+  });
+});

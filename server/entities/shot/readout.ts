@@ -116,7 +116,7 @@ export async function shotTextById(teamId: string, shotId: string) {
   const key = text === null ? "" : createHash("sha1").update(text).digest("base64");
   let ok = text === null ? false : shapeChecked.get(key);
   if (ok === undefined) shapeChecked.set(key, (ok = fullResults(JSON.parse(text!)) !== null));
-  return { ...typed(row), results: null, resultsText: ok ? text : null, marks: row.marks as ShotMarks | null };
+  return { ...typed(row), results: null, resultsText: ok ? text : null, resultsHash: ok ? key : "", marks: row.marks as ShotMarks | null };
 }
 
 /** The shots of the actor's team that the actor may see (entities/shot/visibility.ts), filtered. */
