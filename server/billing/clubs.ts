@@ -3,12 +3,13 @@
 import { randomBytes } from "node:crypto";
 import { FREE_PLAN, type PlanId } from "../../shared/billing/plans";
 import * as repo from "../entities/club/repository";
+import { teamName } from "../entities/team/repository";
 
 /** The team's club; a team made outside any club gets a club of its own on the free plan. */
 export async function clubFor(teamId: string): Promise<repo.ClubRow> {
   const found = await repo.clubOfTeam(teamId);
   if (found) return found;
-  const made = await repo.createClub({ name: (await repo.teamName(teamId)) ?? "Club", plan: FREE_PLAN });
+  const made = await repo.createClub({ name: (await teamName(teamId)) ?? "Club", plan: FREE_PLAN });
   await repo.addTeamToClub(made.id, teamId);
   const mine = await repo.clubOfTeam(teamId);
   // Two requests raced: keep the club that won, drop ours.

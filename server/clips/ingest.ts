@@ -18,6 +18,7 @@ import { sequenceZipToVideo, type SequenceFacts } from "./sequence/to-video";
 import { mediaConfig, storage } from "./deps";
 import * as memberRepo from "../entities/member/repository";
 import * as repo from "../entities/clip/repository";
+import { stickInTeam } from "../entities/stick/repository";
 
 /** A problem with extra members in its body (e.g. the existing clip of a duplicate). */
 export class ClipProblem extends HttpError {
@@ -32,7 +33,7 @@ const fieldProblem = (path: string, message: string) => new HttpError(422, "vali
 export async function checkMetaRefs(teamId: string, m: Pick<ClipMeta, "playerId" | "sessionId" | "stickId">) {
   if (!(await memberRepo.isPlayerOf(teamId, m.playerId))) throw fieldProblem("playerId", "Pick a player of this team");
   if (m.sessionId && !(await repo.sessionInTeam(teamId, m.sessionId))) throw fieldProblem("sessionId", "That session is not in this team");
-  if (m.stickId && !(await repo.stickInTeam(teamId, m.stickId))) throw fieldProblem("stickId", "That stick is not in this team");
+  if (m.stickId && !(await stickInTeam(teamId, m.stickId))) throw fieldProblem("stickId", "That stick is not in this team");
 }
 
 /** What the probe says about the file's rates. */

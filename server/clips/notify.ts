@@ -5,7 +5,8 @@ import { sendMail } from "../mail/mailer";
 import { clipFailedMail, clipReadyMail } from "../mail/clip-templates";
 import { getPrefs } from "../entities/user/prefs";
 import { needsCaptureRateConfirmation } from "../../shared/schemas/clips";
-import { userContact, type ClipRow } from "../entities/clip/repository";
+import type { ClipRow } from "../entities/clip/repository";
+import { userContact } from "../entities/user/account";
 
 export async function notifyClipDone(c: ClipRow): Promise<void> {
   if (!c.uploadedBy) return;

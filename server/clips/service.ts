@@ -14,6 +14,7 @@ import * as memberRepo from "../entities/member/repository";
 import { countClipShotsOf } from "../entities/shot/players";
 import { isUuid } from "../http/ids";
 import * as repo from "../entities/clip/repository";
+import * as stickRepo from "../entities/stick/repository";
 
 const clipNotFound = () => notFound("That clip");
 
@@ -38,8 +39,8 @@ async function editableClip(a: Actor, id: string, allowed: (a: Actor, c: { teamI
 
 export async function options(a: Actor): Promise<ClipOptions> {
   if (!policy.uploadClip(a)) throw forbidden("Your role in this team does not allow uploading clips.");
-  const [sessions, players, sticks] = await Promise.all([repo.sessionsOf(a.teamId), memberRepo.playersOf(a.teamId), repo.sticksOf(a.teamId)]);
-  return { sessions, players, sticks };
+  const [sessions, players, sticks] = await Promise.all([repo.sessionsOf(a.teamId), memberRepo.playersOf(a.teamId), stickRepo.sticksOf(a.teamId)]);
+  return { sessions, players, sticks: sticks.map(({ stick: s }) => ({ id: s.id, label: s.label, ownerId: s.ownerId })) };
 }
 
 export async function list(a: Actor, q: z.output<typeof ClipListQuerySchema>): Promise<ClipPage> {

@@ -3,7 +3,7 @@ import { pingDatabase } from "../db/client";
 import { readinessChecks } from "./checks";
 import { isDraining } from "./draining";
 import { readSession } from "../auth/context";
-import { isAdminAnywhere } from "../entities/user/account";
+import { isAdminAnywhere } from "../entities/member/repository";
 
 const LOOPBACK = /^(127\.\d+\.\d+\.\d+|::1|::ffff:127\.\d+\.\d+\.\d+)$/;
 

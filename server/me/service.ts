@@ -3,7 +3,8 @@ import type { SignedIn } from "../auth/context";
 import { HttpError, notFound } from "../http/problem";
 import { isDatabaseDown } from "../http/database-down";
 import { parseRole, type MeResponse, type Prefs } from "../../shared/schemas/roster";
-import { getPrefs, savePrefs, teamsOf } from "../entities/user/prefs";
+import { getPrefs, savePrefs } from "../entities/user/prefs";
+import { teamsOf } from "../entities/member/repository";
 
 export async function me(s: SignedIn): Promise<MeResponse> {
   const rows = await teamsOf(s.user.id);

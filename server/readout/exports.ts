@@ -8,7 +8,7 @@ import type { UnitSystem } from "../../shared/units";
 import { marksCsv, resultsCsv } from "./csv";
 import { shotClockOf } from "./present";
 import { eventThumbs, renderShotReport } from "./pdf/render";
-import * as repo from "../entities/shot/readout";
+import { teamName } from "../entities/team/repository";
 import { getReadout, resultsOrThrow, visibleShot } from "./service";
 import { shotDate } from "../entities/shot/date";
 
@@ -56,7 +56,7 @@ export async function reportExport(a: Actor, shotId: string, asked?: UnitSystem)
   resultsOrThrow(r);
   const units = await unitsFor(a, asked);
   const body = await renderShotReport({
-    readout: r, units, teamName: await repo.teamName(a.teamId), url: env().PUBLIC_URL + readoutPath(shotId, a.teamId), generatedAt: new Date(),
+    readout: r, units, teamName: (await teamName(a.teamId)) ?? "your team", url: env().PUBLIC_URL + readoutPath(shotId, a.teamId), generatedAt: new Date(),
     thumbs: await eventThumbs(r),
   });
   return { filename: `${fileStem(shotTitle(r.shot), shotId)}-report.pdf`, contentType: "application/pdf", body };

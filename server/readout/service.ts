@@ -17,6 +17,8 @@ import * as memberRepo from "../entities/member/repository";
 import { isUuid } from "../http/ids";
 import { weakTagOf } from "../http/json-answer";
 import * as repo from "../entities/shot/readout";
+import { teamSettingsOf } from "../entities/team/repository";
+import { latestAuditEntry } from "../entities/audit/repository";
 
 
 const shotNotFound = (which = "That shot") =>
@@ -33,7 +35,7 @@ export async function visibleShot(a: Actor, shotId: string, which = "That shot",
   if (!isUuid(shotId)) throw shotNotFound(which);
   const row: (repo.ReadoutRow & { resultsText?: string | null; resultsHash?: string }) | null = o.resultsAsText ? await repo.shotTextById(a.teamId, shotId) : await repo.shotById(a.teamId, shotId, { marks: o.marks });
   if (!row) {
-    const gone = isStaff(a) ? await repo.shotDeletion(a.teamId, shotId) : null;
+    const gone = isStaff(a) ? await latestAuditEntry(a.teamId, "shot.deleted", shotId) : null;
     if (gone)
       throw new HttpError(410, "shot_deleted", `${which} was deleted on ${gone.at.toISOString().slice(0, 10)}${gone.byName ? ` by ${gone.byName}` : ""}; its marks and results are gone.`);
     throw shotNotFound(which);
@@ -148,13 +150,14 @@ export async function progress(a: Actor, q: ProgressQuery): Promise<ProgressResp
 }
 
 export async function reviewSettings(a: Actor): Promise<ReviewSettings> {
-  return repo.reviewSettings(a.teamId);
+  const { autoPublish } = await teamSettingsOf(a.teamId);
+  return { autoPublish };
 }
 
 export async function updateReviewSettings(a: Actor, body: ReviewSettings): Promise<ReviewSettings> {
   if (!policy.manageTeamSettings(a)) throw forbidden("Only a team admin decides whether shots wait for a coach's review.");
   await repo.setAutoPublish(a.teamId, body.autoPublish);
-  return repo.reviewSettings(a.teamId);
+  return reviewSettings(a);
 }
 
 /** The shot's results or a 409 that says what is still missing (exports need numbers). */

@@ -15,6 +15,7 @@ import type { ShotResults } from "../../shared/schemas/shot-results";
 import { shotDate } from "../entities/shot/date";
 import * as memberRepo from "../entities/member/repository";
 import * as repo from "../entities/shot/readout";
+import { teamName } from "../entities/team/repository";
 import { invalid, visibleShot } from "./service";
 
 type Member = Awaited<ReturnType<typeof memberRepo.teamMembers>>[number];
@@ -29,7 +30,7 @@ async function tell(a: Actor, v: Visible, to: Member, sharerName: string): Promi
   try {
     await sendMail(
       shotSharedMail({
-        to: to.email, name: to.name, sharerName, teamName: await repo.teamName(a.teamId), shotTitle: titleOf(v.row), ownShot: to.userId === v.row.playerId,
+        to: to.email, name: to.name, sharerName, teamName: (await teamName(a.teamId)) ?? "your team", shotTitle: titleOf(v.row), ownShot: to.userId === v.row.playerId,
         headline: headline(v.row.results, prefs.units),
         url: env().PUBLIC_URL + readoutPath(v.row.id, a.teamId),
         settingsUrl: `${env().PUBLIC_URL}/settings`,

@@ -3,7 +3,8 @@ import type { SignedIn } from "../auth/context";
 import { policy, type Actor } from "../auth/policy";
 import { recordAudit } from "../entities/audit/repository";
 import { createAccount } from "../auth/accounts";
-import { deleteUser, markEmailVerified } from "../entities/user/account";
+import { deleteUser, markEmailVerified, userContact, userIdByEmail } from "../entities/user/account";
+import { teamMembers } from "../entities/member/repository";
 import { mergeSetCookies, viaAuth } from "../http/better-auth-errors";
 import { forbidden, HttpError, notFound } from "../http/problem";
 import { type InvitationPublic, type Role, type RosterResponse } from "../../shared/schemas/roster";
@@ -19,7 +20,7 @@ function requireAdmin(a: Actor) {
 
 export async function roster(a: Actor): Promise<RosterResponse> {
   if (!policy.viewMembers(a)) throw forbidden("Players cannot see the roster.");
-  const members = (await repo.membersOf(a.teamId)).map((m) => ({ ...m, role: asRole(m.role), joinedAt: m.joinedAt.toISOString() }));
+  const members = (await teamMembers(a.teamId)).map((m) => ({ ...m, joinedAt: m.joinedAt.toISOString() }));
   const invitations = policy.manageRoster(a)
     ? (await repo.pendingInvitationsOf(a.teamId)).map((i) => ({ ...i, role: asRole(i.role), expiresAt: i.expiresAt.toISOString() }))
     : [];
@@ -73,7 +74,7 @@ export async function changeRole(a: Actor, memberId: string, role: Role) {
   requireAdmin(a);
   return withSeatLock(a.teamId, () => repo.changeMembership(a.teamId, async (members, tx) => {
     const m = guardLastAdmin(members, memberId, role);
-    await assertStaffSeat(a.teamId, await repo.emailOfUser(m.userId), role);
+    await assertStaffSeat(a.teamId, (await userContact(m.userId))?.email ?? "", role);
     await repo.setMemberRole(tx, memberId, role);
     return {
       result: { id: memberId, role },
@@ -87,7 +88,7 @@ export async function removeMember(a: Actor, memberId: string) {
   await repo.changeMembership(a.teamId, async (members, tx) => {
     const m = guardLastAdmin(members, memberId, null);
     // The name, e-mail and role as they were: once removed, the log is the only place that keeps them.
-    const who = await repo.personOf(tx, m.userId);
+    const who = await userContact(m.userId, tx);
     await repo.deleteMember(tx, memberId);
     return {
       result: undefined,
@@ -111,7 +112,7 @@ export async function publicInvitation(id: string): Promise<InvitationPublic> {
   const inv = await openInvitation(id);
   return {
     id: inv.id, email: inv.email, teamName: inv.teamName, role: asRole(inv.role), inviterName: inv.inviterName,
-    status: inv.status, expiresAt: inv.expiresAt.toISOString(), hasAccount: await repo.userExists(inv.email),
+    status: inv.status, expiresAt: inv.expiresAt.toISOString(), hasAccount: (await userIdByEmail(inv.email)) !== null,
   };
 }
 
@@ -130,7 +131,7 @@ export async function acceptInvitation(id: string, signedIn: SignedIn | null, he
       throw new HttpError(403, "wrong_account", `This invitation is for ${inv.email}. Sign out and open the link again.`);
     userId = signedIn.user.id;
   } else {
-    if (await repo.userExists(inv.email)) throw new HttpError(409, "account_exists", `An account for ${inv.email} exists. Sign in, then open the link again.`);
+    if ((await userIdByEmail(inv.email)) !== null) throw new HttpError(409, "account_exists", `An account for ${inv.email} exists. Sign in, then open the link again.`);
     if (!body.name || !body.password)
       throw new HttpError(422, "validation_failed", "Enter your name and a password.", [
         ...(!body.name ? [{ path: "name", message: "Enter your name" }] : []),

@@ -6,6 +6,7 @@ import { toShotDocument, type StoredResult } from "../../shared/schemas/shots";
 import { shotStickInfo } from "../entities/stick/stiffness";
 import { canQueueRecompute, sendRecompute, type RecomputeTarget } from "../jobs/recompute-queue";
 import * as repo from "../entities/shot/repository";
+import { shotIdsWithStick } from "../entities/stick/repository";
 
 // The stored, authoritative results of a shot. Called whenever marks, events, the clip's
 // calibration or the stick (or its bench tests) change. Each run re-reads the latest state under a
@@ -74,7 +75,7 @@ export async function recomputeOutdatedResults(limit = 200): Promise<number> {
 /** The shots a recompute target covers, as they are now. */
 async function shotsOf(t: RecomputeTarget): Promise<string[]> {
   if (t.scope === "clip") return repo.shotIdsOfClip(t.id);
-  if (t.scope === "stick") return repo.shotIdsOfStick(t.id);
+  if (t.scope === "stick") return shotIdsWithStick(t.id);
   return [t.id];
 }
 

@@ -12,6 +12,7 @@ import { VersionConflictError } from "./conflict";
 import * as memberRepo from "../entities/member/repository";
 import { isUuid } from "../http/ids";
 import * as repo from "../entities/shot/repository";
+import { stickInTeam, stickLabel } from "../entities/stick/repository";
 import { recomputeLater, recomputeShot, toStoredResult } from "./results";
 import { shotStickInfo } from "../entities/stick/stiffness";
 
@@ -98,7 +99,7 @@ export async function listShots(a: Actor, clipId: string): Promise<ClipShots> {
 
 async function checkPeople(a: Actor, playerId: string | null | undefined, stickId: string | null | undefined) {
   if (playerId && !(await memberRepo.isMember(a.teamId, playerId))) throw invalid("playerId", "that player is not a member of this team");
-  if (stickId && !(await repo.stickInTeam(a.teamId, stickId))) throw invalid("stickId", "that stick is not one of this team's sticks");
+  if (stickId && !(await stickInTeam(a.teamId, stickId))) throw invalid("stickId", "that stick is not one of this team's sticks");
 }
 
 function checkRange(frameStart: number, frameEnd: number, frameCount: number) {
@@ -158,7 +159,7 @@ export async function updateShot(a: Actor, shotId: string, b: UpdateShotBody): P
   const p = marksProblem(s.marks, s.events, boxOf(c, { frameStart, frameEnd }));
   if (p) throw invalid(b.frameStart !== undefined ? "frameStart" : "frameEnd", `the new frame range leaves marks outside it: ${p.message}`);
   await checkPeople(a, b.playerId, b.stickId);
-  await repo.updateShotMeta(shotId, b, reassignEntry(a, s, b, b.stickId ? await repo.stickLabel(a.teamId, b.stickId) : null));
+  await repo.updateShotMeta(shotId, b, reassignEntry(a, s, b, b.stickId ? await stickLabel(a.teamId, b.stickId) : null));
   if (b.stickId !== undefined || b.frameStart !== undefined || b.frameEnd !== undefined) await recomputeShot(shotId);
   return detail(a, (await repo.shotById(a.teamId, shotId))!);
 }

@@ -10,7 +10,7 @@ import { HttpError, notFound } from "../http/problem";
 import { mergeSetCookies, viaAuth } from "../http/better-auth-errors";
 import { sendMail } from "../mail/mailer";
 import { createAccount } from "../auth/accounts";
-import { deleteUser } from "../entities/user/account";
+import { deleteUser, userIdByEmail } from "../entities/user/account";
 import { signupExistingMail, signupMail } from "../mail/templates";
 import { createClubWithTeam } from "../billing/clubs";
 import type { SignupComplete } from "../../shared/schemas/signup";
@@ -30,7 +30,7 @@ export async function requestSignup(email: string) {
   }
   const token = randomBytes(32).toString("base64url");
   await repo.createRequest(email, hashOf(token), new Date(Date.now() + SIGNUP_LINK_TTL_MS));
-  const mail = (await repo.userIdByEmail(email))
+  const mail = (await userIdByEmail(email))
     ? signupExistingMail({ to: email, url: `${e.PUBLIC_URL}/sign-in` })
     : signupMail({ to: email, url: `${e.PUBLIC_URL}/sign-up/${token}` });
   await sendMail(mail);
@@ -52,7 +52,7 @@ export async function signupLink(token: string) {
 /** Creates the verified account, the club and its first team; returns the cookies that sign in. */
 export async function completeSignup(token: string, body: SignupComplete) {
   const r = await openRequest(token);
-  if (await repo.userIdByEmail(r.email)) throw new HttpError(409, "account_exists", `An account for ${r.email} exists. Sign in instead.`);
+  if (await userIdByEmail(r.email)) throw new HttpError(409, "account_exists", `An account for ${r.email} exists. Sign in instead.`);
   // The link proved the address: the account starts verified (the one door, server/auth/accounts.ts).
   const { userId, setCookies } = await createAccount({ email: r.email, name: body.name, password: body.password, emailVerified: true, signIn: true });
   if (!(await repo.consumeRequest(r.id))) {

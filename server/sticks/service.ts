@@ -16,9 +16,10 @@ import { StickCreateSchema } from "../../shared/schemas/sticks";
 import { presentBenchTest, presentStick } from "./present";
 import * as memberRepo from "../entities/member/repository";
 import * as repo from "../entities/stick/repository";
+import { setFlexAlertPercent, teamSettingsOf } from "../entities/team/repository";
 import { stickStiffnessChanged } from "./stiffness";
 
-export const flexAlertPercent = async (teamId: string) => (await repo.flexAlertPercentOf(teamId)) ?? DEFAULT_FLEX_ALERT_PERCENT;
+export const flexAlertPercent = async (teamId: string) => (await teamSettingsOf(teamId)).flexAlertPercent ?? DEFAULT_FLEX_ALERT_PERCENT;
 
 /** The stick if the actor may see it; 404 otherwise (a player asking for another's stick learns nothing). */
 export async function visibleStick(a: Actor, stickId: string) {
@@ -108,7 +109,7 @@ export async function updateStick(a: Actor, stickId: string, patch: StickPatch):
 
 export async function deleteStick(a: Actor, stickId: string): Promise<void> {
   const { stick } = await editableStick(a, stickId);
-  const shotIds = await repo.shotIdsWithStick(a.teamId, stickId);
+  const shotIds = await repo.shotIdsWithStick(stickId, a.teamId);
   await repo.deleteStick(a.teamId, stickId);
   await stickStiffnessChanged(a.teamId, stickId, shotIds);
   await recordAudit({ teamId: a.teamId, actorId: a.userId, action: "stick.deleted", targetType: "stick", targetId: stickId, detail: { label: stick.label } });
@@ -116,6 +117,6 @@ export async function deleteStick(a: Actor, stickId: string): Promise<void> {
 
 export async function updateSettings(a: Actor, body: StickSettings): Promise<StickSettings> {
   if (!policy.manageTeamSettings(a)) throw forbidden("Only a team admin can change the flex alert level.");
-  await repo.setFlexAlertPercent(a.teamId, body.flexAlertPercent);
+  await setFlexAlertPercent(a.teamId, body.flexAlertPercent);
   return { flexAlertPercent: body.flexAlertPercent };
 }

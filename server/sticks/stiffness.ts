@@ -29,7 +29,7 @@ export interface StiffnessChange {
  * the old stiffness, so they are recomputed on the job queue. Never fails the caller's request.
  */
 export async function stickStiffnessChanged(teamId: string, stickId: string, shotIds?: string[], reqId?: string): Promise<StiffnessChange> {
-  const change = { teamId, stickId, shotIds: shotIds ?? (await repo.shotIdsWithStick(teamId, stickId)) };
+  const change = { teamId, stickId, shotIds: shotIds ?? (await repo.shotIdsWithStick(stickId, teamId)) };
   const targets: RecomputeTarget[] = shotIds ? shotIds.map((id) => ({ scope: "shot", id })) : [{ scope: "stick", id: stickId }];
   for (const t of targets) {
     try {

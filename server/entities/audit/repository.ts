@@ -1,4 +1,4 @@
-import { desc, eq } from "drizzle-orm";
+import { and, desc, eq } from "drizzle-orm";
 import { db } from "../../db/client";
 import { auditLog, user } from "../../db/schema";
 
@@ -26,4 +26,16 @@ export async function listAudit(teamId: string, limit = 200) {
     .where(eq(auditLog.teamId, teamId))
     .orderBy(desc(auditLog.createdAt))
     .limit(limit);
+}
+
+/** When and by whom the latest `action` on this target of the team happened; null if never. */
+export async function latestAuditEntry(teamId: string, action: AuditAction, targetId: string) {
+  const [row] = await db()
+    .select({ at: auditLog.createdAt, byName: user.name })
+    .from(auditLog)
+    .leftJoin(user, eq(user.id, auditLog.actorId))
+    .where(and(eq(auditLog.teamId, teamId), eq(auditLog.action, action), eq(auditLog.targetId, targetId)))
+    .orderBy(desc(auditLog.createdAt))
+    .limit(1);
+  return row ?? null;
 }

@@ -180,20 +180,6 @@ export async function findOrCreateSession(teamId: string, s: { date: string; ven
   });
 }
 
-export async function sticksOf(teamId: string) {
-  return db().select({ id: stick.id, label: stick.label, ownerId: stick.ownerId }).from(stick).where(eq(stick.teamId, teamId)).orderBy(stick.label);
-}
-
-export async function stickInTeam(teamId: string, id: string) {
-  const [row] = await db().select({ id: stick.id }).from(stick).where(and(eq(stick.teamId, teamId), eq(stick.id, id)));
-  return row ?? null;
-}
-
-export async function userContact(userId: string) {
-  const [row] = await db().select({ email: user.email, name: user.name }).from(user).where(eq(user.id, userId));
-  return row ?? null;
-}
-
 // --- repair (clip.sweep) ----------------------------------------------------------------------
 
 /** Clips still extracting whose row has not moved for `staleMs` (their worker may be gone). */

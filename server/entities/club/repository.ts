@@ -114,11 +114,6 @@ export async function isClubAdmin(clubId: string, userId: string) {
   return !!row;
 }
 
-export async function teamName(teamId: string) {
-  const [row] = await db().select({ name: organization.name }).from(organization).where(eq(organization.id, teamId));
-  return row?.name ?? null;
-}
-
 export async function deleteClub(id: string) {
   await db().delete(club).where(eq(club.id, id));
 }

@@ -4,15 +4,6 @@ import { invitation, member, organization, user } from "../../db/schema";
 import { recordAudit, type AuditAction } from "../audit/repository";
 import { RoleSchema, type Role } from "../../../shared/schemas/roster";
 
-export async function membersOf(teamId: string) {
-  return db()
-    .select({ id: member.id, userId: member.userId, name: user.name, email: user.email, role: member.role, joinedAt: member.createdAt })
-    .from(member)
-    .innerJoin(user, eq(user.id, member.userId))
-    .where(eq(member.organizationId, teamId))
-    .orderBy(user.name);
-}
-
 export async function pendingInvitationsOf(teamId: string) {
   return db()
     .select({ id: invitation.id, email: invitation.email, role: invitation.role, status: invitation.status, expiresAt: invitation.expiresAt, invitedBy: user.name })
@@ -20,12 +11,6 @@ export async function pendingInvitationsOf(teamId: string) {
     .innerJoin(user, eq(user.id, invitation.inviterId))
     .where(and(eq(invitation.organizationId, teamId), eq(invitation.status, "pending")))
     .orderBy(invitation.createdAt);
-}
-
-/** A person's name and e-mail, read inside a membership change. */
-export async function personOf(tx: Tx, userId: string) {
-  const [row] = await tx.select({ name: user.name, email: user.email }).from(user).where(eq(user.id, userId));
-  return row ?? null;
 }
 
 export async function memberByEmail(teamId: string, email: string) {
@@ -102,14 +87,4 @@ export async function pendingInvitationFor(teamId: string, email: string) {
     .from(invitation)
     .where(and(eq(invitation.organizationId, teamId), eq(sql`lower(${invitation.email})`, email.toLowerCase()), eq(invitation.status, "pending")));
   return row ?? null;
-}
-
-export async function userExists(email: string) {
-  const [row] = await db().select({ id: user.id }).from(user).where(eq(sql`lower(${user.email})`, email.toLowerCase()));
-  return !!row;
-}
-
-export async function emailOfUser(userId: string): Promise<string> {
-  const [row] = await db().select({ email: user.email }).from(user).where(eq(user.id, userId));
-  return row?.email ?? "";
 }

@@ -2,7 +2,7 @@
 import { and, asc, eq, sql } from "drizzle-orm";
 import { db } from "../../db/client";
 import { prepared } from "../../db/prepared";
-import { member, user } from "../../db/schema";
+import { member, organization, user } from "../../db/schema";
 import { parseRole, roleForList, type Role } from "./role";
 
 // Asked on every team request (docs/decisions/106-hot-path-queries.md).
@@ -27,7 +27,7 @@ export async function isPlayerOf(teamId: string, userId: string) {
 /** Members of the team with their role and contact, by name. */
 export async function teamMembers(teamId: string) {
   const rows = await db()
-    .select({ userId: member.userId, name: user.name, email: user.email, role: member.role })
+    .select({ id: member.id, userId: member.userId, name: user.name, email: user.email, role: member.role, joinedAt: member.createdAt })
     .from(member)
     .innerJoin(user, eq(user.id, member.userId))
     .where(eq(member.organizationId, teamId))
@@ -38,4 +38,20 @@ export async function teamMembers(teamId: string) {
 /** Members whose role is player (the people whose shots a clip or stick can hold), by name. */
 export async function playersOf(teamId: string) {
   return (await teamMembers(teamId)).filter((m) => m.role === "player").map((m) => ({ id: m.userId, name: m.name }));
+}
+
+/** The teams a person belongs to, with their stored role, by team name. */
+export async function teamsOf(userId: string) {
+  return db()
+    .select({ id: organization.id, name: organization.name, slug: organization.slug, role: member.role })
+    .from(member)
+    .innerJoin(organization, eq(organization.id, member.organizationId))
+    .where(eq(member.userId, userId))
+    .orderBy(organization.name);
+}
+
+/** A team admin of any team (the people who look after the installation see its details). */
+export async function isAdminAnywhere(userId: string) {
+  const [row] = await db().select({ id: member.id }).from(member).where(and(eq(member.userId, userId), eq(member.role, "admin"))).limit(1);
+  return !!row;
 }

@@ -4,7 +4,7 @@ import { alias } from "drizzle-orm/pg-core";
 import { LRUCache } from "lru-cache";
 import { db } from "../../db/client";
 import { prepared, preparedBy } from "../../db/prepared";
-import { auditLog, clip, member, organization, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../../db/schema";
+import { clip, member, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../../db/schema";
 import { benchTestInForce } from "../stick/stiffness";
 import { isStaff, type Actor } from "../member/role";
 import { newestShotFirst, shotDateSql } from "./date";
@@ -235,11 +235,6 @@ export async function shotCountsByPlayer(a: Actor) {
   return new Map(rows.filter((r) => r.playerId).map((r) => [r.playerId!, r.n]));
 }
 
-export async function reviewSettings(teamId: string) {
-  const [row] = await db().select({ autoPublish: teamSettings.autoPublish }).from(teamSettings).where(eq(teamSettings.teamId, teamId));
-  return { autoPublish: row?.autoPublish ?? false };
-}
-
 /** Turning auto-publish on also publishes the shots that already have results and wait for review. */
 export async function setAutoPublish(teamId: string, autoPublish: boolean) {
   await db().transaction(async (tx) => {
@@ -260,23 +255,6 @@ export async function setPublished(teamId: string, shotId: string, publish: bool
     .where(and(eq(shot.teamId, teamId), eq(shot.id, shotId), publish ? isNull(shot.publishedAt) : isNotNull(shot.publishedAt)))
     .returning({ id: shot.id });
   return rows.length > 0;
-}
-
-/** When and by whom a shot of this team was deleted, from the audit log; null if never. */
-export async function shotDeletion(teamId: string, shotId: string) {
-  const [row] = await db()
-    .select({ at: auditLog.createdAt, byName: user.name })
-    .from(auditLog)
-    .leftJoin(user, eq(user.id, auditLog.actorId))
-    .where(and(eq(auditLog.teamId, teamId), eq(auditLog.action, "shot.deleted"), eq(auditLog.targetId, shotId)))
-    .orderBy(desc(auditLog.createdAt))
-    .limit(1);
-  return row ?? null;
-}
-
-export async function teamName(teamId: string) {
-  const [row] = await db().select({ name: organization.name }).from(organization).where(eq(organization.id, teamId));
-  return row?.name ?? "your team";
 }
 
 const total = sql<number>`(count(*) over ())::int`;

@@ -78,16 +78,6 @@ export async function sharesOf(shotIds: string[]) {
 }
 
 
-export async function stickLabel(teamId: string, stickId: string): Promise<string | null> {
-  const [row] = await db().select({ label: stick.label }).from(stick).where(and(eq(stick.id, stickId), eq(stick.teamId, teamId)));
-  return row?.label ?? null;
-}
-
-export async function stickInTeam(teamId: string, stickId: string) {
-  return (await stickLabel(teamId, stickId)) !== null;
-}
-
-
 export async function insertShot(v: { teamId: string; clipId: string; label: string; frameStart: number; frameEnd: number; playerId: string | null; stickId: string | null; userId: string }) {
   const [row] = await db()
     .insert(shot)
@@ -135,10 +125,6 @@ export async function shotIdsWithResultsOtherThan(engineVersion: string, limit: 
     .orderBy(asc(shotResult.computedAt))
     .limit(limit);
   return rows.map((r) => r.id);
-}
-
-export async function shotIdsOfStick(stickId: string) {
-  return (await db().select({ id: shot.id }).from(shot).where(eq(shot.stickId, stickId))).map((r) => r.id);
 }
 
 /** What recomputing needs, read inside the caller's transaction. */

@@ -1,8 +1,8 @@
 // Stick lab rows: sticks, bench tests, the team's alert level, and the shots taken with a stick.
 // Drizzle only; the rules live in service.ts. Every query names the team.
-import { and, asc, eq, inArray, isNotNull, sql } from "drizzle-orm";
+import { and, asc, eq, inArray, sql } from "drizzle-orm";
 import { db } from "../../db/client";
-import { benchTest, clip, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../../db/schema";
+import { benchTest, clip, shot, shotResult, shotShare, stick, trainingSession, user } from "../../db/schema";
 import type { Actor } from "../member/role";
 import { newestShotFirst, shotDateSql } from "../shot/date";
 import { shotVisibleWhere } from "../shot/visibility";
@@ -77,19 +77,6 @@ export async function deleteBenchTest(teamId: string, testId: string) {
   await db().delete(benchTest).where(and(eq(benchTest.teamId, teamId), eq(benchTest.id, testId)));
 }
 
-export async function flexAlertPercentOf(teamId: string): Promise<number | null> {
-  const [row] = await db().select({ p: teamSettings.flexAlertPercent }).from(teamSettings).where(eq(teamSettings.teamId, teamId));
-  return row?.p ?? null;
-}
-
-export async function setFlexAlertPercent(teamId: string, flexAlertPercent: number) {
-  await db()
-    .insert(teamSettings)
-    .values({ teamId, flexAlertPercent })
-    .onConflictDoUpdate({ target: teamSettings.teamId, set: { flexAlertPercent } });
-}
-
-
 const shotDay = shotDateSql;
 
 /** Shots taken with each stick, for the list's counts. */
@@ -132,11 +119,12 @@ export async function shotsWithStick(a: Actor, stickId: string, limit = 50) {
     .limit(limit);
 }
 
-export async function shotIdsWithStick(teamId: string, stickId: string) {
+/** The shots taken with the stick (of that team, when given: a request names it; a recompute job has only the stick). */
+export async function shotIdsWithStick(stickId: string, teamId?: string) {
   const rows = await db()
     .select({ id: shot.id })
     .from(shot)
-    .where(and(eq(shot.teamId, teamId), eq(shot.stickId, stickId), isNotNull(shot.stickId)));
+    .where(and(eq(shot.stickId, stickId), ...(teamId ? [eq(shot.teamId, teamId)] : [])));
   return rows.map((r) => r.id);
 }
 
@@ -152,4 +140,14 @@ export async function shotForBeam(teamId: string, shotId: string) {
   if (!row) return null;
   const shares = await db().select({ userId: shotShare.userId }).from(shotShare).where(eq(shotShare.shotId, shotId));
   return { ...row, sharedWith: shares.map((s) => s.userId) };
+}
+
+/** The stick's label when it is one of the team's sticks, else null. */
+export async function stickLabel(teamId: string, stickId: string): Promise<string | null> {
+  const [row] = await db().select({ label: stick.label }).from(stick).where(and(eq(stick.id, stickId), eq(stick.teamId, teamId)));
+  return row?.label ?? null;
+}
+
+export async function stickInTeam(teamId: string, stickId: string) {
+  return (await stickLabel(teamId, stickId)) !== null;
 }

@@ -1,7 +1,10 @@
-// The few writes to better-auth's own tables the product makes itself (Drizzle only here).
-import { and, eq } from "drizzle-orm";
+// People's accounts (better-auth's user and session tables): the few writes the product makes
+// itself, and who has an address or what a person is called.
+import { eq, sql } from "drizzle-orm";
 import { db } from "../../db/client";
-import { member, session, user } from "../../db/schema";
+import { session, user } from "../../db/schema";
+
+type Executor = Pick<ReturnType<typeof db>, "select">;
 
 export async function markEmailVerified(userId: string) {
   await db().update(user).set({ emailVerified: true }).where(eq(user.id, userId));
@@ -22,8 +25,14 @@ export async function deleteUser(userId: string) {
   await db().delete(user).where(eq(user.id, userId));
 }
 
-/** A team admin of any team (the people who look after the installation see its details). */
-export async function isAdminAnywhere(userId: string) {
-  const [row] = await db().select({ id: member.id }).from(member).where(and(eq(member.userId, userId), eq(member.role, "admin"))).limit(1);
-  return !!row;
+/** The account with this e-mail address (any case), or null. */
+export async function userIdByEmail(email: string) {
+  const [row] = await db().select({ id: user.id }).from(user).where(eq(sql`lower(${user.email})`, email.toLowerCase()));
+  return row?.id ?? null;
+}
+
+/** A person's name and e-mail; pass the transaction when read inside a change. */
+export async function userContact(userId: string, executor: Executor = db()) {
+  const [row] = await executor.select({ name: user.name, email: user.email }).from(user).where(eq(user.id, userId));
+  return row ?? null;
 }

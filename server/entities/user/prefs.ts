@@ -1,6 +1,6 @@
 import { eq } from "drizzle-orm";
 import { db } from "../../db/client";
-import { member, organization, userPrefs } from "../../db/schema";
+import { userPrefs } from "../../db/schema";
 import type { Prefs } from "../../../shared/schemas/roster";
 
 export const defaultPrefs: Prefs = { units: "metric", notifyClipReady: true, notifyShotShared: true };
@@ -14,13 +14,4 @@ export async function savePrefs(userId: string, patch: Partial<Prefs>): Promise<
   const next = { ...(await getPrefs(userId)), ...patch };
   await db().insert(userPrefs).values({ userId, ...next }).onConflictDoUpdate({ target: userPrefs.userId, set: next });
   return next;
-}
-
-export async function teamsOf(userId: string) {
-  return db()
-    .select({ id: organization.id, name: organization.name, slug: organization.slug, role: member.role })
-    .from(member)
-    .innerJoin(organization, eq(organization.id, member.organizationId))
-    .where(eq(member.userId, userId))
-    .orderBy(organization.name);
 }

@@ -1,6 +1,6 @@
 import { and, eq, gt, isNull, sql } from "drizzle-orm";
 import { db } from "../../db/client";
-import { signupRequest, user } from "../../db/schema";
+import { signupRequest } from "../../db/schema";
 
 export async function createRequest(email: string, tokenHash: string, expiresAt: Date) {
   await db().insert(signupRequest).values({ email, tokenHash, expiresAt });
@@ -24,9 +24,3 @@ export async function consumeRequest(id: string) {
     .where(and(eq(signupRequest.id, id), isNull(signupRequest.usedAt), gt(signupRequest.expiresAt, new Date()))).returning({ id: signupRequest.id });
   return rows.length > 0;
 }
-
-export async function userIdByEmail(email: string) {
-  const [row] = await db().select({ id: user.id }).from(user).where(eq(sql`lower(${user.email})`, email.toLowerCase()));
-  return row?.id ?? null;
-}
-
