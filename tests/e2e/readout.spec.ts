@@ -12,7 +12,7 @@ import { signIn } from "./support/sign-in";
 
 const PORT = Number(process.env.E2E_PORT ?? 3100);
 const inbox = process.env.TEST_INBOX_URL ?? "http://127.0.0.1:1180";
-type Ids = { teamId: string; morning: string; evening: string; early: string; pending: string; jonah: string };
+type Ids = { teamId: string; morning: string; evening: string; early: string; pending: string; jonah: string; nobend: string };
 let ids: Ids;
 
 test.beforeAll(() => {
@@ -119,11 +119,12 @@ test("a player ticks two own shots, steps them side by side 50 times in sync, an
     // A, the faster camera, moves one frame per step; B shows its frame nearest in time.
     expect(s.fA).toBe(startA + k);
     expect(Math.abs(s.tB - s.t)).toBeLessThanOrEqual(500 / fpsB + 1e-6);
-    expect(s.fB).toBe(strikeB + Math.round((s.t * fpsB) / 1000));
+    // The nearest frame in time; a moment exactly between two frames shows the earlier one (shared/frame-clock.ts).
+    expect(s.fB).toBe(strikeB + Math.round((s.t * fpsB) / 1000 - 1e-9));
     expect(s.src).toMatch(new RegExp(`/frames/${s.fB}$`));
   }
   // Matched in time, not in frame count.
-  expect(Number(await b.getAttribute("data-frame")) - strikeB).toBe(Math.round((50 * fpsB) / fpsA));
+  expect(Number(await b.getAttribute("data-frame")) - strikeB).toBe(Math.round((50 * fpsB) / fpsA - 1e-9));
   await expect(page.getByTestId("diff-loadTime")).toBeVisible();
 });
 
@@ -157,6 +158,14 @@ test("a player cannot open another player's shot by URL, nor put it beside their
   await expect(page.locator("main")).not.toContainText("Jonah's wrist shot");
   const pdf = await page.request.get(`/api/teams/${ids.teamId}/readout/shots/${ids.jonah}/report.pdf`);
   expect(pdf.status()).toBe(404);
+});
+
+test("a shot marked without the hands says it has no bend marks where the bend chart would be, and still draws its speeds", async ({ page }) => {
+  await signIn(page, "coach@ravens.example");
+  await page.goto(`/readout/${ids.nobend}`);
+  await expect(page.getByRole("img", { name: /Puck and blade speed in km\/h/ })).toBeVisible();
+  await expect(page.getByText("No bend marks on this shot.", { exact: false })).toBeVisible();
+  await expect(page.getByRole("img", { name: /Shaft bend angle/ })).toHaveCount(0);
 });
 
 test("a shot with no results yet says what is missing and offers only the marks", async ({ page }) => {

@@ -80,3 +80,40 @@ export function tickLabel(v: number, ticks: number[]): string {
   const digits = step >= 1 ? 0 : Math.min(3, Math.ceil(-Math.log10(step)));
   return v.toFixed(digits).replace("-", "−");
 }
+
+export interface PlacedLabel {
+  /** Left edge of the text. */
+  x0: number;
+  x1: number;
+  row: number;
+  anchor: "start" | "end";
+}
+
+// IBM Plex Sans' average advance is a little over half an em (from memory); 0.6 em errs wide, so
+// two labels judged apart are apart.
+const EM_PER_CHAR = 0.6;
+
+/**
+ * Event labels in rows so that none overlaps another, however close the events: sorted by
+ * position, each label takes the first row where it clears every label already there by `gap`;
+ * a label that would run past `right` is drawn to the left of its line instead. Returned in the
+ * order given.
+ */
+export function placeEventLabels(items: { x: number; text: string }[], o: { fontSize: number; right: number; pad?: number; gap?: number }): PlacedLabel[] {
+  const pad = o.pad ?? 1.5;
+  const gap = o.gap ?? 2;
+  const rows: { x0: number; x1: number }[][] = [];
+  const out: PlacedLabel[] = new Array(items.length);
+  const order = items.map((it, i) => ({ ...it, i })).sort((a, b) => a.x - b.x);
+  for (const it of order) {
+    const w = it.text.length * o.fontSize * EM_PER_CHAR;
+    const anchor = it.x + pad + w > o.right ? "end" : "start";
+    const x0 = anchor === "start" ? it.x + pad : it.x - pad - w;
+    const x1 = x0 + w;
+    let row = rows.findIndex((r) => r.every((b) => x1 + gap <= b.x0 || x0 >= b.x1 + gap));
+    if (row < 0) row = rows.push([]) - 1;
+    rows[row].push({ x0, x1 });
+    out[it.i] = { x0, x1, row, anchor };
+  }
+  return out;
+}

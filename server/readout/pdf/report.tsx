@@ -119,7 +119,8 @@ export function ShotReport({ readout: r, units, teamName, url, generatedAt, thum
               { label: "blade", color: C.blade, points: res.series.bladeSpeed.points, convert: speed },
             ]}
           />
-          <ReportChart width={258} height={215} yLabel="bend angle (°)" events={strikeEvents} lines={[{ label: "bend", color: C.bend, points: res.series.bendAngle.points, convert: (v) => v }]} />
+          <ReportChart width={258} height={215} yLabel="bend angle (°)" events={strikeEvents} lines={[{ label: "bend", color: C.bend, points: res.series.bendAngle.points, convert: (v) => v }]}
+            emptyText="No bend marks on this shot." />
         </View>
 
         {(generalNotes.length > 0 || r.stale) && (

@@ -31,14 +31,21 @@ interface Props {
   cursorT?: number | null;
   /** A click on the chart picks that time (ms from puck strike). */
   onPickTime?: (t: number) => void;
+  /** Said in the chart's place when no line has a point (an empty box tells nobody anything). */
+  emptyText?: string;
 }
 
 const fmt = (v: number, d: number) => v.toFixed(d).replace("-", "−");
 
 /** A quantity against time from puck strike, with the shot's events as dashed lines. */
-export function TimeChart({ lines, events, unit, ariaLabel, digits = 1, height = 260, cursorT = null, onPickTime }: Props) {
+export function TimeChart({ lines, events, unit, ariaLabel, digits = 1, height = 260, cursorT = null, onPickTime, emptyText = "Nothing to draw yet." }: Props) {
   const ts = lines.flatMap((l) => l.points.map((p) => p.t));
-  if (!ts.length) return null;
+  if (!ts.length)
+    return (
+      <div style={{ height }} className="flex items-center justify-center rounded-lg border border-dashed border-line px-6 text-center text-sm text-ink-muted">
+        <p>{emptyText}</p>
+      </div>
+    );
   const lo = Math.min(...ts);
   const hi = Math.max(...ts);
   return (

@@ -37,6 +37,8 @@ interface Spec {
   drawFrames: boolean;
   /** No calibration on the clip: marks but no results yet. */
   uncalibrated?: boolean;
+  /** Landmarks left unmarked (e.g. the hands: a shot with no bend marks). */
+  unmarked?: string[];
 }
 
 const SPECS: Spec[] = [
@@ -44,6 +46,7 @@ const SPECS: Spec[] = [
   { key: "evening", playerEmail: "player@ravens.example", label: "Point shot, evening", date: "2026-11-09", fps: 1000, frames: 120, stick: "Theo's gamer — 85 flex", drawFrames: true, scene: { exitSpeedMps: 27.5, bladeSpeedMps: 21, peakDeflectionMm: 52, seed: "e2e-b" } },
   { key: "early", playerEmail: "player@ravens.example", label: "First test", date: "2026-10-19", fps: 1000, frames: 120, drawFrames: false, scene: { exitSpeedMps: 24, bladeSpeedMps: 19, peakDeflectionMm: 30, seed: "e2e-c" } },
   { key: "pending", playerEmail: "player@ravens.example", label: "Not calibrated yet", date: "2026-11-16", fps: 1000, frames: 120, drawFrames: false, uncalibrated: true, scene: { seed: "e2e-e" } },
+  { key: "nobend", playerEmail: "player2@ravens.example", label: "Wrist shot, puck and blade only", date: "2026-11-10", fps: 1000, frames: 120, shotType: "wrist", drawFrames: false, unmarked: ["topHand", "bottomHand"], scene: { exitSpeedMps: 21, seed: "e2e-f" } },
   { key: "jonah", playerEmail: "player2@ravens.example", label: "Jonah's wrist shot", date: "2026-11-09", fps: 1000, frames: 120, shotType: "wrist", drawFrames: false, scene: { exitSpeedMps: 22, seed: "e2e-d" } },
 ];
 
@@ -59,7 +62,7 @@ function sceneOf(s: Spec) {
   if (maxX + dx > W - 20) throw new Error(`${s.key}: the scene is ${Math.round(maxX - minX)} px wide, wider than the frame`);
   const dy = 80;
   const move = (t: Mark[] | undefined) => (t ?? []).map(([f, x, y]) => [f + 1, x + dx, y + dy] as Mark);
-  const marks = Object.fromEntries(Object.entries(doc.tracks).map(([k, t]) => [k, move(t as Mark[])])) as Record<string, Mark[]>;
+  const marks = Object.fromEntries(Object.entries(doc.tracks).filter(([k]) => !s.unmarked?.includes(k)).map(([k, t]) => [k, move(t as Mark[])])) as Record<string, Mark[]>;
   const e = doc.events;
   const events = { iceStrike: e.iceStrike! + 1, puckStrike: e.puckStrike + 1, peakBend: e.peakBend! + 1, release: e.release + 1 };
   const cal = doc.calibration as { a: [number, number]; b: [number, number]; lengthMm: number };

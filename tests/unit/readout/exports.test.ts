@@ -6,7 +6,7 @@ import { parse } from "csv-parse/sync";
 import { csvField, csvLines, marksCsv } from "../../../server/readout/csv";
 import { fileStem } from "../../../server/readout/exports";
 import { eventsOf } from "../../../server/readout/present";
-import { linePath, niceTicks, thin } from "../../../server/readout/pdf/chart-geometry";
+import { linePath, niceTicks, placeEventLabels, thin } from "../../../server/readout/pdf/chart-geometry";
 
 describe("CSV", () => {
   it("quotes only what needs quoting, and csv-parse reads it back unchanged", () => {
@@ -66,5 +66,24 @@ describe("report chart geometry", () => {
     const t = thin(Array.from({ length: 1000 }, (_, i) => i), 10);
     expect(t).toHaveLength(10);
     expect([t[0], t[9]]).toEqual([0, 999]);
+  });
+});
+
+describe("the PDF's event labels", () => {
+  const overlaps = (a: { x0: number; x1: number; row: number }, b: { x0: number; x1: number; row: number }) => a.row === b.row && a.x0 < b.x1 && b.x0 < a.x1;
+  it("four events a few points apart (ice strike, puck strike, peak bend, release) go in rows with no two labels overlapping", () => {
+    // A 60 ms chart 216 pt wide: events 1.2 ms apart are ~4 pt apart, closer than any label is long.
+    const toX = (ms: number) => 34 + ((ms + 30) / 60) * 216;
+    const items = [["Ice strike", -1.2], ["Puck strike", 0], ["Peak bend", 3.1], ["Release", 4.4]].map(([text, ms]) => ({ text: String(text), x: toX(Number(ms)) }));
+    const placed = placeEventLabels(items, { fontSize: 5.5, right: 250 });
+    for (let i = 0; i < placed.length; i++) for (let j = i + 1; j < placed.length; j++) expect(overlaps(placed[i], placed[j]), `${items[i].text} / ${items[j].text}`).toBe(false);
+    // Before: two alternating rows, so the 1st and 3rd labels (≈ 19 pt apart, each ≈ 30 pt long) collided.
+    expect(new Set(placed.map((p) => p.row)).size).toBeGreaterThan(2);
+  });
+  it("labels far apart share the first row; one near the right edge is drawn to the left of its line", () => {
+    const placed = placeEventLabels([{ text: "Ice strike", x: 40 }, { text: "Release", x: 150 }, { text: "Release", x: 248 }], { fontSize: 5.5, right: 250 });
+    expect(placed.map((p) => p.row)).toEqual([0, 0, 0]);
+    expect(placed[2]).toMatchObject({ anchor: "end" });
+    expect(placed[2].x1).toBeLessThanOrEqual(248);
   });
 });

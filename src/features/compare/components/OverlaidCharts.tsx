@@ -22,7 +22,10 @@ export function OverlaidCharts({ shots, names, colors, units, cursorT, onPickTim
     { key: `puck-${s}`, label: `Puck ${names[s].replace("Shot ", "")}`, color: colors[s], points: chartPoints(shots[s].results!.series.puckSpeed, speed, 400) },
     { key: `blade-${s}`, label: `Blade ${names[s].replace("Shot ", "")}`, color: colors[s], dashed: true, points: chartPoints(shots[s].results!.series.bladeSpeed, speed, 400) },
   ]);
-  const bendLines: TimeLine[] = sides.map((s) => ({ key: `bend-${s}`, label: `Bend ${names[s].replace("Shot ", "")}`, color: colors[s], points: chartPoints(shots[s].results!.series.bendAngle, (v) => v, 400) }));
+  const bendLines: TimeLine[] = sides
+    .map((s) => ({ key: `bend-${s}`, label: `Bend ${names[s].replace("Shot ", "")}`, color: colors[s], points: chartPoints(shots[s].results!.series.bendAngle, (v) => v, 400) }))
+    .filter((l) => l.points.length > 0);
+  const noBend = sides.filter((s) => !shots[s].results!.series.bendAngle.points.length).map((s) => names[s]);
   const events: TimeEvent[] = [
     { key: "strike", label: "Puck strike", t: 0 },
     ...sides.flatMap((s) =>
@@ -38,8 +41,9 @@ export function OverlaidCharts({ shots, names, colors, units, cursorT, onPickTim
       <Card title={`Puck and blade speed (${u})`} description="Click to step both clips to that moment." actions={<ChartLegend lines={speedLines} />}>
         <TimeChart lines={speedLines} events={events} unit={u} ariaLabel={`Puck and blade speed of both shots in ${u}`} cursorT={cursorT} onPickTime={onPickTime} />
       </Card>
-      <Card title="Bend angle (°)" actions={<ChartLegend lines={bendLines} />}>
-        <TimeChart lines={bendLines} events={events} unit="°" ariaLabel="Shaft bend angle of both shots in degrees" cursorT={cursorT} onPickTime={onPickTime} />
+      <Card title="Bend angle (°)" description={noBend.length === 1 && bendLines.length ? `${noBend[0]} has no bend marks.` : undefined} actions={<ChartLegend lines={bendLines} />}>
+        <TimeChart lines={bendLines} events={events} unit="°" ariaLabel="Shaft bend angle of both shots in degrees" cursorT={cursorT} onPickTime={onPickTime}
+          emptyText="Neither shot has bend marks (top hand, bottom hand and heel through the load)." />
       </Card>
     </div>
   );

@@ -22,6 +22,8 @@ export function frameAtChartTime(r: Pick<ShotReadout, "events" | "shot" | "clip"
   return clock.frameAt(clock.t(strike) + tMs / 1000, r.shot.frameStart, r.shot.frameEnd);
 }
 
+export const NO_BEND_MARKS = "No bend marks on this shot. The bend is drawn once the top hand, bottom hand and heel are marked through the load.";
+
 /** Puck and blade speed, and bend angle, against time; a click opens that frame on the Digitise page. */
 export function ShotCharts({ readout: r, results, units }: { readout: ShotReadout; results: ShotResults; units: UnitSystem }) {
   const [picked, setPicked] = useState<number | null>(null);
@@ -55,8 +57,9 @@ export function ShotCharts({ readout: r, results, units }: { readout: ShotReadou
         {pickLine}
       </Card>
       <Card title="Bend angle (°)" description="0° when the shaft is straight; peak bend is the highest point.">
-        <TimeChart lines={bendLines} events={events} unit="°" ariaLabel="Shaft bend angle in degrees against time from puck strike" onPickTime={setPicked} cursorT={picked} />
-        {pickLine}
+        <TimeChart lines={bendLines} events={events} unit="°" ariaLabel="Shaft bend angle in degrees against time from puck strike" onPickTime={setPicked} cursorT={picked}
+          emptyText={NO_BEND_MARKS} />
+        {bendLines[0]!.points.length > 0 && pickLine}
       </Card>
     </div>
   );
