@@ -67,7 +67,9 @@ export async function benchTrackJob(rounds: number, scene: SceneOptions = JOB_SC
     const truth = rendered.scenes[0];
     const seeds = seedsAt(truth, 1) as Partial<Record<Landmark, Vec2>>;
     const clip = path.join(work, "shot.mp4");
-    await import("node:fs/promises").then((fs) => fs.copyFile(rendered.mp4, clip));
+    // Private copies: the render cache is shared with every other run on the machine, which may clear it.
+    const baselineClip = path.join(work, "baseline.mp4");
+    await import("node:fs/promises").then(async (fs) => (await fs.copyFile(rendered.mp4, clip), await fs.copyFile(rendered.mp4, baselineClip)));
 
     // The raw baseline's matching: the calls one tracking of these frames makes, recorded.
     const { cv } = await loadOpenCv();
@@ -131,7 +133,7 @@ export async function benchTrackJob(rounds: number, scene: SceneOptions = JOB_SC
     const walls: number[] = [], cpus: number[] = [], decodes: number[] = [], replays: number[] = [], ratios: number[] = [];
     let stored = 0;
     for (let r = 0; r < rounds; r++) {
-      const decode = await decodeAlone(rendered.mp4, truth.width * truth.height * truth.frameCount);
+      const decode = await decodeAlone(baselineClip, truth.width * truth.height * truth.frameCount);
       const matching = replay();
       const cpu0 = cpuSeconds(worker.pid!);
       const t0 = performance.now();

@@ -111,9 +111,11 @@ function smoothAgain(s: SmoothSegment, fcHz: number): { sx: Float64Array; sy: Fl
  * are smoothed (the filter's memory is shorter than the margin).
  */
 export function peakBendJudge(stick: [StickInput, StickInput, StickInput], from: number, to: number, cal: CalibrationMap, sigmaPx: number, fps: number, time: TimeBase): BiasJudge {
+  // Each landmark's grid step, from its whole track (once: the judge is asked at two cutoffs).
+  const firsts = stick.map(({ world }) => gridSegments(world, [], ["whole"], fps, undefined, time)[0]);
   const judge = (fc: number) => {
-    const pieces = stick.map(({ src, world }) => {
-      const first = gridSegments(world, [], ["whole"], fps, undefined, time)[0];
+    const pieces = stick.map(({ src, world }, k) => {
+      const first = firsts[k];
       if (!first) return null;
       const m = margin(fc, first);
       const { track, offset } = marksBetween(world, from - m, to + m);
@@ -157,7 +159,7 @@ export function peakBendJudge(stick: [StickInput, StickInput, StickInput], from:
     });
     return { bias, noiseU: Math.sqrt(variance) };
   };
-  const fs = fps / (gridSegments(stick[0].world, [], ["whole"], fps, undefined, time)[0]?.step ?? 1);
+  const fs = fps / (firsts[0]?.step ?? 1);
   // Interior bias of the 4th-order zero-lag filter ∝ fc^−4; a position's noise ∝ fc^½.
   return Object.assign(judge, { topHz: topCutoff(fs), biasExponent: 4, noiseExponent: 0.5 });
 }

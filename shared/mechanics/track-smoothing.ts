@@ -140,7 +140,11 @@ export function gradientWeights(t: ArrayLike<number>, i: number): { from: number
   return { from: i - 1, w: [-hd / (hs * (hs + hd)), (hd - hs) / (hs * hd), hs / (hd * (hs + hd))] };
 }
 
-/** d/dt like numpy.gradient(v, t, edge_order=2); values in mm, times in s, result in m/s. */
+/**
+ * d/dt like numpy.gradient(v, t, edge_order=2); values in mm, times in s, result in m/s. The
+ * weights of gradientWeights written out in place (the same arithmetic, no object per sample:
+ * this runs over every sample of every smoothed track).
+ */
 export function gradientMps(v: Float64Array, tS: ArrayLike<number>): Float64Array {
   const n = v.length;
   const out = new Float64Array(n);
@@ -148,11 +152,33 @@ export function gradientMps(v: Float64Array, tS: ArrayLike<number>): Float64Arra
     out[0] = NaN;
     return out;
   }
-  for (let i = 0; i < n; i++) {
-    const { from, w } = gradientWeights(tS, i);
-    let d = 0;
-    for (let k = 0; k < w.length; k++) d += w[k] * v[from + k];
-    out[i] = d / 1000;
+  if (n === 2) {
+    const h = tS[1] - tS[0];
+    let d = (-1 / h) * v[0];
+    d += (1 / h) * v[1];
+    out[0] = out[1] = d / 1000;
+    return out;
+  }
+  const three = (a: number, w0: number, w1: number, w2: number) => {
+    let d = w0 * v[a];
+    d += w1 * v[a + 1];
+    d += w2 * v[a + 2];
+    return d / 1000;
+  };
+  {
+    const d1 = tS[1] - tS[0];
+    const d2 = tS[2] - tS[1];
+    out[0] = three(0, -(2 * d1 + d2) / (d1 * (d1 + d2)), (d1 + d2) / (d1 * d2), -d1 / (d2 * (d1 + d2)));
+  }
+  for (let i = 1; i < n - 1; i++) {
+    const hs = tS[i] - tS[i - 1];
+    const hd = tS[i + 1] - tS[i];
+    out[i] = three(i - 1, -hd / (hs * (hs + hd)), (hd - hs) / (hs * hd), hs / (hd * (hs + hd)));
+  }
+  {
+    const d1 = tS[n - 2] - tS[n - 3];
+    const d2 = tS[n - 1] - tS[n - 2];
+    out[n - 1] = three(n - 3, d2 / (d1 * (d1 + d2)), -(d1 + d2) / (d1 * d2), (2 * d2 + d1) / (d2 * (d1 + d2)));
   }
   return out;
 }

@@ -63,7 +63,9 @@ const track = z
         ctx.addIssue({ code: "custom", path: [i], message: "a mark must be [frame, x, y]" });
         return;
       }
-      const [f, x, y] = m;
+      const f = m[0];
+      const x = m[1];
+      const y = m[2];
       if (typeof f !== "number" || !Number.isInteger(f) || f < 0) {
         ctx.addIssue({ code: "custom", path: [i, 0], message: `frame must be a whole number, 0 or more (got ${String(f)})` });
         return;
