@@ -5,13 +5,14 @@ import type { Vec2 } from "./homography";
 import { bladeAtStrike } from "./blade-at-strike";
 import { planeMap, scaleBarMap, type CalibrationMap } from "./calibration";
 import { eventTiming } from "./event-timing";
+import { flightTrials } from "./flight-trials";
 import { fitConstantVelocity } from "./line-fit";
 import { bendSeries, findPeak, peakBend, type BendPoint, type SmoothedSource } from "./peak-bend";
 import { plausibilityNotes } from "./plausibility";
 import { shotCutoffs } from "./shot-cutoffs";
 import { cutsFor, STICK_KEYS, type CutoffMode } from "./shot-smoothing";
 import { endMotion } from "./smoothing-bias";
-import { bladeSource, worldTrack, type BladePoint, type Noise, type Source, type SourceKey } from "./sources";
+import { bladeSource, worldTrack, type BladePoint, type Source, type SourceKey } from "./sources";
 import { storedEnergy } from "./stored-energy";
 import { describeIrregularity, rateTimeBase, timesOf, type TimeBase } from "./time-base";
 import { gridSegments, lowerBound, smoothSegment } from "./track-smoothing";
@@ -133,6 +134,7 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
   const flight = worldTrack(puckSrc, cal, release, flightSpan.lastFrame, undefined, flightSpan.limit);
   const flightTimes = timesOf(time, flight.frames);
   const fit = fitConstantVelocity(flightTimes, flight.x, flight.y);
+  const flightDraws = flightTrials(puckSrc, lowerBound(tracks.puck!.frames, flight.frames[0]), flightTimes, cal, sigmaPx);
   timingNote(notes, time, "puck exit speed's straight-line fit", flight.frames[0], flight.frames[flight.frames.length - 1]);
 
   // Blade speed at strike, with the strike frame's own uncertainty; and its smoothing bias.
@@ -178,7 +180,6 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
   const energyBias = energyNominal ? 2 * relBias * energyNominal.valueJ : 0;
 
   // Monte Carlo: jitter every digitised point, the calibration scale and the marked events.
-  const noise: Noise = { normal, sigmaPx };
   const timing = eventTiming(doc.events, eventError, time);
   const dPuck: number[] = [];
   const dBlade: number[] = [];
@@ -187,8 +188,8 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
   const dEnergy: number[] = [];
   for (let t = 0; t < trials; t++) {
     const c = trialCalibration(doc.calibration, normal, sigmaPx, doc.calibrationErrorRel);
-    const w = worldTrack(puckSrc, c, release, flightSpan.lastFrame, noise, flightSpan.limit);
-    dPuck.push(fitConstantVelocity(flightTimes, w.x, w.y).speedMps - fit.speedMps);
+    const dv = flightDraws.sample(c, normal);
+    dPuck.push(Math.hypot(fit.vxMps + dv[0], fit.vyMps + dv[1]) - fit.speedMps);
     const strikeShift = eventError * (2 * uniform() - 1);
     if (bladeAt) dBlade.push(bladeAt.sample(c, normal, strikeShift) - bladeAt.speed);
     if (peak) {

@@ -44,16 +44,29 @@ function markedAt(s: SmoothedSource, frame: number): Located | null {
   return null;
 }
 
+/** Grid index of a marked frame on a smoothed piece, or −1. */
+function markedIndex(g: SmoothSegment, frame: number): number {
+  const i = gridIndex(g, frame);
+  return i >= 0 && g.marked[i] ? i : -1;
+}
+
 /** Bend at every frame where all three landmarks are marked (for the chart). */
 export function bendSeries(top: SmoothedSource, bottom: SmoothedSource, heel: SmoothedSource): { frame: number; angle: number }[] {
   const out: { frame: number; angle: number }[] = [];
+  // The pieces are in frame order, so the one holding a frame is found by walking forward.
+  let pt = 0;
+  let pb = 0;
   for (const H of heel.segments)
     for (let i = 0; i < H.frames.length; i++) {
       if (!H.marked[i]) continue;
       const f = H.frames[i];
-      const T = markedAt(top, f);
-      const B = markedAt(bottom, f);
-      if (T && B) out.push({ frame: f, angle: bendAngleXY(T.g.sx[T.i], T.g.sy[T.i], B.g.sx[B.i], B.g.sy[B.i], H.sx[i], H.sy[i]) });
+      while (pt < top.segments.length - 1 && top.segments[pt].frames[top.segments[pt].frames.length - 1] < f) pt++;
+      while (pb < bottom.segments.length - 1 && bottom.segments[pb].frames[bottom.segments[pb].frames.length - 1] < f) pb++;
+      const T = top.segments[pt];
+      const B = bottom.segments[pb];
+      const it = T ? markedIndex(T, f) : -1;
+      const ib = B ? markedIndex(B, f) : -1;
+      if (it >= 0 && ib >= 0) out.push({ frame: f, angle: bendAngleXY(T.sx[it], T.sy[it], B.sx[ib], B.sy[ib], H.sx[i], H.sy[i]) });
     }
   return out;
 }

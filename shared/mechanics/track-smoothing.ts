@@ -46,7 +46,11 @@ export interface SmoothSegment extends GridSegment {
 }
 
 function gcd(a: number, b: number): number {
-  while (b) [a, b] = [b, a % b];
+  while (b) {
+    const r = a % b;
+    a = b;
+    b = r;
+  }
   return a;
 }
 
@@ -62,6 +66,11 @@ export function gridSegments(
   step?: number,
   time: TimeBase = rateTimeBase(captureFps),
 ): GridSegment[] {
+  // The same track is gridded alike by the cutoff search, the bias judges and the smoothing: once.
+  const key = `${splits.join(",")}|${labels.join(",")}|${captureFps}|${step}`;
+  let memo = gridMemo.get(track);
+  const hit = memo?.find((m) => m.key === key && m.time === time);
+  if (hit) return hit.grids;
   const out: GridSegment[] = [];
   const n = track.frames.length;
   for (let s = 0; s <= splits.length; s++) {
@@ -74,13 +83,19 @@ export function gridSegments(
     if (i1 === i0) continue;
     out.push(gridPiece(track, i0, i1, labels[s], captureFps, time, step));
   }
+  if (!memo) gridMemo.set(track, (memo = []));
+  if (memo.length >= 8) memo.shift();
+  memo.push({ key, time, grids: out });
   return out;
 }
+
+/** Grids already made of a track (they are never written to: smoothing makes new arrays). */
+const gridMemo = new WeakMap<WorldTrack, { key: string; time: TimeBase; grids: GridSegment[] }[]>();
 
 /** `wanted` (a part of a longer track keeps that track's grid) is used when it divides every gap. */
 function gridPiece(t: WorldTrack, i0: number, i1: number, label: PieceLabel, captureFps: number, time: TimeBase, wanted?: number): GridSegment {
   let step = 0;
-  for (let i = i0 + 1; i < i1; i++) step = gcd(step, t.frames[i] - t.frames[i - 1]);
+  for (let i = i0 + 1; i < i1 && step !== 1; i++) step = gcd(step, t.frames[i] - t.frames[i - 1]);
   if (step === 0) step = wanted ?? 1;
   else if (wanted && step % wanted === 0) step = wanted;
   const f0 = t.frames[i0];
@@ -99,7 +114,8 @@ function gridPiece(t: WorldTrack, i0: number, i1: number, label: PieceLabel, cap
     marked[g] = 1;
     if (i + 1 < i1) {
       const gn = (t.frames[i + 1] - f0) / step;
-      if (gn - g > 1) longestGap = Math.max(longestGap, (gn - g - 1) * step);
+      if (gn - g === 1) continue;
+      longestGap = Math.max(longestGap, (gn - g - 1) * step);
       const ta = time.t(t.frames[i]);
       const tb = time.t(t.frames[i + 1]);
       for (let k = g + 1; k < gn; k++) {

@@ -34,12 +34,19 @@ export function hashNumbers(groups: ArrayLike<number>[]): string {
   let h = 0x811c9dc5;
   const f = new Float64Array(1);
   const w = new Uint32Array(f.buffer);
-  for (const g of groups)
+  for (const g of groups) {
+    if (g instanceof Float64Array) {
+      // The same bits read straight from the array (the tracks' coordinates: most of the numbers).
+      const words = new Uint32Array(g.buffer, g.byteOffset, 2 * g.length);
+      for (let i = 0; i < words.length; i++) h = Math.imul(h ^ words[i], 0x01000193);
+      continue;
+    }
     for (let i = 0; i < g.length; i++) {
       f[0] = g[i];
       h = Math.imul(h ^ w[0], 0x01000193);
       h = Math.imul(h ^ w[1], 0x01000193);
     }
+  }
   return (h >>> 0).toString(36);
 }
 

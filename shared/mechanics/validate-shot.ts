@@ -70,6 +70,20 @@ function checkEvents(doc: ShotDocument, clip: [number, number] | null): void {
 }
 
 function toImageTrack(marks: Mark[], name: Landmark, clip: [number, number] | null): ImageTrack {
+  // Marks usually come in frame order, inside the clip, once each: copied in one pass. Anything
+  // else takes the careful path below, which names the first problem in frame order.
+  const n0 = marks.length;
+  const fast: ImageTrack = { frames: new Int32Array(n0), x: new Float64Array(n0), y: new Float64Array(n0) };
+  let k0 = 0;
+  for (; k0 < n0; k0++) {
+    const m = marks[k0];
+    const f = m[0];
+    if ((k0 > 0 && f <= fast.frames[k0 - 1]) || outside(clip, f)) break;
+    fast.frames[k0] = f;
+    fast.x[k0] = m[1];
+    fast.y[k0] = m[2];
+  }
+  if (k0 === n0) return fast;
   let sorted = true;
   for (let i = 1; i < marks.length && sorted; i++) sorted = marks[i][0] > marks[i - 1][0];
   const order = sorted ? null : marks.map((_, i) => i).sort((a, b) => marks[a][0] - marks[b][0]);
