@@ -17,6 +17,9 @@ export const shotKeys = {
   progress: (teamId: string, q: object) => [...shotKeys.all(teamId), "progress", q] as const,
   players: (teamId: string) => [...shotKeys.all(teamId), "players"] as const,
   beam: (teamId: string, shotId: string) => [...shotKeys.all(teamId), "beam", shotId] as const,
+  /** The Home page: its tasks and items are mostly shots (waiting for review, latest results,
+   * shared with me), so it refreshes with them. */
+  home: (teamId: string) => [...shotKeys.all(teamId), "home"] as const,
   /** The team's review setting (auto-publish); outside `all`, it is no shot's number. */
   reviewSettings: (teamId: string) => [...teamKey(teamId), "review-settings"] as const,
   /** A shot's auto-digitise run: outside `all` on purpose — saving marks does not change it. */

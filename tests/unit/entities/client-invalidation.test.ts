@@ -7,7 +7,7 @@ import { shotKeys, shotMarksSaved, shotsChanged } from "@/entities/shot";
 import { stickChanged } from "@/entities/stick";
 import { clipChanged } from "@/entities/clip";
 import { readoutQueryOptions } from "@/features/readout/api/readout";
-import { shotsQueryOptions } from "@/features/readout/api/shots";
+import { shotsQueryOptions } from "@/entities/shot";
 import { compareQueryOptions } from "@/features/compare/api/compare";
 import { shotChoicesQueryOptions } from "@/features/compare/api/shotChoices";
 import { progressQueryOptions } from "@/features/progress/api/progress";
@@ -15,6 +15,7 @@ import { playersQueryOptions } from "@/entities/member/players";
 import { shotBeamQueryOptions } from "@/features/sticklab/api/shotBeam";
 import { clipShotsQueryOptions } from "@/features/digitise/api/clipShots";
 import { shotQueryOptions } from "@/features/digitise/api/shot";
+import { homeQueryOptions } from "@/features/home/api/home";
 import { stickQueryOptions } from "@/features/sticklab/api/stick";
 import { sticksQueryOptions } from "@/features/sticklab/api/sticks";
 import type { ShotDetail } from "@shared/schemas/shots";
@@ -35,6 +36,9 @@ function seeded() {
     beamFromShot: shotBeamQueryOptions(T, "s1").queryKey,
     clipShots: clipShotsQueryOptions(T, "c1").queryKey,
     document: shotQueryOptions(T, "s1").queryKey,
+    // Home's items are shots (waiting for review, latest results, shared with me): a shot
+    // published or taken back must show there without a reload.
+    home: homeQueryOptions(T).queryKey,
   };
   const put = (k: readonly unknown[]) => qc.setQueryData<unknown>(k, { cached: true });
   for (const k of Object.values(views)) put(k);
@@ -46,7 +50,7 @@ function seeded() {
 }
 
 describe("client entities: one call refreshes every view of the change", () => {
-  it("shots changed (a shot deleted or added, a share): readout, Shots list, side by side, progress, beam, the clip's shots", async () => {
+  it("shots changed (a shot deleted or added, published, a share): readout, Shots list, side by side, progress, beam, the clip's shots, home", async () => {
     const { qc, views, stale } = seeded();
     await shotsChanged(qc, T);
     for (const [name, k] of Object.entries(views)) expect(stale(k), name).toBe(true);

@@ -2,7 +2,7 @@ import { useState } from "react";
 import { EmptyState, PageHeader, PageSpinner, Select, LoadError } from "@/components/ui";
 import { useActiveTeam } from "@/lib/session";
 import { useAuditLog } from "../api/auditLog";
-import { useMemberNames } from "../api/memberNames";
+import { useMemberNames } from "@/entities/member";
 import { AuditTimeline } from "../components/AuditTimeline";
 import { describeAudit, groupLabels, namesWithFormer, type AuditGroup } from "../describe";
 

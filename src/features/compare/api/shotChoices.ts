@@ -1,16 +1,11 @@
-import { queryOptions, useQuery } from "@tanstack/react-query";
-import { apiGet } from "@/lib/api";
-import { SHOTS_PAGE_MAX, type ShotListResponse } from "@shared/schemas/readout";
-import { shotKeys } from "@/entities/shot";
+import { useQuery } from "@tanstack/react-query";
+import { SHOTS_PAGE_MAX } from "@shared/schemas/readout";
+import { shotsQueryOptions } from "@/entities/shot";
 
 /**
- * The shots one may put side by side (GET /api/teams/:teamId/readout/shots): the newest
- * SHOTS_PAGE_MAX. Older ones are reached from the Shots page, whose filters and pages cover all.
+ * The shots one may put side by side: the Shots list's newest SHOTS_PAGE_MAX. Older ones are
+ * reached from the Shots page, whose filters and pages cover all.
  */
-export const shotChoicesQueryOptions = (teamId: string) =>
-  queryOptions({
-    queryKey: shotKeys.list(teamId, { pageSize: SHOTS_PAGE_MAX }),
-    queryFn: ({ signal }) => apiGet<ShotListResponse>(`/teams/${encodeURIComponent(teamId)}/readout/shots`, { pageSize: SHOTS_PAGE_MAX }, signal),
-  });
+export const shotChoicesQueryOptions = (teamId: string) => shotsQueryOptions(teamId, { pageSize: SHOTS_PAGE_MAX });
 
 export const useShotChoices = (teamId: string) => useQuery(shotChoicesQueryOptions(teamId));

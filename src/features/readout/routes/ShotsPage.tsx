@@ -5,7 +5,7 @@ import { isStaff } from "@/lib/roles";
 import { useActiveTeam } from "@/lib/session";
 import { useUnits } from "@/lib/units";
 import { SHOT_TYPES, shotTypeLabels, type ShotType } from "@shared/schemas/readout";
-import { useShots } from "../api/shots";
+import { useShots } from "@/entities/shot";
 import { ReviewSetting } from "../components/ReviewSetting";
 import { ShotsTable } from "../components/ShotsTable";
 

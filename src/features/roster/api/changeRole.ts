@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiPatch } from "@/lib/api";
 import type { Role } from "@/lib/roles";
 import { meKey } from "@/lib/session";
-import type { Member } from "./roster";
+import type { Member } from "@/entities/member";
 import { memberKeys } from "@/entities/member";
 
 /** PATCH /api/teams/:teamId/members/:memberId — 409 last_admin when it would leave the team without one. */

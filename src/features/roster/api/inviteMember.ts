@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiPost } from "@/lib/api";
 import type { Role } from "@/lib/roles";
-import type { Invitation } from "./roster";
+import type { Invitation } from "@/entities/member";
 import { memberKeys } from "@/entities/member";
 
 /** POST /api/teams/:teamId/invitations — mails the invitee a link. 409 already_member / already_invited. */

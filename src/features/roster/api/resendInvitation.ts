@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiPost } from "@/lib/api";
-import type { Invitation } from "./roster";
+import type { Invitation } from "@/entities/member";
 import { memberKeys } from "@/entities/member";
 
 /** POST /api/teams/:teamId/invitations/:invitationId/resend */

@@ -4,7 +4,7 @@ import { formatDate, formatRelative } from "@/lib/format";
 import { roleLabel } from "@/lib/roles";
 import { useCancelInvitation } from "../api/cancelInvitation";
 import { useResendInvitation } from "../api/resendInvitation";
-import type { Invitation } from "../api/roster";
+import type { Invitation } from "@/entities/member";
 
 const isExpired = (inv: Invitation) => inv.status === "expired" || new Date(inv.expiresAt).getTime() < Date.now();
 

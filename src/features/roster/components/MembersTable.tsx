@@ -4,7 +4,7 @@ import { formatDate } from "@/lib/format";
 import { ROLES, roleLabel, type Role } from "@/lib/roles";
 import { useChangeRole } from "../api/changeRole";
 import { useRemoveMember } from "../api/removeMember";
-import type { Member } from "../api/roster";
+import type { Member } from "@/entities/member";
 import { RoleSelect } from "./RoleSelect";
 
 interface Props {

@@ -1,6 +1,6 @@
 import { EmptyState, PageHeader, PageSpinner, LoadError } from "@/components/ui";
 import { useActiveTeam, useSession } from "@/lib/session";
-import { useRoster } from "../api/roster";
+import { useRoster } from "@/entities/member";
 import { InvitationsTable } from "../components/InvitationsTable";
 import { InviteForm } from "../components/InviteForm";
 import { MembersTable } from "../components/MembersTable";

@@ -1,12 +1,14 @@
 import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
 import { apiGet } from "@/lib/api";
 import type { ShotListPageQuery, ShotListResponse } from "@shared/schemas/readout";
-import { shotKeys } from "@/entities/shot";
 import { RECOMPUTE_POLL_MS } from "@/lib/recompute";
+import { teamPath } from "../team";
+import { shotKeys } from "./keys";
 
-/** GET /api/teams/:teamId/readout/shots — staff: the team's shots; a player: own and shared ones. */
+/** GET /api/teams/:teamId/readout/shots — staff: the team's shots; a player: own and shared ones.
+ * The Shots page reads its pages through it, side by side its choices. */
 export const fetchShots = (teamId: string, f: ShotListPageQuery, signal?: AbortSignal) =>
-  apiGet<ShotListResponse>(`/teams/${encodeURIComponent(teamId)}/readout/shots`, { ...f }, signal);
+  apiGet<ShotListResponse>(`${teamPath(teamId)}/readout/shots`, { ...f }, signal);
 
 export const shotsQueryOptions = (teamId: string, f: ShotListPageQuery) =>
   queryOptions({ queryKey: shotKeys.list(teamId, f), queryFn: ({ signal }) => fetchShots(teamId, f, signal), placeholderData: keepPreviousData,
