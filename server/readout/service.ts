@@ -33,14 +33,15 @@ function shareRows(rows: Awaited<ReturnType<typeof repo.sharesOf>>): ShareRow[] 
 /** A shot the actor may see with its shares, else 404 (410 for staff when the audit log says it was deleted). */
 export async function visibleShot(a: Actor, shotId: string, which = "That shot", o: { marks?: "always"; resultsAsText?: true } = {}) {
   if (!isUuid(shotId)) throw shotNotFound(which);
-  const row: (repo.ReadoutRow & { resultsText?: string | null; resultsHash?: string }) | null = o.resultsAsText ? await repo.shotTextById(a.teamId, shotId) : await repo.shotById(a.teamId, shotId, { marks: o.marks });
+  const row: (repo.ReadoutRow & { resultsText?: string | null; resultsHash?: string; shares?: repo.ShareDbRow[] }) | null = o.resultsAsText ? await repo.shotTextById(a.teamId, shotId) : await repo.shotById(a.teamId, shotId, { marks: o.marks });
   if (!row) {
     const gone = isStaff(a) ? await latestAuditEntry(a.teamId, "shot.deleted", shotId) : null;
     if (gone)
       throw new HttpError(410, "shot_deleted", `${which} was deleted on ${gone.at.toISOString().slice(0, 10)}${gone.byName ? ` by ${gone.byName}` : ""}; its marks and results are gone.`);
     throw shotNotFound(which);
   }
-  const shares = shareRows(await repo.sharesOf(a.teamId, [row.id]));
+  // The text form of the row brings its shares along (decision 178).
+  const shares = shareRows(row.shares ?? (await repo.sharesOf(a.teamId, [row.id])));
   if (!policy.viewShot(a, shotAccess(row, shares.map((s) => s.userId)))) throw shotNotFound(which);
   return { row, shares };
 }

@@ -103,6 +103,8 @@ describe("a clip from upload to frames", () => {
     expect(page.items[0].thumbnailUrl).toBe(`${team()}/clips/${clipId}/thumbnail`);
     expect((await coach.get(`${team()}/clips?shotType=wrist`)).json.total).toBe(0);
     expect((await coach.get(`${team()}/clips?status=ready&playerId=${playerId()}`)).json.total).toBe(1);
+    // The total comes with the page's rows; a page past the end has none and still says it.
+    expect((await coach.get(`${team()}/clips?page=3&pageSize=10`)).json).toMatchObject({ items: [], total: 1, page: 3 });
     expect((await coach.get(`${team()}/clips?sort=nonsense`)).status).toBe(422);
   });
 

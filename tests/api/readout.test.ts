@@ -176,7 +176,12 @@ describe("stored results not in the engine's shape", () => {
 describe("one shot's readout answered from the stored text", () => {
   it("is the readout the service builds, results as stored, key for key", async () => {
     const s = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Text readout" });
+    // Shared with its player and the staff: the shares come with the row there (decision 178),
+    // from their own query here; names, roles, times and order must agree.
+    const shared = await coach.post(`${R()}/shots/${s.shotId}/shares`, { player: true, staff: true });
+    expect(shared.status, shared.text).toBe(201);
     const r = await coach.get(`${R()}/shots/${s.shotId}`);
+    expect(r.json.shares.length).toBeGreaterThanOrEqual(2);
     expect(r.status, r.text).toBe(200);
     expect(r.headers.get("content-type")).toMatch(/^application\/json/);
     const { getReadout } = await import("../../server/readout/service");

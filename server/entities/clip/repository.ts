@@ -21,7 +21,7 @@ const uploader = alias(user, "uploader");
 const { probe: _probe, frameTimes: _frameTimes, calibration: _calibration, ...summaryColumns } = getTableColumns(clip);
 
 /** A clip with the names the API shows next to it; the list reads only the summary columns. */
-const joined = <C extends typeof clip | typeof summaryColumns>(columns: C) =>
+const joined = <C extends typeof clip | typeof summaryColumns, E extends Record<string, SQL<unknown>> = Record<never, never>>(columns: C, extra?: E) =>
   db()
     .select({
       clip: columns,
@@ -29,6 +29,7 @@ const joined = <C extends typeof clip | typeof summaryColumns>(columns: C) =>
       uploaderName: uploader.name,
       session: { id: trainingSession.id, date: trainingSession.date, venue: trainingSession.venue, drill: trainingSession.drill },
       stickLabel: stick.label,
+      ...(extra as E),
     })
     .from(clip)
     .leftJoin(user, eq(user.id, clip.playerId))
@@ -83,9 +84,12 @@ function buildPage(name: string, key: PageKey) {
   const keys = db().select({ id: clip.id }).from(clip);
   const keyed = sort === "player" ? keys.leftJoin(user, eq(user.id, clip.playerId)) : sort === "session" ? keys.leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId)) : keys;
   const ids = keyed.where(where).orderBy(...orderBy).limit(sql.placeholder("limit")).offset(sql.placeholder("offset"));
+  const total = db().select({ n: sql<number>`count(*)::int` }).from(clip).where(where);
   return {
-    rows: joined(summaryColumns).where(inArray(clip.id, ids)).orderBy(...orderBy).prepare(`${name}:rows`),
-    total: db().select({ n: sql<number>`count(*)::int` }).from(clip).where(where).prepare(`${name}:total`),
+    // The total rides along on every row (an uncorrelated subquery, counted once): one round trip
+    // to the database instead of two, which is most of a page's CPU (decision 178).
+    rows: joined(summaryColumns, { total: sql<number>`(${total})` }).where(inArray(clip.id, ids)).orderBy(...orderBy).prepare(`${name}:rows`),
+    total: total.prepare(`${name}:total`),
   };
 }
 
@@ -94,8 +98,9 @@ export async function listClips(teamId: string, f: ListFilter, sort: ClipSort, d
   const q = pageQueries(`${sort}:${dir}:${used.join(",")}`);
   const params = { teamId, ...Object.fromEntries(used.map((k) => [k, f[k]])), limit: pageSize, offset: (page - 1) * pageSize };
   const rows = await q.rows.execute(params);
-  const [{ n }] = await q.total.execute(params);
-  return { rows, total: n };
+  // A page past the end has no row to carry the total.
+  const total = rows.length ? rows[0].total : (await q.total.execute(params))[0].n;
+  return { rows, total };
 }
 
 /** Inserts a clip; null when the team already has a clip with this checksum (unique index). */
