@@ -19,7 +19,7 @@ export interface FrameClock {
   t(frame: number): number;
   /** Milliseconds from frame `from` to frame `frame` (negative when `frame` is earlier). */
   ms(frame: number, from: number): number;
-  /** The frame nearest a time (seconds on the clock's origin) within first..last; ties go to the earlier frame. */
+  /** The frame nearest a time (seconds on the clock's origin) within first..last; ties go to the later frame. */
   frameAt(tS: number, first: number, last: number): number;
 }
 
@@ -37,10 +37,11 @@ export function frameClock(times: FrameTimes | null | undefined, captureFps: num
   };
   const frameAt = (tS: number, lo: number, hi: number): number => {
     const clamp = (f: number) => Math.min(hi, Math.max(lo, f));
-    // Whole-number arithmetic first on the even parts, so equal rates step exactly one frame per step.
-    if (!seconds) return clamp(1 + Math.round(tS * captureFps - 1e-9));
-    if (tS <= seconds[0]) return clamp(first - Math.round((seconds[0] - tS) * captureFps + 1e-9));
-    if (tS >= seconds[seconds.length - 1]) return clamp(last + Math.round((tS - seconds[seconds.length - 1]) * captureFps - 1e-9));
+    // Ties go to the later frame, as Math.round does; the 1e-9 keeps a float just under a tie from rounding down.
+    const near = (from: number, fromS: number) => clamp(from + Math.round((tS - fromS) * captureFps + 1e-9));
+    if (!seconds) return near(1, 0);
+    if (tS <= seconds[0]) return near(first, seconds[0]);
+    if (tS >= seconds[seconds.length - 1]) return near(last, seconds[seconds.length - 1]);
     // Binary search for the last frame at or before tS, then the nearer of it and the next.
     let a = 0;
     let b = seconds.length - 1;
@@ -49,7 +50,7 @@ export function frameClock(times: FrameTimes | null | undefined, captureFps: num
       if (seconds[m] <= tS) a = m;
       else b = m;
     }
-    const nearest = tS - seconds[a] <= seconds[b] - tS ? a : b;
+    const nearest = tS - seconds[a] < seconds[b] - tS ? a : b;
     return clamp(first + nearest);
   };
   // Without times, whole frame counts over the rate: exact where the rate divides 1,000.

@@ -128,6 +128,89 @@ test("a player ticks two own shots, steps them side by side 50 times in sync, an
   await expect(page.getByTestId("diff-loadTime")).toBeVisible();
 });
 
+test("side by side warns in plain words when the shot types or capture rates differ, and plays both clips in sync by time", async ({ page }) => {
+  await signIn(page, "coach@ravens.example");
+  const warning = page.getByTestId("compare-mismatch");
+  // Same type, same rate: no warning.
+  await page.goto(`/compare?a=${ids.early}&b=${ids.evening}`);
+  await expect(page.getByTestId("synced")).toBeVisible();
+  await expect(warning).toHaveCount(0);
+  // A slap shot at 3,200 fps beside a wrist shot at 1,000 fps: both differences said.
+  await page.goto(`/compare?a=${ids.morning}&b=${ids.jonah}`);
+  await expect(warning).toContainText("Shot A is a slap shot and Shot B a wrist shot");
+  await expect(warning).toContainText("Shot A at 3,200 fps, Shot B at 1,000 fps");
+
+  // About 30 steps a second by default: 1/107 of real time for the 3,200 fps clip.
+  const synced = page.getByTestId("synced");
+  await expect(synced.getByLabel("Playback speed")).toHaveValue(String(30 / 3200));
+  await expect(synced.getByLabel("Playback speed").locator("option:checked")).toHaveText("1/107 real time");
+  await expect(synced.getByTestId("shown-fps")).toHaveText("30 frames/s");
+  const cmp = await api(page, `/api/teams/${ids.teamId}/readout/compare?a=${ids.morning}&b=${ids.jonah}`);
+  const strikeA = cmp.a.events.find((e: { key: string }) => e.key === "puckStrike").frame as number;
+  const strikeB = cmp.b.events.find((e: { key: string }) => e.key === "puckStrike").frame as number;
+  const read = () =>
+    page.evaluate(() => {
+      const at = (id: string, k: string) => Number(document.querySelector(`[data-testid="${id}"]`)!.getAttribute(k));
+      return { step: at("synced", "data-step"), t: at("synced", "data-t-ms"), fA: at("sync-a", "data-frame"), fB: at("sync-b", "data-frame"), tB: at("sync-b", "data-frame-t-ms") };
+    });
+  await synced.focus();
+  await page.keyboard.press("Home");
+  await synced.getByRole("button", { name: "Play both clips" }).click();
+  // While it plays, every picture on screen is the frame of each clip at the common time (held at a shot's end beyond it).
+  const clamp = (f: number, last: number) => Math.min(last, Math.max(1, f));
+  const seen = new Set<number>();
+  await expect
+    .poll(async () => {
+      const s = await read();
+      expect(s.fA).toBe(clamp(strikeA + s.step, cmp.a.shot.frameEnd));
+      expect(s.fB).toBe(clamp(strikeB + Math.round(s.t), cmp.b.shot.frameEnd));
+      seen.add(s.step);
+      return seen.size;
+    }, { timeout: 20_000, intervals: [50] })
+    .toBeGreaterThanOrEqual(4);
+  await synced.getByRole("button", { name: "Pause both clips" }).click();
+  const paused = await read();
+  expect(paused.step).toBeGreaterThan(0);
+  await page.waitForTimeout(400);
+  expect((await read()).step).toBe(paused.step);
+  // The person can still pick another speed.
+  await synced.getByLabel("Playback speed").selectOption({ label: "1/10 real time" });
+  await expect(synced.getByTestId("shown-fps")).toHaveText("60 frames/s (skipping)");
+});
+
+test("the Clip page and Digitise play at about 30 frames a second by default, and the speed can be changed", async ({ page }) => {
+  await signIn(page, "coach@ravens.example");
+  const r = await api(page, `/api/teams/${ids.teamId}/readout/shots/${ids.morning}`);
+  const clipId = r.clip.id as string;
+
+  await page.goto(`/clips/${clipId}`);
+  const speed = page.getByLabel("Playback speed");
+  await expect(speed).toHaveValue(String(30 / 3200));
+  await expect(page.getByTestId("shown-fps")).toHaveText("30 frames/s");
+  const frameBox = page.getByLabel("Frame number");
+  await expect(frameBox).toHaveValue("1");
+  await page.getByRole("button", { name: "Play the clip" }).click();
+  await expect.poll(async () => Number(await frameBox.inputValue()), { timeout: 20_000 }).toBeGreaterThan(3);
+  await page.getByRole("button", { name: "Pause the clip" }).click();
+  // The time shown is the frame's own: frame n at (n − 1) / 3,200 s on this even clip.
+  const n = Number(await frameBox.inputValue());
+  await expect(page.getByTestId("clip-time")).toHaveText(`t = ${(((n - 1) / 3200) * 1000).toFixed(2)} ms`);
+  await speed.selectOption({ label: "1/400 real time" });
+  await expect(page.getByTestId("shown-fps")).toHaveText("8.0 frames/s");
+
+  await page.goto(`/clips/${clipId}/shots/${ids.morning}/digitise`);
+  const dSpeed = page.getByLabel("Playback speed");
+  await expect(dSpeed).toHaveValue(String(30 / 3200));
+  await expect(dSpeed.locator("option:checked")).toHaveText("1/107 real time");
+  const hud = page.getByTestId("hud-frame");
+  const start = Number((await hud.textContent())!.replace(/\D/g, ""));
+  await page.getByRole("button", { name: "Play forward (Space)" }).click();
+  await expect.poll(async () => Number((await hud.textContent())!.replace(/\D/g, "")), { timeout: 20_000 }).toBeGreaterThan(start + 3);
+  await page.getByRole("button", { name: "Play forward (Space)" }).click();
+  await dSpeed.selectOption({ label: "1/1,000 real time" });
+  await expect(dSpeed).toHaveValue(String(1 / 1000));
+});
+
 test("the PDF report downloads, opens, and its text holds the puck exit speed in the viewer's units", async ({ page }) => {
   await signIn(page, "player@ravens.example");
   await page.request.patch("/api/me/prefs", { data: { units: "metric" }, headers: { origin: `http://127.0.0.1:${PORT}` } });

@@ -1,7 +1,8 @@
-// Times come from the capture rate; playback at a fraction of real time carries its remainder.
+// Times come from the clip's frame clock; the default playback speed follows the capture rate.
 import { describe, expect, it } from "vitest";
 import { frameClock } from "@shared/frame-clock";
-import { formatMs, msSince, msSinceFirst, playbackAdvance } from "@/features/digitise/model/timing";
+import { formatMs, msSince, msSinceFirst } from "@/features/digitise/model/timing";
+import { defaultFraction, fractionChoices, fractionLabel, shownText } from "@/components/shot/playback/speed";
 import { lowerBound, markAt, neighbourFrame, trailBefore, withMark, withoutMark } from "@/features/digitise/model/tracks";
 
 describe("timing", () => {
@@ -13,15 +14,17 @@ describe("timing", () => {
     expect(formatMs(-1.25, 3200)).toBe("−1.250 ms");
     expect(formatMs(12.5, 240)).toBe("+12.50 ms");
   });
-  it("1/100 of real time at 3,200 fps shows 32 frames a second, whatever the tick sizes", () => {
-    let carry = 0;
-    let frames = 0;
-    for (let i = 0; i < 60; i++) {
-      const r = playbackAdvance(carry, 1000 / 60, 3200, 1 / 100);
-      carry = r.carry;
-      frames += r.frames;
-    }
-    expect(frames).toBe(32);
+  it("the default playback speed shows about 30 frames a second whatever the capture rate", () => {
+    expect(defaultFraction(3200)).toBeCloseTo(30 / 3200, 12);
+    expect(fractionLabel(defaultFraction(3200))).toBe("1/107 real time");
+    expect(fractionChoices(3200)).toContain(defaultFraction(3200));
+    // 3,000 fps: 1/100 is within 2 %, so that usual speed is the default and offered once.
+    expect(defaultFraction(3000)).toBe(1 / 100);
+    expect(fractionChoices(3000).filter((f) => f === 1 / 100)).toHaveLength(1);
+    expect(defaultFraction(240)).toBe(1 / 8);
+    expect(defaultFraction(25)).toBe(1);
+    expect(shownText(3200, defaultFraction(3200))).toBe("30 frames/s");
+    expect(shownText(3200, 1 / 10)).toBe("60 frames/s (skipping)");
   });
 });
 

@@ -4,6 +4,9 @@ import { capacityFor, FrameCache } from "@/components/shot/stepping/frame-cache"
 import { frameCommandFor, runFrameCommand } from "@/components/shot/stepping/frame-keys";
 import { createFrameLoader } from "@/components/shot/stepping/frame-loader";
 import { useStepper, type FrameStepper } from "@/components/shot/stepping/frame-stepper";
+import { PlaybackControls } from "@/components/shot/playback/PlaybackControls";
+import { frameTarget, usePlayback } from "@/components/shot/playback/usePlayback";
+import { frameClock } from "@shared/frame-clock";
 import { captureTimes, type ClipDetail } from "@shared/schemas/clips";
 import { formatCount } from "../format";
 
@@ -25,8 +28,14 @@ export function FrameViewer({ clip, stepper, available }: Props) {
   const { frame, last } = useStepper(stepper);
   const canvas = useRef<HTMLCanvasElement>(null);
   const [drawn, setDrawn] = useState<{ frame: number; width: number } | null>(null);
-  const times = useMemo(() => (clip.frameTimes ? captureTimes(clip.frameTimes, clip.storedFps, clip.captureFps) : null), [clip.frameTimes, clip.storedFps, clip.captureFps]);
-  const t = times?.[frame - 1] ?? (frame - 1) / clip.captureFps;
+  // The clip's own frame clock in capture time (decision 135); playback moves in that time.
+  const clock = useMemo(
+    () => frameClock(clip.frameTimes ? { firstFrame: 1, seconds: captureTimes(clip.frameTimes, clip.storedFps, clip.captureFps) } : null, clip.captureFps),
+    [clip.frameTimes, clip.storedFps, clip.captureFps],
+  );
+  const t = clock.t(frame) - clock.t(1);
+  const target = useMemo(() => frameTarget(clock, stepper.getState, (f) => stepper.goto(f)), [clock, stepper]);
+  const playback = usePlayback(target, clip.captureFps);
   const width = clip.width ?? 1280;
   const height = clip.height ?? 720;
 
@@ -111,7 +120,8 @@ export function FrameViewer({ clip, stepper, available }: Props) {
           <Button variant="secondary" size="sm" onClick={() => stepper.stepBy(10)} disabled={frame >= last} aria-label="+10, forward ten frames">+10</Button>
           <Button variant="secondary" size="sm" onClick={() => stepper.goto(last)} disabled={frame >= last} aria-label="Last frame"><Icon d="M12 3v10M3 3l7 5-7 5z" /></Button>
         </div>
-        <span className="ml-auto text-sm text-ink-muted tabular-nums" title="Real time since frame 1, from the capture rate">
+        <PlaybackControls playback={playback} captureFps={clip.captureFps} what="the clip" />
+        <span className="ml-auto text-sm text-ink-muted tabular-nums" title="Real time since frame 1, on the clip's own frame clock" data-testid="clip-time">
           t = {ms.format(t * 1000)} ms
         </span>
       </div>

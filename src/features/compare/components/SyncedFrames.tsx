@@ -1,4 +1,6 @@
-import { useEffect, type KeyboardEvent } from "react";
+import { useEffect, useMemo, useRef, type KeyboardEvent } from "react";
+import { PlaybackControls } from "@/components/shot/playback/PlaybackControls";
+import { usePlayback, type PlaybackTarget } from "@/components/shot/playback/usePlayback";
 import { Button, Card } from "@/components/ui";
 import { FrameImage } from "@/components/shot/FrameImage";
 import { frameUrl } from "@/components/shot/frames";
@@ -24,6 +26,29 @@ const signedMs = (v: number) => `${v > 0 ? "+" : v < 0 ? "−" : ""}${Math.abs(v
 export function SyncedFrames({ teamId, shots, clocks, plan, names, colors, step, onStep }: Props) {
   const t = stepTimeMs(plan, step);
   const go = (k: number) => onStep(Math.min(plan.kMax, Math.max(plan.kMin, k)));
+
+  // Both clips play together in time: the common time advances and each shows its frame at that
+  // moment. About 30 steps a second by default (a step is a frame of the faster clip).
+  const at = useRef({ step, onStep });
+  at.current = { step, onStep };
+  const target = useMemo((): PlaybackTarget => {
+    let shown: number | null = null;
+    return {
+      now: () => {
+        shown = at.current.step;
+        return stepTimeMs(plan, shown) / 1000;
+      },
+      seek: (tS) => {
+        if (shown !== null && at.current.step !== shown) return false;
+        shown = stepNearest(plan, tS * 1000);
+        // Ahead of React's render, so the next tick does not take the old step for the person's own.
+        at.current.step = shown;
+        at.current.onStep(shown);
+        return tS * 1000 >= stepTimeMs(plan, plan.kMin) && tS * 1000 <= stepTimeMs(plan, plan.kMax);
+      },
+    };
+  }, [plan]);
+  const playback = usePlayback(target, plan.fastFps);
 
   // Fetch the next few frames ahead of time, so stepping does not wait on the network.
   useEffect(() => {
@@ -96,7 +121,8 @@ export function SyncedFrames({ teamId, shots, clocks, plan, names, colors, step,
           <Button variant="secondary" size="sm" onClick={() => go(step + 10)} aria-label="+10, forward ten steps">
             10 ▶▶
           </Button>
-          <span className="ml-2 min-w-40 text-sm font-semibold text-ink tabular-nums" aria-live="polite">
+          <PlaybackControls playback={playback} captureFps={plan.fastFps} what="both clips" />
+          <span className="ml-2 min-w-40 text-sm font-semibold text-ink tabular-nums" aria-live={playback.dir ? "off" : "polite"}>
             {signedMs(t)} from puck strike
           </span>
           <input

@@ -52,8 +52,8 @@ export const stepTimeMs = (p: SyncPlan, k: number) => (k * 1000) / p.fastFps;
 /** The frame a clip shows at step k: the nearest one in time, held at the shot's first or last frame beyond it. */
 export function frameAtStep(c: ClipClock, p: SyncPlan, k: number): FrameAtStep {
   const clock = clockOf(c);
-  const at = clock.t(c.strike) + k / p.fastFps;
-  const raw = clock.frameAt(at, -Infinity, Infinity);
+  // An even clip in whole-number arithmetic (k·fps / fastFps), so equal rates give exactly one frame per step.
+  const raw = c.times ? clock.frameAt(clock.t(c.strike) + k / p.fastFps, -Infinity, Infinity) : c.strike + Math.round((k * c.fps) / p.fastFps);
   const frame = Math.min(c.last, Math.max(c.first, raw));
   return { frame, tMs: clock.ms(frame, c.strike), outside: raw < c.first ? "before" : raw > c.last ? "after" : null };
 }

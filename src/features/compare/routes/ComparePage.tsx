@@ -8,6 +8,7 @@ import { formatDate } from "@/lib/format";
 import { isStaff } from "@/lib/roles";
 import { useActiveTeam } from "@/lib/session";
 import { useUnits } from "@/lib/units";
+import { shotTypeLabels } from "@shared/schemas/clips";
 import { shotTitle, type ShotReadout } from "@shared/schemas/readout";
 import { useCompare } from "../api/compare";
 import { useShotChoices } from "../api/shotChoices";
@@ -80,6 +81,35 @@ function clockOf(r: ShotReadout): ClipClock | null {
   return { fps: r.clip.captureFps, times: r.frameTimes, strike, first: r.shot.frameStart, last: r.shot.frameEnd };
 }
 
+/** Two shots of different kinds, or filmed at different rates, are compared with care: say so plainly. */
+function Mismatch({ shots }: { shots: Record<Side, ShotReadout> }) {
+  const [a, b] = [shots.a, shots.b];
+  const fps = (r: ShotReadout) => `${r.clip.captureFps.toLocaleString("en")} fps`;
+  const lines: string[] = [];
+  if (a.shot.shotType !== b.shot.shotType)
+    lines.push(
+      `${NAMES.a} is a ${shotTypeLabels[a.shot.shotType].toLowerCase()} and ${NAMES.b} a ${shotTypeLabels[b.shot.shotType].toLowerCase()}. Different shots load and release the stick differently, so their numbers differ for that reason too.`,
+    );
+  if (a.clip.captureFps !== b.clip.captureFps) {
+    const slow = a.clip.captureFps < b.clip.captureFps ? "a" : "b";
+    lines.push(
+      `The clips were filmed at different rates: ${NAMES.a} at ${fps(a)}, ${NAMES.b} at ${fps(b)}. They stay in step by time, so ${NAMES[slow]} moves in bigger jumps and its times are only as fine as one of its frames (${(1000 / shots[slow].clip.captureFps).toFixed(2)} ms).`,
+    );
+  }
+  if (!lines.length) return null;
+  return (
+    <div data-testid="compare-mismatch">
+      <Alert tone="warn" title="These two shots are not alike">
+        <ul className="list-disc space-y-1 pl-5">
+          {lines.map((l) => (
+            <li key={l}>{l}</li>
+          ))}
+        </ul>
+      </Alert>
+    </div>
+  );
+}
+
 function Comparison({ teamId, shots }: { teamId: string; shots: Record<Side, ShotReadout> }) {
   const { system } = useUnits();
   const [step, setStep] = useState(0);
@@ -106,6 +136,7 @@ function Comparison({ teamId, shots }: { teamId: string; shots: Record<Side, Sho
           </li>
         ))}
       </ul>
+      <Mismatch shots={shots} />
       {missing.map((s) => (
         <Alert key={s} tone="warn" title={`${NAMES[s]} has no results yet`}>
           {shots[s].missing}

@@ -1,7 +1,7 @@
 import { useEffect, useRef, useState } from "react";
 import { cn } from "@/lib/cn";
 import type { DigitiseStore } from "../model/store";
-import { fractionLabel, PLAYBACK_FRACTIONS, playbackFps } from "../model/timing";
+import { fractionLabel, shownText } from "@/components/shot/playback/speed";
 import type { Playback } from "./usePlayback";
 import { useDigitise } from "./useDigitise";
 
@@ -26,7 +26,6 @@ export function Transport({ store, playback, jumpRequest }: { store: DigitiseSto
     jumpInput.current?.blur();
   };
 
-  const shown = Math.min(60, playbackFps(s.fps, playback.fraction));
   return (
     <div className="flex flex-wrap items-center gap-x-3 gap-y-2 border-t border-[#263034] bg-[#161d20] px-3 py-2 text-[13px] text-[#dfe6e3]">
       <div className="flex items-center gap-0.5" role="group" aria-label="Step through frames">
@@ -51,14 +50,14 @@ export function Transport({ store, playback, jumpRequest }: { store: DigitiseSto
           onChange={(e) => playback.setFraction(Number(e.target.value))}
           className="h-7 rounded border border-[#33403f] bg-[#0f1416] px-1.5 text-[#dfe6e3]"
         >
-          {PLAYBACK_FRACTIONS.map((f) => (
+          {playback.choices.map((f) => (
             <option key={f} value={f}>
               {fractionLabel(f)}
             </option>
           ))}
         </select>
         <span className="tabular-nums" title="Frames shown per second of your time">
-          {shown < 10 ? shown.toFixed(1) : Math.round(shown)} frames/s{playbackFps(s.fps, playback.fraction) > 60 ? " (skipping)" : ""}
+          {shownText(s.fps, playback.fraction)}
         </span>
       </label>
       <form

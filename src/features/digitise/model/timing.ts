@@ -18,23 +18,6 @@ export function formatMs(ms: number, captureFps: number): string {
   return `${sign}${Math.abs(ms).toFixed(digits)} ms`;
 }
 
-/** Playback at a fraction of real time: frames to show per second of wall clock. */
-export const playbackFps = (captureFps: number, fraction: number) => captureFps * fraction;
-
-export const PLAYBACK_FRACTIONS = [1 / 1000, 1 / 400, 1 / 200, 1 / 100, 1 / 50, 1 / 20, 1 / 10, 1 / 4, 1] as const;
-
-export const fractionLabel = (f: number) => (f >= 1 ? "real time" : `1/${Math.round(1 / f)} real time`);
-
-/**
- * Frames to advance for a tick of `elapsedMs`, carrying the remainder, so slow fractions step
- * every few display frames and fast ones skip frames rather than fall behind.
- */
-export function playbackAdvance(carry: number, elapsedMs: number, captureFps: number, fraction: number): { frames: number; carry: number } {
-  const exact = carry + (elapsedMs / 1000) * playbackFps(captureFps, fraction);
-  const frames = Math.floor(exact + 1e-9); // sums of tick lengths are not exact
-  return { frames, carry: exact - frames };
-}
-
 /**
  * Gaps and repeated frames in the shot's own frame clock (the same rule the engine's notes use),
  * for marks on the frame strip; none when the shot has no clock of its own.
