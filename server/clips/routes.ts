@@ -21,6 +21,7 @@ clipsRouter.get("/clip-options", async (req, res) => void res.json(await svc.opt
 clipsRouter.get("/clips", async (req, res) => void res.json(await svc.list(actorOf(req), parse(ClipListQuerySchema, req.query))));
 clipsRouter.get("/clips/:clipId", async (req, res) => void res.json(await svc.get(actorOf(req), id(req))));
 clipsRouter.patch("/clips/:clipId", async (req, res) => void res.json(await svc.patch(actorOf(req), id(req), parse(ClipPatchSchema, req.body))));
+clipsRouter.get("/clips/:clipId/deletion", async (req, res) => void res.json(await svc.deletionCounts(actorOf(req), id(req))));
 clipsRouter.delete("/clips/:clipId", async (req, res) => {
   await svc.remove(actorOf(req), id(req));
   res.status(204).end();

@@ -5,13 +5,14 @@ import { log } from "../log";
 import { forbidden, HttpError, notFound } from "../http/problem";
 import { cancelExtract, sendExtract } from "../jobs/clip-queue";
 import { clipKeys } from "../storage";
-import type { ClipDetail, ClipListQuerySchema, ClipOptions, ClipPage, ClipPatch, ClipProgress } from "../../shared/schemas/clips";
+import type { ClipDeletionCounts, ClipDetail, ClipListQuerySchema, ClipOptions, ClipPage, ClipPatch, ClipProgress } from "../../shared/schemas/clips";
 import type { z } from "zod";
 import { storage } from "./deps";
 import { checkMetaRefs } from "./ingest";
 import { toDetail, toProgress, toSummary } from "./present";
 import * as memberRepo from "../entities/member/repository";
 import { countClipShotsOf } from "../entities/shot/players";
+import { shotsAndMarksOfClip } from "../entities/shot/repository";
 import { isUuid } from "../http/ids";
 import * as repo from "../entities/clip/repository";
 import * as stickRepo from "../entities/stick/repository";
@@ -103,6 +104,12 @@ export async function retry(a: Actor, id: string, reqId?: string): Promise<ClipD
   await repo.updateClip(j.clip.id, { status: "extracting", failureReason: null, framesDone: 0 });
   await sendExtract(j.clip.id, reqId);
   return get(a, id);
+}
+
+/** What deleting the clip would take with it, asked by those who may delete it (the dialog says it). */
+export async function deletionCounts(a: Actor, id: string): Promise<ClipDeletionCounts> {
+  const j = await editableClip(a, id, policy.deleteClip, "deleting");
+  return { frames: j.clip.frameCount ?? j.clip.framesDone, ...(await shotsAndMarksOfClip(a.teamId, j.clip.id)) };
 }
 
 export async function remove(a: Actor, id: string): Promise<void> {

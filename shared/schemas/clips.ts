@@ -238,6 +238,9 @@ export interface ClipDetail extends ClipSummary {
   sha256: string | null;
 }
 
+/** GET …/clips/:id/deletion — what deleting the clip removes with it. */
+export interface ClipDeletionCounts { frames: number; shots: number; marks: number }
+
 export interface ClipPage { items: ClipSummary[]; total: number; page: number; pageSize: number }
 
 export interface ClipProgress { id: string; status: ClipStatus; framesDone: number; frameCount: number | null; progress: number; failureReason: string | null }

@@ -143,6 +143,20 @@ describe("a clip from upload to frames", () => {
     expect(r.json.code).toBe("not_failed");
   });
 
+  it("says what deleting the clip takes with it: its frames, its shots and every mark on them", async () => {
+    const none = await coach.get(`${team()}/clips/${clipId}/deletion`);
+    expect(none.status, none.text).toBe(200);
+    expect(none.json).toEqual({ frames: 48, shots: 0, marks: 0 });
+    const a = (await coach.post(`${team()}/clips/${clipId}/shots`, { frameStart: 1, frameEnd: 40 })).json;
+    const b = (await coach.post(`${team()}/clips/${clipId}/shots`, { frameStart: 5, frameEnd: 30 })).json;
+    const marked = await coach.put(`${team()}/shots/${a.id}/marks`, { baseVersion: 1, marks: { puck: [[10, 50, 60], [11, 55, 60], [12, 61, 60]], bladeHeel: [[10, 40, 90]] }, events: {} });
+    expect(marked.status, marked.text).toBe(200);
+    expect((await coach.put(`${team()}/shots/${b.id}/marks`, { baseVersion: 1, marks: { topHand: [[6, 10, 10], [7, 11, 10]] }, events: {} })).status).toBe(200);
+    expect((await coach.get(`${team()}/clips/${clipId}/deletion`)).json).toEqual({ frames: 48, shots: 2, marks: 6 });
+    // A player may not delete clips, so is not told what a deletion would take.
+    expect((await player.get(`${team()}/clips/${clipId}/deletion`)).status).toBe(403);
+  });
+
   it("deletes the clip, every derived file and records it in the audit log", async () => {
     expect((await coach.del(`${team()}/clips/${clipId}`)).status).toBe(204);
     expect(storedClipDirs()).not.toContain(clipId);

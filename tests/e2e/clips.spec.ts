@@ -98,6 +98,23 @@ test("thirty quick arrow presses on the Clip page move exactly thirty frames, an
   await expect(page).toHaveURL(/frame=120/);
 });
 
+test("a clip's delete dialog says how many frames, shots and marks go with it, counted by the server", async ({ page }) => {
+  await signIn(page, "coach@ravens.example");
+  await page.goto("/clips");
+  await page.getByRole("link", { name: "Slap shots, lane 1 — Theo" }).click();
+  const clipId = new URL(page.url()).pathname.split("/").pop()!;
+  const me = await (await page.request.get("/api/me")).json();
+  const teamId: string = me.activeTeamId ?? me.teams[0].id;
+  await page.getByRole("button", { name: "Delete" }).click();
+  const dialog = page.getByRole("dialog", { name: "Delete this clip?" });
+  const counts = await (await page.request.get(`/api/teams/${teamId}/clips/${clipId}/deletion`)).json();
+  expect(counts.shots).toBeGreaterThan(0);
+  const n = (k: number) => k.toLocaleString("en-US");
+  await expect(dialog).toContainText(`its ${n(counts.frames)} frames, ${n(counts.shots)} shot${counts.shots === 1 ? "" : "s"} and their ${n(counts.marks)} marks`);
+  await dialog.getByRole("button", { name: "Cancel" }).click();
+  await expect(dialog).toHaveCount(0);
+});
+
 test("a folder of numbered lab frames goes up as one ZIP: the capture rate is asked for, then every frame is extracted", async ({ page }) => {
   const dir = path.join(mkdtempSync(path.join(os.tmpdir(), "lf-e2e-")), "lab-run-12");
   mkdirSync(dir);

@@ -68,6 +68,16 @@ export async function shotsOfClip(teamId: string, clipId: string) {
   return rows.map(typed);
 }
 
+/** What deleting a clip takes with it: its shots and the marks they hold (every landmark's points). */
+export async function shotsAndMarksOfClip(teamId: string, clipId: string): Promise<{ shots: number; marks: number }> {
+  const marksOfShot = sql`(select coalesce(sum(jsonb_array_length(t.v)), 0) from jsonb_each(${shot.marks}) as t(k, v) where jsonb_typeof(t.v) = 'array')`;
+  const [row] = await db()
+    .select({ shots: sql<number>`count(*)::int`, marks: sql<number>`coalesce(sum(${marksOfShot}), 0)::int` })
+    .from(shot)
+    .where(and(eq(shot.clipId, clipId), eq(shot.teamId, teamId)));
+  return { shots: row?.shots ?? 0, marks: row?.marks ?? 0 };
+}
+
 /** Users each shot is shared with. */
 export async function sharesOf(shotIds: string[]) {
   const out = new Map<string, string[]>();

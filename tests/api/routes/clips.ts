@@ -45,6 +45,7 @@ export const clipsRoutes: RouteCase[] = [
   { name: "list clips", method: "GET", path: (c) => `/api/teams/${c.teamId}/clips?sort=title&dir=asc`, allowed: ALL, teamScoped: true },
   { name: "get clip", method: "GET", path: (c) => clip(c), allowed: ALL, teamScoped: true, fixture: (c) => clipFixture(c) },
   { name: "edit clip", method: "PATCH", path: (c) => clip(c), body: () => ({ notes: "Lab camera A", captureFps: 3200 }), allowed: STAFF, teamScoped: true, fixture: (c) => clipFixture(c) },
+  { name: "what deleting a clip takes", method: "GET", path: (c) => clip(c, "/deletion"), allowed: STAFF, teamScoped: true, fixture: (c) => clipFixture(c) },
   { name: "delete clip", method: "DELETE", path: (c) => clip(c), allowed: STAFF, teamScoped: true, fixture: (c) => clipFixture(c) },
   { name: "retry clip", method: "POST", path: (c) => clip(c, "/retry"), allowed: STAFF, teamScoped: true, fixture: (c) => clipFixture(c, "failed") },
   { name: "clip progress", method: "GET", path: (c) => clip(c, "/progress"), allowed: ALL, teamScoped: true, fixture: (c) => clipFixture(c) },

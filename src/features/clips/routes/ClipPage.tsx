@@ -5,7 +5,8 @@ import { errorMessage, isApiError } from "@/lib/api";
 import { useActiveTeam } from "@/lib/session";
 import { useClip } from "../api/clip";
 import { useClipProgress } from "../api/clipProgress";
-import { useDeleteClip } from "../api/deleteClip";
+import { useClipDeletionCounts, useDeleteClip } from "../api/deleteClip";
+import { deletionText } from "../model/deletion";
 import { useRetryClip } from "../api/retryClip";
 import { CaptureRateConfirm } from "../components/CaptureRateConfirm";
 import { ClipFacts } from "../components/ClipFacts";
@@ -31,13 +32,14 @@ function ClipView({ teamId, clipId, staff }: { teamId: string; clipId: string; s
   const live = useClipProgress(teamId, clipId, clip.data?.status === "extracting");
   const retry = useRetryClip(teamId);
   const remove = useDeleteClip(teamId);
+  const [confirmDelete, setConfirmDelete] = useState(false);
+  const deletion = useClipDeletionCounts(teamId, clipId, confirmDelete);
   const [params, setParams] = useSearchParams();
   // The frame lives in the stepper (synchronous, so no key press is lost); the address follows it.
   const [stepper] = useState(() => new FrameStepper(1, 1, Number(params.get("frame")) || 1));
   // The frame the address asked for, gone to once it exists (a clip may still be extracting).
   const pendingOpen = useRef(Number(params.get("frame")) || 1);
   const [editing, setEditing] = useState(false);
-  const [confirmDelete, setConfirmDelete] = useState(false);
 
   const shown = clip.data ? extractionView(clip.data, live) : null;
   const liveStatus = shown?.status;
@@ -129,7 +131,7 @@ function ClipView({ teamId, clipId, staff }: { teamId: string; clipId: string; s
       <ConfirmDialog
         open={confirmDelete}
         title="Delete this clip?"
-        description="The clip, all its frames and every shot digitised on it are removed. This cannot be undone."
+        description={deletionText(deletion.data)}
         confirmLabel="Delete clip"
         pending={remove.isPending}
         onCancel={() => setConfirmDelete(false)}
