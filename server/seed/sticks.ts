@@ -91,7 +91,7 @@ const demoSticks: DemoStick[] = [
 // A dial gauge's reading scatter, in its last digit: small enough that R² stays above 0.999.
 const SCATTER = [0.6, -0.4, 0.2, -0.5, 0.3];
 
-function readingsFor(s: DemoStick, t: DemoTest, k: number) {
+function readingsFor(s: Pick<DemoStick, "units" | "loads">, t: DemoTest, k: number) {
   const stiffness = s.units === "imperial" ? t.flex : (t.flex * NPM_PER_LBF_PER_IN) / 1000; // lbf/in or N/mm
   const step = s.units === "imperial" ? 0.005 : 0.1; // in or mm
   const digits = s.units === "imperial" ? 3 : 1;
@@ -101,17 +101,17 @@ function readingsFor(s: DemoStick, t: DemoTest, k: number) {
   }));
 }
 
-async function seedSticks(ids: DemoIds) {
-  const analyst: Actor = { userId: ids.users["analyst@ravens.example"], teamId: ids.teamId, role: "analyst" };
-  for (const s of demoSticks) {
-    if (await repo.stickByLabel(ids.teamId, s.label)) continue;
+/** Sticks of a team with their bench tests, entered by its analyst through the bench service; a stick already there (by label) is left alone. */
+export async function ensureDemoSticks(analyst: Actor, sticks: (Omit<DemoStick, "lie" | "ownerEmail"> & { lie?: string; ownerId: string | null })[]) {
+  for (const s of sticks) {
+    if (await repo.stickByLabel(analyst.teamId, s.label)) continue;
     const stick = await createStick(analyst, {
       label: s.label,
-      ownerId: ids.users[s.ownerEmail],
+      ownerId: s.ownerId,
       ratedFlex: s.ratedFlex,
       lengthMm: s.lengthMm,
       bladeCurve: s.bladeCurve,
-      lie: s.lie,
+      lie: s.lie ?? "5",
       firstUseDate: s.firstUseDate,
       notes: s.notes,
     });
@@ -123,6 +123,11 @@ async function seedSticks(ids: DemoIds) {
         readings: readingsFor(s, t, k),
       });
   }
+}
+
+async function seedSticks(ids: DemoIds) {
+  const analyst: Actor = { userId: ids.users["analyst@ravens.example"], teamId: ids.teamId, role: "analyst" };
+  await ensureDemoSticks(analyst, demoSticks.map((s) => ({ ...s, ownerId: ids.users[s.ownerEmail] })));
 }
 
 /** Demo-data steps for this area, run in order after the people; each must be idempotent. */

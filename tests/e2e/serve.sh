@@ -13,5 +13,5 @@ export SMTP_PORT="${TEST_SMTP_PORT:-1125}" MAIL_INBOX_URL="${TEST_INBOX_URL:-htt
 export UPLOAD_DIR="$DATA/e2e-uploads-$PORT_E2E" RATE_LIMIT=false LOG_LEVEL=warn
 rm -rf "$UPLOAD_DIR"; mkdir -p "$UPLOAD_DIR"
 node --import tsx server/db/migrate.ts
-node --import tsx scripts/seed.ts
+DEMO_SEASON=off node --import tsx scripts/seed.ts
 exec node --import tsx server/index.ts
