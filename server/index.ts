@@ -1,8 +1,8 @@
 import cluster from "node:cluster";
-import { createServer } from "node:http";
 import { env } from "./env";
 import { log } from "./log";
 import { createApp } from "./app";
+import { createWebServer } from "./http/web-server";
 import { startJobs, stopJobs } from "./jobs/runtime";
 import { db } from "./db/client";
 import { startDraining } from "./health/draining";
@@ -20,9 +20,7 @@ async function main() {
     process.exit(2);
   }
   if (e.WEB_PROCESSES > 1 && cluster.isPrimary) return superviseWebProcesses(e.WEB_PROCESSES, e.EMBEDDED_WORKER);
-  const server = createServer(createApp());
-  server.requestTimeout = 0; // large resumable uploads; each chunk is bounded by tus itself
-  server.headersTimeout = 60_000;
+  const server = createWebServer(createApp());
   server.on("error", (err: NodeJS.ErrnoException) => {
     if (err.code === "EADDRINUSE") console.error(`Port ${e.PORT} on ${e.HOST} is already in use. Stop the other program or set PORT.`);
     else console.error(err);

@@ -2,16 +2,16 @@
 import type { AddressInfo } from "node:net";
 import type { Server } from "node:http";
 import { createApp } from "../../server/app";
+import { createWebServer } from "../../server/http/web-server";
 import { seedPeople, DEMO_PASSWORD, type DemoIds } from "../../server/seed/demo-people";
 
 export interface TestServer { url: string; close: () => Promise<void> }
 
 export async function startServer(): Promise<TestServer> {
   process.env.PUBLIC_URL ??= "http://127.0.0.1:3000";
-  const app = createApp();
-  const server: Server = await new Promise((resolve) => {
-    const s = app.listen(0, "127.0.0.1", () => resolve(s));
-  });
+  // The web process's own server, with its time limits (server/http/web-server.ts).
+  const server: Server = createWebServer(createApp());
+  await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
   const { port } = server.address() as AddressInfo;
   return { url: `http://127.0.0.1:${port}`, close: () => new Promise((r) => server.close(() => r())) };
 }
