@@ -40,6 +40,25 @@ describe("regions", () => {
     expect(Array.from(m.data.slice(0, 10)).map((v) => (v ? 1 : 0))).toEqual([1, 1, 1, 1, 1, 1, 1, 0, 0, 0]);
     expect(coverage(m)).toBeCloseTo(0.7, 9);
   });
+  it("rasterMask gives, pixel for pixel, what contains says (polygons in either order, boxes, rings, margins)", () => {
+    const rng = seedrandom("raster-vs-contains");
+    const around = (cx: number, cy: number, r: number, k: number, dir: 1 | -1): [number, number][] =>
+      Array.from({ length: k }, (_, i) => [cx + r * Math.cos((dir * 2 * Math.PI * i) / k), cy + r * Math.sin((dir * 2 * Math.PI * i) / k)] as [number, number]);
+    for (let trial = 0; trial < 40; trial++) {
+      const polygon = { kind: "polygon" as const, points: around(20 * rng(), 20 * rng(), 4 + 12 * rng(), 3 + Math.floor(4 * rng()), rng() < 0.5 ? 1 : -1) };
+      const ring = { kind: "box" as const, cx: 20 * rng(), cy: 20 * rng(), halfW: 9, halfH: 5, inner: { halfW: 6, halfH: 2 } };
+      const other = { kind: "polygon" as const, points: around(20 * rng(), 20 * rng(), 3 + 8 * rng(), 4, 1) };
+      const margin = 2 * rng();
+      const [x0, y0] = [-3 + 0.5 * Math.floor(6 * rng()), -2.25];
+      const mask = rasterMask(28, 24, x0, y0, [polygon, ring], [other], margin);
+      for (let j = 0; j < 24; j++)
+        for (let i = 0; i < 28; i++) {
+          const [x, y] = [x0 + i + 0.5, y0 + j + 0.5];
+          const want = (contains(polygon, x, y) || contains(ring, x, y)) && !contains(other, x, y, margin);
+          expect(mask.data[j * 28 + i], `trial ${trial}, pixel ${i},${j}`).toBe(want ? 255 : 0);
+        }
+    }
+  });
 });
 
 describe("masked matching", () => {
