@@ -34,14 +34,26 @@ export interface Matcher {
 }
 
 export function createCvMatcher(cv: OpenCv): Matcher {
+  // One Mat per use and size: the shot tracker's landmarks take turns with windows and templates of
+  // their own sizes, and reallocating on every change of size cost as much as a small match.
   const mats = new Map<string, CvMat>();
+  const MAX_MATS = 48;
   const sized = (key: string, w: number, h: number): CvMat => {
-    const m = mats.get(key);
-    if (m && m.cols === w && m.rows === h) return m;
-    m?.delete();
+    const k = `${key} ${w}×${h}`;
+    const m = mats.get(k);
+    if (m) return m;
     const fresh = new cv.Mat(h, w, cv.CV_8UC1);
-    mats.set(key, fresh);
+    mats.set(k, fresh);
     return fresh;
+  };
+  /** The last frame patch copied into each Mat (templates and sources are immutable and reused). */
+  const holds = new Map<CvMat, GrayFrame>();
+  /** At the start of a call (never within one, whose Mats are in use): too many sizes kept, start afresh. */
+  const prune = () => {
+    if (mats.size < MAX_MATS) return;
+    for (const old of mats.values()) old.delete();
+    mats.clear();
+    holds.clear();
   };
   const copyInto = (mat: CvMat, frame: GrayFrame, r: Rect) => {
     const d = mat.data;
@@ -52,29 +64,26 @@ export function createCvMatcher(cv: OpenCv): Matcher {
     }
   };
   const whole = (f: GrayFrame): Rect => ({ x: 0, y: 0, width: f.width, height: f.height });
-  // Templates and sources are immutable and reused for many calls: uploaded once each.
-  let templateIn: GrayFrame | undefined;
-  let maskIn: GrayFrame | undefined;
-  let sourceIn: GrayFrame | undefined;
   const result = new cv.Mat();
   const turned = new cv.Mat();
   const affine = new cv.Mat(2, 3, cv.CV_64FC1);
 
   return {
     match(frame, window, template, mask) {
+      prune();
       const win = sized("window", window.width, window.height);
       copyInto(win, frame, window);
       const tpl = sized("template", template.width, template.height);
-      if (template !== templateIn || tpl.data.length !== template.data.length) copyInto(tpl, template, whole(template));
-      templateIn = template;
+      if (holds.get(tpl) !== template) copyInto(tpl, template, whole(template));
+      holds.set(tpl, template);
       if (!mask) {
         cv.matchTemplate(win, tpl, result, cv.TM_CCOEFF_NORMED);
         // Copied out: the view dies if the WebAssembly heap grows on a later call.
         return { width: result.cols, height: result.rows, data: result.data32F.slice() };
       }
       const m = sized("mask", mask.width, mask.height);
-      if (mask !== maskIn) copyInto(m, mask, whole(mask));
-      maskIn = mask;
+      if (holds.get(m) !== mask) copyInto(m, mask, whole(mask));
+      holds.set(m, mask);
       cv.matchTemplate(win, tpl, result, cv.TM_CCOEFF_NORMED, m);
       const data = result.data32F.slice();
       // A flat masked patch divides by zero: OpenCV then gives NaN or huge values, not a score.
@@ -82,9 +91,10 @@ export function createCvMatcher(cv: OpenCv): Matcher {
       return { width: result.cols, height: result.rows, data };
     },
     turn(source, x, y, angle, size) {
+      prune();
       const src = sized("source", source.width, source.height);
-      if (source !== sourceIn) copyInto(src, source, whole(source));
-      sourceIn = source;
+      if (holds.get(src) !== source) copyInto(src, source, whole(source));
+      holds.set(src, source);
       const c = Math.cos(angle);
       const s = Math.sin(angle);
       // Inverse map, in OpenCV's pixel-index coordinates (centres on whole numbers): output pixel
@@ -97,7 +107,7 @@ export function createCvMatcher(cv: OpenCv): Matcher {
     dispose() {
       for (const m of mats.values()) m.delete();
       mats.clear();
-      templateIn = maskIn = sourceIn = undefined;
+      holds.clear();
       result.delete();
       turned.delete();
       affine.delete();
