@@ -2,7 +2,7 @@ import { useState } from "react";
 import { Alert, Button, Dialog, PageSpinner, toast } from "@/components/ui";
 import { errorMessage, isApiError } from "@/lib/api";
 import type { ClipDetail } from "@shared/schemas/clips";
-import { useClipOptions } from "../api/clipOptions";
+import { useClipOptions } from "@/entities/clip";
 import { useUpdateClip } from "../api/updateClip";
 import { emptyMeta, errorsFrom, validateMeta, type MetaErrors, type MetaFormValues } from "../upload/metaForm";
 import { ClipMetaFields } from "./ClipMetaFields";

@@ -2,7 +2,7 @@ import { useEffect, useRef, useState, type DragEvent } from "react";
 import { Alert, Button, Card, PageSpinner } from "@/components/ui";
 import { errorMessage } from "@/lib/api";
 import { cn } from "@/lib/cn";
-import { useClipOptions } from "../api/clipOptions";
+import { useClipOptions } from "@/entities/clip";
 import { formatBytes } from "../format";
 import { discardUnfinished, unfinishedUploads, type UnfinishedUpload } from "../upload/clipUpload";
 import { folderName, frameFiles, zipFrames } from "../upload/folderZip";

@@ -2,7 +2,7 @@ import { useSearchParams } from "react-router-dom";
 import { Button, Card, EmptyState, PageHeader, PageSpinner, LoadError, Pager } from "@/components/ui";
 import { useActiveTeam } from "@/lib/session";
 import { clipSorts, clipStatuses, shotTypes, type ClipListQuery, type ClipSort } from "@shared/schemas/clips";
-import { useClipOptions } from "../api/clipOptions";
+import { useClipOptions } from "@/entities/clip";
 import { useClips } from "../api/clips";
 import { ClipFilters, type FilterValues } from "../components/ClipFilters";
 import { ClipsTable } from "../components/ClipsTable";

@@ -1,10 +1,8 @@
-import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import { apiGet, apiPatch } from "@/lib/api";
-import type { ClipOptions } from "@shared/schemas/clips";
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { apiPatch } from "@/lib/api";
 import type { ShotDetail, UpdateShotBody } from "@shared/schemas/shots";
 import { teamPath } from "@/entities/team";
 import { shotAccessChanged } from "@/entities/shot";
-import { clipKeys } from "@/entities/clip";
 
 /** PATCH /api/teams/:teamId/shots/:shotId — staff correct the label, frames, player or stick (audited). */
 export const updateShot = (teamId: string, shotId: string, body: UpdateShotBody) =>
@@ -20,14 +18,3 @@ export function useUpdateShot(teamId: string, shotId: string) {
     onSuccess: () => shotAccessChanged(qc, teamId),
   });
 }
-
-// The team's players and sticks to choose from (GET …/clip-options, staff only; the same answer
-// the clip form reads, so both share one cached copy).
-const peopleOptions = (teamId: string) =>
-  queryOptions({
-    queryKey: clipKeys.options(teamId),
-    queryFn: ({ signal }) => apiGet<ClipOptions>(`${teamPath(teamId)}/clip-options`, undefined, signal),
-    staleTime: 60_000,
-  });
-
-export const usePlayersAndSticks = (teamId: string, enabled: boolean) => useQuery({ ...peopleOptions(teamId), enabled });

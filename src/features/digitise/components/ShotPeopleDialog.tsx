@@ -2,14 +2,15 @@ import { useState } from "react";
 import type { ShotSummary } from "@shared/schemas/shots";
 import { Alert, Button, Dialog, Field, PageSpinner, Select, toast } from "@/components/ui";
 import { errorMessage, isApiError } from "@/lib/api";
-import { usePlayersAndSticks, useUpdateShot } from "../api/updateShot";
+import { useUpdateShot } from "../api/updateShot";
+import { useClipOptions } from "@/entities/clip";
 
 /**
  * Staff correct who took a shot and with which stick. The player decides who may see the shot
  * (the player sees their own shots), the stick which stiffness its results use.
  */
 export function ShotPeopleDialog({ teamId, shot, open, onClose }: { teamId: string; shot: ShotSummary; open: boolean; onClose: () => void }) {
-  const options = usePlayersAndSticks(teamId, open);
+  const options = useClipOptions(teamId, open);
   const update = useUpdateShot(teamId, shot.id);
   const [playerId, setPlayerId] = useState(shot.playerId ?? "");
   const [stickId, setStickId] = useState(shot.stickId ?? "");
