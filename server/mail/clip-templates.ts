@@ -1,18 +1,10 @@
 import type { Mail } from "./mailer";
+import { productMail } from "./layout";
 
 // Messages about a clip the person uploaded: ready for digitising, or failed with the reason.
-const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
-
-function clipMail(to: string, subject: string, paragraphs: string[], url: string, action: string): Mail {
-  const footer = "You get this because you uploaded the clip. Turn these messages off under your account's notification settings.";
-  return {
-    to,
-    subject,
-    text: [...paragraphs, "", `${action}: ${url}`, "", footer, "— Loadframe"].join("\n"),
-    html:
-      `<div style="font-family:sans-serif;max-width:520px">${paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`).join("")}` +
-      `<p><a href="${escapeHtml(url)}">${escapeHtml(action)}</a></p><p style="color:#666;font-size:12px">${escapeHtml(footer)}</p></div>`,
-  };
+function clipMail(to: string, subject: string, lines: string[], url: string, label: string): Mail {
+  const footer = { text: "You get this because you uploaded the clip. Turn these messages off under your account's notification settings." };
+  return productMail({ to, subject, lines, action: { url, label }, footer });
 }
 
 export function clipReadyMail(p: { to: string; name: string; clipTitle: string; frameCount: number; captureFps: number; confirmRate: boolean; url: string }): Mail {

@@ -1,8 +1,8 @@
 import type { Mail } from "./mailer";
+import { productMail } from "./layout";
 
 // The message a person gets when a coach shares a shot with them: who, which shot, its headline
 // number in the recipient's own units, and the link to the readout.
-const esc = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 
 export interface ShotSharedMail {
   to: string;
@@ -27,15 +27,11 @@ export function shotSharedMail(p: ShotSharedMail): Mail {
   ];
   if (p.headline) lines.push(`${p.headline}.`);
   lines.push("The readout has every result with its uncertainty, the phase timeline and the charts; you can download it as a PDF.");
-  const footer = `You get this because a coach shared a shot with you. Turn these messages off in your notification settings: ${p.settingsUrl}`;
-  return {
+  return productMail({
     to: p.to,
     subject: `${p.sharerName} shared a shot with you: ${p.shotTitle}`,
-    text: [...lines, "", `Open the readout: ${p.url}`, "", footer, "— Loadframe"].join("\n"),
-    html:
-      `<div style="font-family:sans-serif;max-width:520px">${lines.map((l) => `<p>${esc(l)}</p>`).join("")}` +
-      `<p><a href="${esc(p.url)}" style="background:#0b6e69;color:#fff;padding:10px 16px;border-radius:6px;text-decoration:none">Open the readout</a></p>` +
-      `<p style="color:#666;font-size:12px">Or paste this address into your browser: ${esc(p.url)}</p>` +
-      `<p style="color:#666;font-size:12px">You get this because a coach shared a shot with you. <a href="${esc(p.settingsUrl)}">Turn these messages off</a>.</p></div>`,
-  };
+    lines,
+    action: { url: p.url, label: "Open the readout" },
+    footer: { text: "You get this because a coach shared a shot with you.", link: { url: p.settingsUrl, label: "Turn these messages off" } },
+  });
 }

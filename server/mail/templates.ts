@@ -1,16 +1,9 @@
 import type { Mail } from "./mailer";
+import { productMail } from "./layout";
 
-// Plain, short messages: one sentence of context and the link, in text and in HTML.
-const esc = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
-
-function layout(to: string, subject: string, lines: string[], link: { url: string; label: string }): Mail {
-  const text = [...lines, "", `${link.label}: ${link.url}`, "", "— Loadframe"].join("\n");
-  const html =
-    `<div style="font-family:sans-serif;max-width:520px">` +
-    lines.map((l) => `<p>${esc(l)}</p>`).join("") +
-    `<p><a href="${esc(link.url)}" style="background:#1f5f8b;color:#fff;padding:10px 16px;border-radius:6px;text-decoration:none">${esc(link.label)}</a></p>` +
-    `<p style="color:#666;font-size:12px">Or paste this address into your browser: ${esc(link.url)}</p></div>`;
-  return { to, subject, text, html };
+// Plain, short messages: one sentence of context and the link, in text and in HTML (the product's look: layout.ts).
+function layout(to: string, subject: string, lines: string[], action: { url: string; label: string }): Mail {
+  return productMail({ to, subject, lines, action });
 }
 
 export const roleLabel: Record<string, string> = { admin: "team admin", coach: "coach", analyst: "analyst", player: "player" };
