@@ -132,6 +132,11 @@ async function ingestSequence(r: IngestRequest, sha256: string): Promise<repo.Cl
   });
 }
 
+/** The probe facts kept with the clip: no place tags, and not the packet times (the frames' own times are stored apart). */
+function probeToKeep({ packetTimes: _times, ...facts }: ProbeResult & { sequence?: SequenceFacts }) {
+  return { ...facts, raw: withoutPlaceTags(facts.raw) };
+}
+
 /** Store the checked file as the clip's original and write the row (the file is moved). */
 async function storeClip(
   r: IngestRequest,
@@ -171,7 +176,7 @@ async function storeClip(
       variableFrameRate: facts.variableFrameRate,
       timing: facts.timing,
       codec: facts.codec,
-      probe: { ...facts, raw: withoutPlaceTags(facts.raw) },
+      probe: probeToKeep(facts),
       frameFormat: env().FRAME_FORMAT,
       sha256,
       sizeBytes: facts.sizeBytes,

@@ -3,6 +3,7 @@ import type { JobName, JobTypes } from "./types";
 import { jobPolicies } from "./types";
 import { extractClip } from "./clip-extract";
 import { sweepClips } from "./clip-sweep";
+import { backfillClipTiming } from "./clip-timing-backfill";
 import { runTracking } from "./shot-track";
 import { sweepTracking } from "./track-sweep";
 import { announceGraceEnded } from "../billing/sync";
@@ -22,6 +23,7 @@ export const handlers: { [N in JobName]?: JobHandler<N> } = {
   },
   "clip.sweep": async (_data, ctx) => {
     await sweepClips(ctx.log);
+    await backfillClipTiming(ctx.log);
     await sweepTracking(ctx.log);
     await announceGraceEnded(ctx.log);
     await removeEndedWindows();

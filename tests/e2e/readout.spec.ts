@@ -119,8 +119,8 @@ test("a player ticks two own shots, steps them side by side 50 times in sync, an
     // A, the faster camera, moves one frame per step; B shows its frame nearest in time.
     expect(s.fA).toBe(startA + k);
     expect(Math.abs(s.tB - s.t)).toBeLessThanOrEqual(500 / fpsB + 1e-6);
-    // The nearest frame in time; a moment exactly between two frames shows the earlier one (shared/frame-clock.ts).
-    expect(s.fB).toBe(strikeB + Math.round((s.t * fpsB) / 1000 - 1e-9));
+    // The nearest frame in time; a moment exactly between two frames shows the later one, as Math.round does (shared/frame-clock.ts).
+    expect(s.fB).toBe(strikeB + Math.round((s.t * fpsB) / 1000));
     expect(s.src).toMatch(new RegExp(`/frames/${s.fB}$`));
   }
   // Matched in time, not in frame count.

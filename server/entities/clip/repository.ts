@@ -234,3 +234,25 @@ export async function clipsWaiting(teamId: string, kind: ClipWait, limit: number
     .orderBy(desc(clip.createdAt), asc(clip.id))
     .limit(limit);
 }
+
+// --- clip.timing backfill (clip.sweep, decision 137) ------------------------------------------
+
+/** Ready clips stored before their frame clock was kept, oldest first. */
+export async function clipsWithoutTiming(limit: number) {
+  return db().select({ id: clip.id, frameCount: clip.frameCount, frameTimes: clip.frameTimes, storedFps: clip.storedFps }).from(clip)
+    .where(and(eq(clip.status, "ready"), sql`${clip.timing} is null`, isNotNull(clip.frameTimes)))
+    .orderBy(asc(clip.createdAt)).limit(limit);
+}
+
+/** How many such clips are left. */
+export async function countClipsWithoutTiming(): Promise<number> {
+  const [r] = await db().select({ n: sql<number>`count(*)::int` }).from(clip)
+    .where(and(eq(clip.status, "ready"), sql`${clip.timing} is null`, isNotNull(clip.frameTimes)));
+  return r?.n ?? 0;
+}
+
+/** Store the clip's frame clock, only while it still has none (two sweeps at once write it once). */
+export async function setClipTiming(id: string, patch: Pick<NewClipRow, "timing" | "frameTimes" | "storedFps">): Promise<boolean> {
+  const rows = await db().update(clip).set({ ...patch, updatedAt: new Date() }).where(and(eq(clip.id, id), sql`${clip.timing} is null`)).returning({ id: clip.id });
+  return rows.length > 0;
+}
