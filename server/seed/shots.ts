@@ -19,6 +19,7 @@ import { DEMO_CLIPS, DEMO_SESSION, type DemoClip } from "../../scripts/demo/demo
 import { clipTruth, renderClip } from "../../scripts/demo/render-scene";
 import type { SceneOptions, SceneTruth } from "../../scripts/demo/shot-scene";
 import * as repo from "../entities/shot/repository";
+import { clipForShots, setClipCalibration } from "../entities/clip/repository";
 import { recomputeShot } from "../shots/results";
 import { DEMO_STICK_LABELS } from "./sticks";
 import type { DemoIds } from "./demo-people";
@@ -76,7 +77,7 @@ export function scatteredMarks(t: SceneTruth, jitter: (v: number) => number): Sh
 /** A scale bar across the puck of a scene's first frame, as a person would click it. */
 export async function calibrateDemoClip(clipId: string, t: SceneTruth, jitter: (v: number) => number) {
   const bar = t.scaleBar;
-  await repo.setClipCalibration(clipId, { type: "scaleBar", a: [jitter(bar.a[0]), jitter(bar.a[1])], b: [jitter(bar.b[0]), jitter(bar.b[1])], lengthMm: bar.lengthMm, lengthUnit: "mm" });
+  await setClipCalibration(clipId, { type: "scaleBar", a: [jitter(bar.a[0]), jitter(bar.a[1])], b: [jitter(bar.b[0]), jitter(bar.b[1])], lengthMm: bar.lengthMm, lengthUnit: "mm" });
 }
 
 async function shotByLabel(clipId: string, label: string) {
@@ -95,7 +96,7 @@ export async function seedDemoShots(ids: DemoIds) {
     const truths = clipTruth(dc.shots.map((s) => s.scene));
     const noise = normalSource(`demo:${dc.title}`);
     const jitter = (v: number) => v + CLICK_SCATTER_PX * noise();
-    const c = await repo.clipById(ids.teamId, clipId);
+    const c = await clipForShots(ids.teamId, clipId);
     if (c && !c.calibration) await calibrateDemoClip(clipId, truths[0], jitter);
     for (const [i, s] of dc.shots.entries()) {
       if (await shotByLabel(clipId, s.label)) continue;

@@ -12,6 +12,7 @@ import { VersionConflictError } from "./conflict";
 import * as memberRepo from "../entities/member/repository";
 import { isUuid } from "../http/ids";
 import * as repo from "../entities/shot/repository";
+import * as clipRepo from "../entities/clip/repository";
 import { stickInTeam, stickLabel } from "../entities/stick/repository";
 import { recomputeLater, recomputeShot, toStoredResult } from "./results";
 import { shotStickInfo } from "../entities/stick/stiffness";
@@ -21,7 +22,7 @@ const invalid = (path: string, message: string) => new HttpError(422, "validatio
 
 async function clipOrThrow(a: Actor, clipId: string) {
   if (!isUuid(clipId)) throw notFound("That clip");
-  const c = await repo.clipById(a.teamId, clipId);
+  const c = await clipRepo.clipForShots(a.teamId, clipId);
   if (!c) throw notFound("That clip");
   return c;
 }
@@ -42,13 +43,13 @@ export async function editableShot(a: Actor, shotId: string) {
   return s;
 }
 
-function framesOf(c: repo.ClipRow): number {
+function framesOf(c: clipRepo.ClipForShots): number {
   if (c.frameCount === null || c.width === null || c.height === null)
     throw new HttpError(409, "clip_not_ready", "This clip's frames are not ready yet; wait until extraction finishes.");
   return c.frameCount;
 }
 
-function boxOf(c: repo.ClipRow, s: { frameStart: number; frameEnd: number | null }): FrameBox {
+function boxOf(c: clipRepo.ClipForShots, s: { frameStart: number; frameEnd: number | null }): FrameBox {
   return { width: c.width ?? 0, height: c.height ?? 0, frameStart: s.frameStart, frameEnd: s.frameEnd ?? c.frameCount ?? s.frameStart };
 }
 
@@ -66,7 +67,7 @@ function summary(s: repo.ShotRow): ShotSummary {
 
 async function detail(a: Actor, s: repo.ShotRow): Promise<ShotDetail> {
   const c = await clipOrThrow(a, s.clipId);
-  const clock = await repo.clipClock(c.id);
+  const clock = await clipRepo.clipClock(c.id);
   return {
     ...summary(s),
     marks: s.marks,
@@ -81,7 +82,7 @@ async function detail(a: Actor, s: repo.ShotRow): Promise<ShotDetail> {
   };
 }
 
-function clipFor(c: repo.ClipRow): DigitiseClip {
+function clipFor(c: clipRepo.ClipForShots): DigitiseClip {
   return {
     id: c.id, title: c.title, status: c.status, captureFps: c.captureFps, frameCount: c.frameCount ?? 0, width: c.width ?? 0, height: c.height ?? 0,
     frameFormat: c.frameFormat, playerId: c.playerId, calibration: c.calibration,
@@ -196,7 +197,7 @@ export async function setCalibration(a: Actor, clipId: string, cal: ClipCalibrat
     const p = checkCalibration(cal.type === "scaleBar" ? { type: "scaleBar", a: cal.a, b: cal.b, lengthMm: cal.lengthMm } : cal);
     if (p) throw invalid(["calibration", ...p.path].join("."), p.message);
   }
-  await repo.setClipCalibration(clipId, cal);
+  await clipRepo.setClipCalibration(clipId, cal);
   // The clip's shots are recomputed on the queue; until then their pages say "recomputing".
   await recomputeLater({ scope: "clip", id: clipId }, reqId);
   return { calibration: cal };

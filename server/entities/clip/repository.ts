@@ -5,6 +5,7 @@ import { db } from "../../db/client";
 import { preparedBy } from "../../db/prepared";
 import { clip, shot, stick, trainingSession, user } from "../../db/schema";
 import type { ClipSort, ShotType } from "../../../shared/schemas/clips";
+import type { ClipCalibration } from "../../../shared/schemas/shots";
 import { recordAudit, type AuditEntry } from "../audit/repository";
 import { countClipShotsOf, moveClipShots } from "../shot/players";
 import type { Actor } from "../member/role";
@@ -255,4 +256,29 @@ export async function countClipsWithoutTiming(): Promise<number> {
 export async function setClipTiming(id: string, patch: Pick<NewClipRow, "timing" | "frameTimes" | "storedFps">): Promise<boolean> {
   const rows = await db().update(clip).set({ ...patch, updatedAt: new Date() }).where(and(eq(clip.id, id), sql`${clip.timing} is null`)).returning({ id: clip.id });
   return rows.length > 0;
+}
+
+// --- a clip for its shots (Digitise) -------------------------------------------------------------
+
+/** A clip of the team as the Digitise page and a clip's shots need it: frames, size, player, stick, calibration. */
+export async function clipForShots(teamId: string, clipId: string) {
+  const [row] = await db()
+    .select({
+      id: clip.id, teamId: clip.teamId, title: clip.title, status: clip.status, captureFps: clip.captureFps, frameCount: clip.frameCount,
+      width: clip.width, height: clip.height, frameFormat: clip.frameFormat, playerId: clip.playerId, stickId: clip.stickId, calibration: clip.calibration,
+    })
+    .from(clip)
+    .where(and(eq(clip.id, clipId), eq(clip.teamId, teamId)));
+  return row ? { ...row, calibration: row.calibration as ClipCalibration | null } : null;
+}
+export type ClipForShots = NonNullable<Awaited<ReturnType<typeof clipForShots>>>;
+
+/** The clip's stored frame times and rates (a separate read: the array can be long). */
+export async function clipClock(clipId: string) {
+  const [row] = await db().select({ captureFps: clip.captureFps, storedFps: clip.storedFps, frameTimes: clip.frameTimes }).from(clip).where(eq(clip.id, clipId));
+  return row ?? null;
+}
+
+export async function setClipCalibration(clipId: string, calibration: ClipCalibration | null) {
+  await db().update(clip).set({ calibration, updatedAt: new Date() }).where(eq(clip.id, clipId));
 }

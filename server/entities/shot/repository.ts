@@ -12,24 +12,6 @@ import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../../share
 const player = alias(user, "player");
 const editor = alias(user, "editor");
 
-export async function clipById(teamId: string, clipId: string) {
-  const [row] = await db()
-    .select({
-      id: clip.id, teamId: clip.teamId, title: clip.title, status: clip.status, captureFps: clip.captureFps, frameCount: clip.frameCount,
-      width: clip.width, height: clip.height, frameFormat: clip.frameFormat, playerId: clip.playerId, stickId: clip.stickId, calibration: clip.calibration,
-    })
-    .from(clip)
-    .where(and(eq(clip.id, clipId), eq(clip.teamId, teamId)));
-  return row ? { ...row, calibration: row.calibration as ClipCalibration | null } : null;
-}
-export type ClipRow = NonNullable<Awaited<ReturnType<typeof clipById>>>;
-
-/** The clip's stored frame times and rates (a separate read: the array can be long). */
-export async function clipClock(clipId: string) {
-  const [row] = await db().select({ captureFps: clip.captureFps, storedFps: clip.storedFps, frameTimes: clip.frameTimes }).from(clip).where(eq(clip.id, clipId));
-  return row ?? null;
-}
-
 const shotColumns = {
   id: shot.id, teamId: shot.teamId, clipId: shot.clipId, label: shot.label, playerId: shot.playerId, playerName: player.name, stickId: shot.stickId,
   stickLabel: stick.label, frameStart: shot.frameStart, frameEnd: shot.frameEnd, marks: shot.marks, events: shot.events, version: shot.version,
@@ -116,10 +98,6 @@ export async function updateShotMeta(shotId: string, v: Partial<{ label: string;
 
 export async function deleteShot(shotId: string) {
   await db().delete(shot).where(eq(shot.id, shotId));
-}
-
-export async function setClipCalibration(clipId: string, calibration: ClipCalibration | null) {
-  await db().update(clip).set({ calibration, updatedAt: new Date() }).where(eq(clip.id, clipId));
 }
 
 export async function shotIdsOfClip(clipId: string) {
