@@ -203,10 +203,10 @@ function buildOddClips(): SeasonClip[] {
     shots: [{ label: `${typeWord[type]} 1`, scene: sceneFor(type, s.captureFps, team, 1, 1, rnd, s.camera, "#2a8fb0") }],
   });
   return [
-    one("senior", seniorLast, "rafael@ravens.example", "wrist", "rateUnconfirmed", "Wrist shots, phone clip — Rafael (rate to confirm)", 60),
-    one("senior", seniorLast, "noah@ravens.example", "snap", "failed", "Snap shot — Noah (extraction failed)", 67),
-    one("u16", u16Last, "yuki@ravens.example", "wrist", "extracting", "Wrist shot — Yuki (just uploaded)", 60),
-    one("u16", u16Last, "adrien@ravens.example", "snap", "rateUnconfirmed", "Snap shot — Adrien (rate to confirm)", 67),
+    one("senior", seniorLast, "rafael@ravens.example", "wrist", "rateUnconfirmed", "Wrist shots, 11-24 — Rafael, second phone", 60),
+    one("senior", seniorLast, "noah@ravens.example", "snap", "failed", "Snap shots, 11-24 — Noah, second take", 67),
+    one("u16", u16Last, "yuki@ravens.example", "wrist", "extracting", "Wrist shots, 11-28 — Yuki", 60),
+    one("u16", u16Last, "adrien@ravens.example", "snap", "rateUnconfirmed", "Snap shots, 11-28 — Adrien", 67),
   ];
 }
 

@@ -30,6 +30,11 @@ const count = (rows: unknown[]) => rows.length;
 const localHour = (d: Date) => Number(new Intl.DateTimeFormat("en-GB", { timeZone: "America/Vancouver", hour: "2-digit", hourCycle: "h23" }).format(d));
 
 describe("the demo season", () => {
+  it("names every season clip once (the seed finds them by title)", () => {
+    const titles = seasonClips.map((c) => `${c.team}:${c.title}`);
+    expect(new Set(titles).size).toBe(titles.length);
+  });
+
   it("has two teams, at least 12 players, and the analyst and the player sign-in in both teams", async () => {
     const rows = await db().select({ userId: member.userId, teamId: member.organizationId, role: member.role, email: user.email }).from(member).innerJoin(user, eq(user.id, member.userId)).where(inArray(member.organizationId, teams));
     expect(new Set(rows.map((r) => r.teamId)).size).toBe(2);
