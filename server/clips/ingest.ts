@@ -128,7 +128,9 @@ async function ingestSequence(r: IngestRequest, sha256: string): Promise<repo.Cl
     }
     const facts = await probeUpload(video.file);
     if (facts.frameCount !== video.facts.frames) throw new Error(`sequence of ${video.facts.frames} frames became a video of ${facts.frameCount}`);
-    return storeClip(r, video.file, sha256, { ...facts, sequence: video.facts }, { captureFps, captureFpsConfirmed: true, durationS: facts.frameCount / captureFps });
+    // A PNG's sBIT tells 12-bit data in 16-bit samples where the decoder does not (decision 138).
+    const bitsPerSample = video.facts.significantBits ?? facts.bitsPerSample;
+    return storeClip(r, video.file, sha256, { ...facts, bitsPerSample, sequence: video.facts }, { captureFps, captureFpsConfirmed: true, durationS: facts.frameCount / captureFps });
   });
 }
 

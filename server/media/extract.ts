@@ -23,7 +23,22 @@ export interface StripOptions {
 }
 
 export type ExtractProbe = Pick<ProbeResult, "frameCount" | "videoStreamIndex" | "pixelFormat" | "colorRange" | "timeBase"> &
-  Partial<Pick<ProbeResult, "storedFps" | "expectedFrames" | "colorTransfer" | "colorSpace" | "interlaced" | "pixelAspect" | "storedHeight">>;
+  Partial<Pick<ProbeResult, "storedFps" | "expectedFrames" | "colorTransfer" | "colorSpace" | "interlaced" | "pixelAspect" | "storedHeight" | "bitsPerSample">>;
+
+/**
+ * 12-bit (or 10-, 14-bit) data in a 16-bit format, when the file says so: every sample scaled up to
+ * the full 16 bits, so the 8-bit frames get its levels rather than only its dark high byte
+ * (decision 138). Null for anything else.
+ */
+export function fullBitDepth(p: Pick<ExtractProbe, "pixelFormat" | "bitsPerSample">): string | null {
+  const bits = p.bitsPerSample ?? 16;
+  if (!/(16|48|64)(le|be)$/.test(p.pixelFormat ?? "") || bits <= 8 || bits >= 16) return null;
+  const f = p.pixelFormat ?? "";
+  // Pinned to a 16-bit format the lut takes as it is, else ffmpeg would hand it 8-bit samples.
+  const wide = /^gray/.test(f) ? "gray16le" : /^(ya|rgba|bgra|yuva|gbrap)/.test(f) ? "rgba64le" : /^yuv/.test(f) ? "yuv444p16le" : "rgb48le";
+  const up = `min(val*${2 ** (16 - bits)}\\,maxval)`;
+  return `format=${wide},lut=c0=${up}:c1=${up}:c2=${up}:c3=${up}`;
+}
 
 export interface ExtractProgress {
   framesDone: number;
@@ -116,6 +131,8 @@ export function buildExtractSpec(s: ExtractSpecInput): FfmpegSpec {
   const chain: string[] = ["settb=1/1000000", "setpts=N"];
   // One picture per field, before anything renumbers the frames (bwdif times the fields).
   if (s.probe.interlaced) chain.unshift(deinterlace);
+  const levels = fullBitDepth(s.probe);
+  if (levels) chain.push(levels);
   if (isHdr(s.probe.colorTransfer)) chain.push(hdrToSdr);
   else if (s.format === "jpg" && lutFormats.has(s.probe.pixelFormat ?? "") && s.probe.colorRange !== "pc")
     chain.push(isBt709(s.probe) ? bt709ToJpeg : toFullRange);

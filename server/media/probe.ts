@@ -51,6 +51,8 @@ export interface ProbeResult {
   variableFrameRate: boolean;
   hasAudio: boolean;
   pixelFormat: string | null;
+  /** Bits that carry the picture in each sample when the decoder says (12 in a 16-bit format), else null. */
+  bitsPerSample: number | null;
   colorRange: string | null;
   /** Colour facts the extraction honours: HDR transfer (tone-mapped), matrix (BT.709 vs 601). */
   colorTransfer: string | null;
@@ -80,6 +82,7 @@ export interface FfprobeStream {
   nb_frames?: string;
   duration?: string;
   pix_fmt?: string;
+  bits_per_raw_sample?: string;
   color_range?: string;
   color_transfer?: string;
   color_space?: string;
@@ -360,6 +363,7 @@ export async function probe(config: MediaConfig, file: string, o: ProbeOptions =
     variableFrameRate: timing.clock === "uneven" || timing.gapCount > 0 || timing.repeatCount > 0,
     hasAudio,
     pixelFormat: video.pix_fmt ?? null,
+    bitsPerSample: Number(video.bits_per_raw_sample) > 0 ? Number(video.bits_per_raw_sample) : null,
     colorTransfer: video.color_transfer ?? null,
     colorSpace: video.color_space ?? null,
     interlaced,

@@ -4,6 +4,7 @@
 // naming the file at fault and leaving nothing stored.
 import { ffmpeg, mediaDir, storedClipDirs, tusLeftovers, tusUpload, uploadDir } from "./clips-support";
 import { execFileSync } from "node:child_process";
+import { crc32 } from "node:zlib";
 import { existsSync, mkdirSync, readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
 import { zipSync, type Zippable } from "fflate";
@@ -70,6 +71,32 @@ describe("image sequences through the upload path", () => {
     // The same picture as the source frame, within JPEG's rounding (frame 11 = source index 10).
     const src = path.join(mediaDir, "tif16", "run12_000010.tif");
     expect(Math.abs(grey(path.join(uploadDir, "clips", c.id, "frames", stored[10])) - grey(src))).toBeLessThanOrEqual(3);
+  });
+
+  it("12-bit data in 16-bit grey PNGs (sBIT 12): the frames get the full levels, not the dark high byte", async () => {
+    // The camera's 12-bit samples (0–4095) in 16-bit PNGs, each declaring 12 significant bits in an
+    // sBIT chunk right after IHDR (PNG specification, 11.3.3.4).
+    const dir = path.join(mediaDir, "png12");
+    mkdirSync(dir, { recursive: true });
+    ffmpeg("-f", "lavfi", "-i", "testsrc2=size=320x240:rate=25", "-frames:v", "10", "-vf", "format=gray16le,lut=c0=val/16", path.join(dir, "shot_%04d.png"));
+    const sbit = Buffer.alloc(13);
+    sbit.writeUInt32BE(1, 0);
+    sbit.write("sBIT", 4, "latin1");
+    sbit[8] = 12;
+    sbit.writeUInt32BE(crc32(sbit.subarray(4, 9)), 9);
+    const entries: Zippable = {};
+    for (const f of readdirSync(dir).sort()) {
+      const png = readFileSync(path.join(dir, f));
+      entries[f] = new Uint8Array(Buffer.concat([png.subarray(0, 33), sbit, png.subarray(33)])); // 8 signature + 25 IHDR
+    }
+    const full = frames("png16full", { count: 10, ext: "png", pixFmt: "gray16le" });
+    const c = await ready(zip(entries), "twelve-bit.zip", 4000);
+    expect(c.frameCount).toBe(10);
+    const stored = storedFrames(c.id);
+    // As bright as the same picture at full 16 bits, within JPEG's rounding; the high byte alone would be 1/16 of it.
+    const reference = grey(path.join(mediaDir, "png16full", Object.keys(full)[4]));
+    expect(reference).toBeGreaterThan(60);
+    expect(Math.abs(grey(path.join(uploadDir, "clips", c.id, "frames", stored[4])) - reference)).toBeLessThanOrEqual(3);
   });
 
   it("JPEG frames (.jpeg and .JPG alike), numbered without padding", async () => {

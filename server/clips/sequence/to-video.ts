@@ -5,6 +5,7 @@ import { checkSequenceFrames, sequenceToVideo, type SequenceFault } from "../../
 import type { MediaConfig } from "../../media/ffmpeg";
 import { MediaInputError } from "../../media/errors";
 import { unpackSequence, type ArchiveLimits } from "./archive";
+import { pngSignificantBits } from "./png-bits";
 import type { SequenceImageType } from "./names";
 
 /** Kept with the clip (in its probe) so the clip says where its frames came from. */
@@ -16,6 +17,8 @@ export interface SequenceFacts {
   /** Entries that were not frames, left in the archive (first 20). */
   skipped: string[];
   skippedCount: number;
+  /** Bits that carry the picture, from the first frame's sBIT chunk (PNG), else null. */
+  significantBits: number | null;
 }
 
 function faultError(fault: SequenceFault, name: string): MediaInputError {
@@ -42,6 +45,7 @@ export async function sequenceZipToVideo(
   const count = seq.frames.length;
   const check = await checkSequenceFrames(media, seq.pattern, count, { maxPixels: o.maxPixels, signal: o.signal });
   if (check.fault) throw faultError(check.fault, seq.frames[check.fault.index].name);
+  const significantBits = seq.type === "png" ? await pngSignificantBits(seq.pattern.replace("%08d", "0".repeat(8))) : null;
   const file = path.join(dir, "sequence.mkv");
   await sequenceToVideo(media, seq.pattern, file, { count, signal: o.signal });
   return {
@@ -53,6 +57,7 @@ export async function sequenceZipToVideo(
       lastName: seq.frames[count - 1].name,
       skipped: seq.skipped.slice(0, 20),
       skippedCount: seq.skipped.length,
+      significantBits,
     },
   };
 }
