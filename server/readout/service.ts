@@ -80,14 +80,10 @@ export async function readoutJson(a: Actor, shotId: string): Promise<{ text: str
 export async function listShots(a: Actor, q: z.output<typeof ShotListPageQuery>): Promise<ShotListResponse> {
   const staff = isStaff(a);
   const filters = { playerId: q.playerId, stickId: q.stickId, shotType: q.shotType, review: q.review };
-  const [rows, total, choices] = await Promise.all([
-    repo.listShots(a, filters, { limit: q.pageSize, offset: (q.page - 1) * q.pageSize }),
-    repo.countShots(a, filters),
-    repo.listFilterChoices(a),
-  ]);
-  const shares = await repo.sharesOf(a.teamId, rows.map((r) => r.id));
-  const by = new Map<string, string[]>();
-  for (const s of shares) by.set(s.shotId, [...(by.get(s.shotId) ?? []), s.userId]);
+  const [rows, choices] = await Promise.all([repo.listShots(a, filters, { limit: q.pageSize, offset: (q.page - 1) * q.pageSize }), repo.listFilterChoices(a)]);
+  // The page's rows carry the total and their shares (decision 178); a page past the end has no row to carry it.
+  const total = rows.length ? rows[0].total! : await repo.countShots(a, filters);
+  const by = new Map(rows.map((r) => [r.id, r.shareIds!]));
   // The query already keeps to what the viewer may see; the policy is asked again for each row.
   const visible = rows.filter((r) => policy.viewShot(a, shotAccess(r, by.get(r.id))));
   return {

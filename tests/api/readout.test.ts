@@ -182,6 +182,9 @@ describe("one shot's readout answered from the stored text", () => {
     expect(shared.status, shared.text).toBe(201);
     const r = await coach.get(`${R()}/shots/${s.shotId}`);
     expect(r.json.shares.length).toBeGreaterThanOrEqual(2);
+    // The list's rows carry their shares too (decision 178): staff see how many.
+    const listed = (await coach.get(`${R()}/shots?playerId=${uid(EMAILS.player)}&pageSize=100`)).json.shots.find((x: { id: string }) => x.id === s.shotId);
+    expect(listed.shareCount).toBe(r.json.shares.length);
     expect(r.status, r.text).toBe(200);
     expect(r.headers.get("content-type")).toMatch(/^application\/json/);
     const { getReadout } = await import("../../server/readout/service");
