@@ -9,8 +9,8 @@
 //     Raw baseline in the same run: the same repository query straight to PostgreSQL, one at a
 //     time, without HTTP or sign-in; the ratio says what the API adds.
 // Needs the private cluster: without PG_ADMIN_URL it re-runs itself through scripts/with-db.
-// --cpu: only bare Express, the clip list and one shot's results at 100 requests/s with one web
-// process, for their CPU per request (a short run for profiling with BENCH_CPU_PROF, when the
+// --cpu: only bare Express, the clip list, one shot's results and the Shots list at 100 requests/s
+// with one web process, for their CPU per request (a short run for profiling with BENCH_CPU_PROF, when the
 // whole bench is too long for a shared machine).
 import { execFileSync, spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { createHash, randomBytes } from "node:crypto";
@@ -268,7 +268,7 @@ try {
     console.log(`  goal p95 < 50 ms: ${api.p95 < 50 ? "met" : "NOT met"}`);
     table.push({ name: s.name, procs, api, raw, rate: s.rate, cpu });
   }
-  for (const s of CPU_ONLY ? busy.slice(1, 3) : busy) await run(s, 1);
+  for (const s of CPU_ONLY ? busy.slice(1) : busy) await run(s, 1);
   if (CPU_ONLY) {
     console.log(`\n  load average ${load()} at the end (${os.cpus().length} cores)`);
     client.close();
