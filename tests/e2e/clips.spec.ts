@@ -102,12 +102,13 @@ test("a clip's delete dialog says how many frames, shots and marks go with it, c
   await signIn(page, "coach@ravens.example");
   await page.goto("/clips");
   await page.getByRole("link", { name: "Slap shots, lane 1 — Theo" }).click();
-  const clipId = new URL(page.url()).pathname.split("/").pop()!;
-  const me = await (await page.request.get("/api/me")).json();
-  const teamId: string = me.activeTeamId ?? me.teams[0].id;
+  // The counts are the ones the dialog itself asked the server for when it opened.
+  const asked = page.waitForResponse((r) => r.url().endsWith("/deletion") && r.request().method() === "GET");
   await page.getByRole("button", { name: "Delete" }).click();
   const dialog = page.getByRole("dialog", { name: "Delete this clip?" });
-  const counts = await (await page.request.get(`/api/teams/${teamId}/clips/${clipId}/deletion`)).json();
+  const answer = await asked;
+  expect(answer.status(), await answer.text()).toBe(200);
+  const counts = (await answer.json()) as { frames: number; shots: number; marks: number };
   expect(counts.shots).toBeGreaterThan(0);
   const n = (k: number) => k.toLocaleString("en-US");
   await expect(dialog).toContainText(`its ${n(counts.frames)} frames, ${n(counts.shots)} shot${counts.shots === 1 ? "" : "s"} and their ${n(counts.marks)} marks`);
