@@ -49,6 +49,23 @@ async function datesShown(x: { shotId: string; stickId: string }) {
   };
 }
 
+/**
+ * The query's plan with sorting and whole-table reads priced out: only an index that holds the
+ * order avoids a Sort node then.
+ */
+async function planWithoutSort(q: { sql: string; params: unknown[] }): Promise<string> {
+  const c = await db().pool.connect();
+  try {
+    await c.query("begin");
+    await c.query("set local enable_sort = off");
+    await c.query("set local enable_seqscan = off");
+    return JSON.stringify((await c.query(`explain (format json) ${q.sql}`, q.params)).rows[0]["QUERY PLAN"]);
+  } finally {
+    await c.query("rollback");
+    c.release();
+  }
+}
+
 describe("a shot's date is the same on every page", () => {
   it("without a session: the day the clip was uploaded, not the day the shot was digitised", async () => {
     const x = await shotWith({ clipUploaded: "2026-03-01T18:30:00Z", shotCreated: "2026-03-04T09:00:00Z" });
@@ -101,19 +118,7 @@ describe("the stored shot date", () => {
   it("the Shots list's page is read from an index in its order, not sorted", async () => {
     const coachActor = { userId: world.users[EMAILS.coach], teamId: world.teamId, role: "coach" as const };
     for (const f of [{}, { playerId: world.users[EMAILS.player] }]) {
-      const q = pageIdsQuery(coachActor, f, { limit: 50, offset: 0 }).toSQL();
-      // With sorting and whole-table reads priced out, only an index that holds the order avoids a Sort.
-      const c = await db().pool.connect();
-      let plan = "";
-      try {
-        await c.query("begin");
-        await c.query("set local enable_sort = off");
-        await c.query("set local enable_seqscan = off");
-        plan = JSON.stringify((await c.query(`explain (format json) ${q.sql}`, q.params as unknown[])).rows[0]["QUERY PLAN"]);
-      } finally {
-        await c.query("rollback");
-        c.release();
-      }
+      const plan = await planWithoutSort(pageIdsQuery(coachActor, f, { limit: 50, offset: 0 }).toSQL());
       expect(plan, JSON.stringify(f)).not.toMatch(/"Node Type":"(Sort|Incremental Sort)"/);
       expect(plan).toMatch(/shot_team_(newest|player)_idx/);
     }
@@ -152,18 +157,7 @@ describe("the stored shot type", () => {
 
   it("the list filtered by type is read from its own index in order, and its count needs no clip", async () => {
     const coachActor = { userId: world.users[EMAILS.coach], teamId: world.teamId, role: "coach" as const };
-    const q = pageIdsQuery(coachActor, { shotType: "wrist" }, { limit: 50, offset: 0 }).toSQL();
-    const c = await db().pool.connect();
-    let plan = "";
-    try {
-      await c.query("begin");
-      await c.query("set local enable_sort = off");
-      await c.query("set local enable_seqscan = off");
-      plan = JSON.stringify((await c.query(`explain (format json) ${q.sql}`, q.params as unknown[])).rows[0]["QUERY PLAN"]);
-    } finally {
-      await c.query("rollback");
-      c.release();
-    }
+    const plan = await planWithoutSort(pageIdsQuery(coachActor, { shotType: "wrist" }, { limit: 50, offset: 0 }).toSQL());
     expect(plan).not.toMatch(/"Node Type":"(Sort|Incremental Sort)"/);
     expect(plan).toMatch(/shot_team_type_idx/);
     expect(plan).not.toMatch(/"Relation Name":"clip"/);
