@@ -5,8 +5,9 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { Client, EMAILS, seedWorld, startServer, type TestServer } from "./helpers";
 import { insertReadyClip } from "./routes/shots";
-import { computeShot, syntheticShot } from "../../shared/mechanics/index";
-import type { Mark } from "../../shared/schemas/shot-document";
+import { computeShot } from "../../shared/mechanics/index";
+import { scene as readoutScene } from "./routes/readout";
+import { engineCalibration } from "../../shared/schemas/shots";
 import { startJobs, stopJobs } from "../../server/jobs/runtime";
 
 // Every engine run of this process (web side and, once started, the in-process worker) is counted.
@@ -40,17 +41,7 @@ afterAll(async () => {
 const T = () => `/api/teams/${world.teamId}`;
 
 // The engine's made-up slap shot with a known exit speed, on the clip's frame numbers.
-const DX = 900;
-function scene() {
-  const { doc } = syntheticShot({ frames: 400, noisePx: 0.2, seed: "recompute-queue" });
-  const shift = (t: Mark[] | undefined) => (t ?? []).map(([f, x, y]) => [f + 1, x + DX, y] as Mark);
-  const marks = Object.fromEntries(Object.entries(doc.tracks).map(([k, t]) => [k, shift(t as Mark[])]));
-  const e = doc.events;
-  const events = { iceStrike: e.iceStrike! + 1, puckStrike: e.puckStrike + 1, peakBend: e.peakBend! + 1, release: e.release + 1 };
-  const cal = doc.calibration as { type: "scaleBar"; a: [number, number]; b: [number, number]; lengthMm: number };
-  const calibration = { type: "scaleBar" as const, a: [cal.a[0] + DX, cal.a[1]] as [number, number], b: [cal.b[0] + DX, cal.b[1]] as [number, number], lengthMm: cal.lengthMm };
-  return { marks, events, calibration };
-}
+const scene = () => readoutScene({ seed: "recompute-queue" });
 
 async function digitisedShots(n: number, stickId: string | null = null) {
   const clipId = await insertReadyClip(world.teamId, { frameCount: 400, width: 2000, height: 720, captureFps: 3200 });
@@ -126,7 +117,7 @@ describe("recompute on the job queue", () => {
     // The job's numbers are the engine's for the same document, calibration and the bench test's flex.
     expect(after.stick).toMatchObject({ flexSource: "measured" });
     const direct = computeShot({
-      captureFps: 3200, calibration: s.calibration, tracks: s.marks, events: s.events, frameRange: [1, 400],
+      captureFps: 3200, calibration: engineCalibration(s.calibration), tracks: s.marks, events: s.events, frameRange: [1, 400],
       stick: { flex: after.stick.flex, benchSpanMm: after.stick.benchSpanMm },
     });
     expect(after.storedResult.error).toBeNull();
@@ -143,7 +134,7 @@ describe("recompute on the job queue", () => {
     let last = s.calibration.lengthMm;
     for (let i = 1; i <= 20; i++) {
       last = s.calibration.lengthMm * (1 + i / 100);
-      const r = await analyst.put(`${T()}/clips/${clipId}/calibration`, { calibration: { ...s.calibration, lengthMm: last } });
+      const r = await analyst.put(`${T()}/clips/${clipId}/calibration`, { calibration: engineCalibration({ ...s.calibration, lengthMm: last }) });
       expect(r.status, r.text).toBe(200);
     }
     // Let the run (and any second one that was waiting) finish, then count.
@@ -152,7 +143,7 @@ describe("recompute on the job queue", () => {
     const after = await untilRecomputed(clipId, shots[0]);
     expect(engine.runs - runs).toBeGreaterThanOrEqual(1);
     const final = (await analyst.get(`${T()}/shots/${shots[0]}`)).json.storedResult;
-    const direct = computeShot({ captureFps: 3200, calibration: { ...s.calibration, lengthMm: last }, tracks: s.marks, events: s.events, frameRange: [1, 400], stick: null });
+    const direct = computeShot({ captureFps: 3200, calibration: engineCalibration({ ...s.calibration, lengthMm: last }), tracks: s.marks, events: s.events, frameRange: [1, 400], stick: null });
     expect(final.recomputing).toBe(false);
     expect(final.results.puckExitSpeed.valueMps).toBeCloseTo(direct.puckExitSpeed.valueMps, 9);
     expect(after.storedResult.results).not.toBeNull();

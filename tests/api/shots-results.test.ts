@@ -4,7 +4,9 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { Client, EMAILS, seedWorld, startServer, type TestServer } from "./helpers";
 import { insertReadyClip } from "./routes/shots";
-import { computeShot, syntheticShot, ENGINE_VERSION } from "../../shared/mechanics/index";
+import { computeShot, ENGINE_VERSION } from "../../shared/mechanics/index";
+import { scene as readoutScene } from "./routes/readout";
+import { engineCalibration } from "../../shared/schemas/shots";
 import type { Mark } from "../../shared/schemas/shot-document";
 
 let srv: TestServer;
@@ -22,17 +24,7 @@ const T = () => `/api/teams/${world.teamId}`;
 
 // The engine's made-up slap shot (true exit speed 30 m/s), moved onto a 2000 × 720 frame and onto
 // the clip's frame numbers (the first frame is 1).
-const DX = 900;
-function scene() {
-  const { doc, truth } = syntheticShot({ frames: 400, noisePx: 0.2, seed: "shots-api" });
-  const shift = (t: Mark[] | undefined) => (t ?? []).map(([f, x, y]) => [f + 1, x + DX, y] as Mark);
-  const marks = Object.fromEntries(Object.entries(doc.tracks).map(([k, t]) => [k, shift(t as Mark[])]));
-  const e = doc.events;
-  const events = { iceStrike: e.iceStrike! + 1, puckStrike: e.puckStrike + 1, peakBend: e.peakBend! + 1, release: e.release + 1 };
-  const cal = doc.calibration as { type: "scaleBar"; a: [number, number]; b: [number, number]; lengthMm: number };
-  const calibration = { type: "scaleBar" as const, a: [cal.a[0] + DX, cal.a[1]], b: [cal.b[0] + DX, cal.b[1]], lengthMm: cal.lengthMm };
-  return { marks, events, calibration, truth };
-}
+const scene = () => readoutScene({ seed: "shots-api" });
 
 async function digitisedShot(stickId: string | null = null) {
   const clipId = await insertReadyClip(world.teamId, { frameCount: 400, width: 2000, height: 720, captureFps: 3200 });
@@ -55,7 +47,7 @@ describe("recompute on every change", () => {
     expect(got.storedResult.error).toBeNull();
     const r = got.storedResult.results;
     // The server is wiring only: its numbers are the engine's on the same document.
-    const direct = computeShot({ captureFps: 3200, calibration: s.calibration, tracks: s.marks, events: s.events, frameRange: [1, 400], stick: null });
+    const direct = computeShot({ captureFps: 3200, calibration: engineCalibration(s.calibration), tracks: s.marks, events: s.events, frameRange: [1, 400], stick: null });
     expect(r.puckExitSpeed.valueMps).toBeCloseTo(direct.puckExitSpeed.valueMps, 9);
     expect(r.peakBend.angleDeg).toBeCloseTo(direct.peakBend!.angleDeg, 9);
     // And the synthetic scene's analytic truth ([CP] made-up scene with a known answer).

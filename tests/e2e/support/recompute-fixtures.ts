@@ -9,21 +9,13 @@ import { clip, member, organization, shot, user } from "../../../server/db/schem
 import { recomputeShot } from "../../../server/shots/results";
 import { closeCpuPool } from "../../../server/cpu/pool";
 import { DEMO_TEAM } from "../../../server/seed/demo-people";
-import { syntheticShot } from "../../../shared/mechanics/index";
-import type { Mark } from "../../../shared/schemas/shot-document";
+import { scene } from "../../api/routes/readout";
 
 const [team] = await db().select({ id: organization.id }).from(organization).where(eq(organization.slug, DEMO_TEAM.slug));
 if (!team) throw new Error("the demo club is not seeded in this database");
 const [theo] = await db().select({ id: user.id }).from(user).innerJoin(member, eq(member.userId, user.id))
   .where(and(eq(user.email, "player@ravens.example"), eq(member.organizationId, team.id)));
-const { doc } = syntheticShot({ frames: 400, noisePx: 0.2, seed: "e2e-recompute" });
-const DX = 900;
-const shift = (t: Mark[] | undefined) => (t ?? []).map(([f, x, y]) => [f + 1, x + DX, y] as Mark);
-const marks = Object.fromEntries(Object.entries(doc.tracks).map(([k, t]) => [k, shift(t as Mark[])]));
-const e = doc.events;
-const events = { iceStrike: e.iceStrike! + 1, puckStrike: e.puckStrike + 1, peakBend: e.peakBend! + 1, release: e.release + 1 };
-const cal = doc.calibration as { type: "scaleBar"; a: [number, number]; b: [number, number]; lengthMm: number };
-const calibration = { type: "scaleBar" as const, a: [cal.a[0] + DX, cal.a[1]], b: [cal.b[0] + DX, cal.b[1]], lengthMm: cal.lengthMm };
+const { marks, events, calibration } = scene({ seed: "e2e-recompute" });
 const [c] = await db()
   .insert(clip)
   .values({

@@ -72,7 +72,7 @@ function ClipView({ teamId, clipId, staff }: { teamId: string; clipId: string; s
     );
 
   const c = clip.data;
-  const { status, framesDone } = extractionView(c, live);
+  const { status, framesDone, failureReason } = shown!;
   const available = status === "ready" ? c.frameCount ?? 0 : framesDone;
   const openFrame1 = () => {
     stepper.goto(1);
@@ -103,7 +103,7 @@ function ClipView({ teamId, clipId, staff }: { teamId: string; clipId: string; s
         )}
         {status === "failed" && (
           <Alert tone="danger" title="Frame extraction failed">
-            <p>{extractionView(c, live).failureReason}</p>
+            <p>{failureReason}</p>
             {staff && (
               <Button size="sm" variant="secondary" className="mt-2" loading={retry.isPending}
                 onClick={() => retry.mutate(c.id, { onSuccess: () => { toast.success("Extraction queued again.", "Retrying"); void clip.refetch(); } })}>
