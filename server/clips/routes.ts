@@ -3,6 +3,7 @@ import { z } from "zod";
 import { actorOf } from "../auth/context";
 import { HttpError } from "../http/problem";
 import { parse } from "../http/validate";
+import { streamPolled } from "../http/polled-stream";
 import { clipKeys } from "../storage";
 import { thumbnailKey } from "../jobs/clip-extract";
 import { ClipListQuerySchema, ClipPatchSchema } from "../../shared/schemas/clips";
@@ -38,32 +39,15 @@ clipsRouter.get("/clips/:clipId/progress", async (req, res) => {
 });
 
 /** Server-Sent Events: a `progress` event on every change, ending at ready/failed (or `gone`). */
-async function streamProgress(req: Request, res: Response, clipId: string) {
-  res.status(200).set({ "Content-Type": "text/event-stream", "Cache-Control": "no-store", Connection: "keep-alive", "X-Accel-Buffering": "no" });
-  res.flushHeaders();
-  let last = "";
-  let closed = false;
-  req.on("close", () => (closed = true));
-  let beat = Date.now();
-  while (!closed) {
-    const row = await clipById(clipId);
-    if (!row) {
-      res.write(`event: gone\ndata: {}\n\n`);
-      break;
-    }
-    const data = JSON.stringify(toProgress(row));
-    if (data !== last) {
-      res.write(`event: progress\ndata: ${data}\n\n`);
-      last = data;
-      beat = Date.now();
-    } else if (Date.now() - beat > 15_000) {
-      res.write(`: still working\n\n`);
-      beat = Date.now();
-    }
-    if (row.status === "ready" || row.status === "failed") break;
-    await new Promise((r) => setTimeout(r, 400));
-  }
-  res.end();
+function streamProgress(req: Request, res: Response, clipId: string) {
+  return streamPolled(req, res, {
+    read: () => clipById(clipId),
+    event: "progress",
+    missingEvent: "gone",
+    present: toProgress,
+    finished: (row) => row.status === "ready" || row.status === "failed",
+    intervalMs: 400,
+  });
 }
 
 clipsRouter.get("/clips/:clipId/frames/:n", async (req, res) => {

@@ -1,6 +1,7 @@
 import { Router, type Request, type Response } from "express";
 import { actorOf, signedInOf } from "../auth/context";
 import { parse } from "../http/validate";
+import { streamPolled } from "../http/polled-stream";
 import { StartTrackingBody } from "../../shared/schemas/tracking";
 import * as svc from "./service";
 
@@ -33,31 +34,14 @@ trackingRouter.delete("/shots/:shotId/tracking", async (req, res) => {
  * Server-Sent Events: `run` with the run's progress on every change (its proposals once it is
  * done, failed or cancelled, which ends the stream), or `none` when the shot has no run.
  */
-async function streamRun(req: Request, res: Response, teamId: string, id: string) {
-  res.status(200).set({ "Content-Type": "text/event-stream", "Cache-Control": "no-store", Connection: "keep-alive", "X-Accel-Buffering": "no" });
-  res.flushHeaders();
-  let last = "";
-  let closed = false;
-  req.on("close", () => (closed = true));
-  let beat = Date.now();
-  while (!closed) {
-    const run = await svc.latestFor(teamId, id);
-    if (!run) {
-      res.write(`event: none\ndata: {}\n\n`);
-      break;
-    }
-    const live = run.status === "queued" || run.status === "running";
-    const data = JSON.stringify(live ? { ...run, proposals: null } : run);
-    if (data !== last) {
-      res.write(`event: run\ndata: ${data}\n\n`);
-      last = data;
-      beat = Date.now();
-    } else if (Date.now() - beat > 15_000) {
-      res.write(`: still working\n\n`);
-      beat = Date.now();
-    }
-    if (!live) break;
-    await new Promise((r) => setTimeout(r, 250));
-  }
-  res.end();
+function streamRun(req: Request, res: Response, teamId: string, id: string) {
+  const live = (run: { status: string }) => run.status === "queued" || run.status === "running";
+  return streamPolled(req, res, {
+    read: () => svc.latestFor(teamId, id),
+    event: "run",
+    missingEvent: "none",
+    present: (run) => (live(run) ? { ...run, proposals: null } : run),
+    finished: (run) => !live(run),
+    intervalMs: 250,
+  });
 }
