@@ -11,18 +11,40 @@ export interface GraySpecInput {
   /** First and last frame wanted, 1-based and inclusive. */
   first: number;
   last: number;
+  /** The clip's probed pixel format and colour range; unknown takes the general conversion. */
+  pixelFormat?: string | null;
+  colorRange?: string | null;
 }
 
-/** ffmpeg -i clip -map 0:v -vf trim -fps_mode passthrough -f rawvideo -pix_fmt gray pipe:1 */
+// 8-bit planar YUV: its luma plane already is the grey picture, so it is taken as it is
+// (extractplanes) instead of through swscale's conversion to `gray`, which for 1280×720 costs a
+// third as much CPU as decoding H.264. Limited-range luma (16–235) is stretched to 0–255 by a
+// lookup table with the formula swscale uses: the same bytes as `-pix_fmt gray` for every level
+// (tests/unit/media/gray.test.ts compares them). Anything else (RGB, more than 8 bits, packed or
+// semi-planar layouts) keeps the general conversion.
+const LIMITED_LUMA_TO_FULL = "lut=c0='clip(round((val-16)*255/219),0,255)'";
+const PLANAR_YUV_8BIT = /^yuvj?(420|422|444)p$/;
+
+/** The filters that turn the decoded picture into 8-bit grey cheaply, or none (swscale converts). */
+export function lumaFilters(s: Pick<GraySpecInput, "pixelFormat" | "colorRange">): string[] {
+  const f = s.pixelFormat ?? "";
+  if (!PLANAR_YUV_8BIT.test(f)) return [];
+  const full = f.startsWith("yuvj") || s.colorRange === "pc";
+  return full ? ["extractplanes=y"] : ["extractplanes=y", LIMITED_LUMA_TO_FULL];
+}
+
+/** ffmpeg -i clip -map 0:v -vf trim[,luma] -fps_mode passthrough -f rawvideo -pix_fmt gray pipe:1 */
 export function buildGraySpec(s: GraySpecInput): FfmpegSpec {
   // trim ends the stream after `last`, so ffmpeg stops decoding there instead of at the clip's end.
-  const trim = `trim=start_frame=${s.first - 1}:end_frame=${s.last}`;
+  // A rotated clip is turned before these filters (ffmpeg puts its autorotation first).
+  const chain = [`trim=start_frame=${s.first - 1}:end_frame=${s.last}`, ...lumaFilters(s)];
   return {
     inputs: [{ path: s.input }],
     outputs: [
       {
         path: "pipe:1",
-        options: ["-map", `0:${s.videoStreamIndex}`, "-vf", trim, "-fps_mode", "passthrough", "-f", "rawvideo", "-pix_fmt", "gray"],
+        // -pix_fmt gray stays: a no-op after extractplanes, the conversion where there is none.
+        options: ["-map", `0:${s.videoStreamIndex}`, "-vf", chain.join(","), "-fps_mode", "passthrough", "-f", "rawvideo", "-pix_fmt", "gray"],
       },
     ],
   };

@@ -149,7 +149,7 @@ export async function workOf(shotId: string) {
     .from(shot)
     .innerJoin(clip, eq(clip.id, shot.clipId))
     .where(eq(shot.id, shotId));
-  return row ? { ...row, calibration: row.calibration as ClipCalibration | null, probe: row.probe as { videoStreamIndex?: number } | null } : null;
+  return row ? { ...row, calibration: row.calibration as ClipCalibration | null, probe: row.probe as { videoStreamIndex?: number; pixelFormat?: string | null; colorRange?: string | null } | null } : null;
 }
 
 /** The team's runs queued or running, oldest first: at most `limit`, each row with the count of all of them. */

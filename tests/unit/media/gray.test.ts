@@ -4,8 +4,9 @@
 // itself (`ffmpeg -i clip -f rawvideo -pix_fmt gray -`) on lavfi-generated clips.
 import { execa } from "execa";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { buildGraySpec, decodeGrayFrames, FfmpegError } from "../../../server/media";
-import { makeClip, makeRotatedClip, tempDir, testMedia } from "./helpers";
+import path from "node:path";
+import { buildGraySpec, decodeGrayFrames, FfmpegError, probe } from "../../../server/media";
+import { ffmpeg, makeClip, makeRotatedClip, tempDir, testMedia } from "./helpers";
 
 let dir: string;
 let cleanup: () => Promise<void>;
@@ -27,6 +28,53 @@ describe("buildGraySpec", () => {
       path: "pipe:1",
       options: ["-map", "0:1", "-vf", "trim=start_frame=4:end_frame=9", "-fps_mode", "passthrough", "-f", "rawvideo", "-pix_fmt", "gray"],
     });
+  });
+
+  it("takes 8-bit YUV's luma plane as it is, stretched from limited range; other sources keep the conversion", () => {
+    const vf = (pixelFormat: string, colorRange: string | null) => {
+      const o = buildGraySpec({ input: "/clips/a.mp4", videoStreamIndex: 0, first: 1, last: 9, pixelFormat, colorRange }).outputs[0].options!;
+      return o[o.indexOf("-vf") + 1];
+    };
+    expect(vf("yuv420p", "tv")).toBe("trim=start_frame=0:end_frame=9,extractplanes=y,lut=c0='clip(round((val-16)*255/219),0,255)'");
+    expect(vf("yuv420p", null)).toContain("extractplanes=y,lut=");
+    expect(vf("yuvj420p", "pc")).toBe("trim=start_frame=0:end_frame=9,extractplanes=y");
+    expect(vf("yuv444p", "pc")).toBe("trim=start_frame=0:end_frame=9,extractplanes=y");
+    for (const f of ["yuv420p10le", "rgb24", "nv12", "gray16le", "yuva420p"]) expect(vf(f, "tv")).toBe("trim=start_frame=0:end_frame=9");
+  });
+});
+
+// Each source encoded from the same test picture; the grey frames the job gets must be the bytes
+// plain `-pix_fmt gray` gives (swscale's conversion), whichever way they are made.
+const SOURCES: { name: string; codec: string[]; luma: boolean }[] = [
+  { name: "h264-yuv420p-limited.mp4", codec: ["-c:v", "libx264", "-preset", "ultrafast", "-pix_fmt", "yuv420p"], luma: true },
+  { name: "h264-yuv422p-limited.mkv", codec: ["-c:v", "libx264", "-preset", "ultrafast", "-pix_fmt", "yuv422p"], luma: true },
+  { name: "h264-yuv444p-limited.mkv", codec: ["-c:v", "libx264", "-preset", "ultrafast", "-pix_fmt", "yuv444p"], luma: true },
+  { name: "h264-full-range.mp4", codec: ["-c:v", "libx264", "-preset", "ultrafast", "-pix_fmt", "yuv420p", "-color_range", "pc"], luma: true },
+  { name: "mjpeg-yuvj422p.mkv", codec: ["-c:v", "mjpeg", "-pix_fmt", "yuvj422p"], luma: true },
+  { name: "ffv1-yuv420p-tagged-full.mkv", codec: ["-c:v", "ffv1", "-pix_fmt", "yuv420p", "-color_range", "pc"], luma: true },
+  { name: "h264-10bit.mkv", codec: ["-c:v", "libx264", "-preset", "ultrafast", "-pix_fmt", "yuv420p10le"], luma: false },
+  { name: "png-rgb24.mkv", codec: ["-c:v", "png", "-pix_fmt", "rgb24"], luma: false },
+];
+
+describe("decodeGrayFrames on other sources", () => {
+  it.each(SOURCES)("$name: frame n is plain ffmpeg's grey frame n, byte for byte", async ({ name, codec, luma }) => {
+    const file = path.join(dir, name);
+    // A ramp across every grey level beside the moving test picture, so each level's mapping is compared.
+    await ffmpeg(["-f", "lavfi", "-i", "testsrc2=size=256x96:rate=30[a];gradients=size=256x32:rate=30:c0=black:c1=white:x0=0:y0=0:x1=255:y1=0[b];[a][b]vstack", "-frames:v", "12", ...codec, file]);
+    const facts = await probe(testMedia(), file);
+    const spec = buildGraySpec({ input: file, videoStreamIndex: facts.videoStreamIndex, first: 3, last: 12, pixelFormat: facts.pixelFormat, colorRange: facts.colorRange });
+    expect(spec.outputs[0].options!.join(" ").includes("extractplanes"), `luma plane taken as it is for ${facts.pixelFormat}`).toBe(luma);
+    const all = await plainFfmpeg(file);
+    const size = 256 * 128;
+    const got = new Map<number, Uint8Array>();
+    const n = await decodeGrayFrames(testMedia(), {
+      input: file, videoStreamIndex: facts.videoStreamIndex, pixelFormat: facts.pixelFormat, colorRange: facts.colorRange,
+      first: 3, last: 12, width: 256, height: 128, onFrame: (f, d) => void got.set(f, d),
+    });
+    expect(n).toBe(10);
+    for (const [f, d] of got) expect(Buffer.from(d).equals(all.subarray((f - 1) * size, f * size)), `frame ${f}`).toBe(true);
+    // The ramp's row holds many levels, so the comparison covers the range mapping, not one grey.
+    expect(new Set(got.get(3)!.subarray(100 * 256, 101 * 256)).size).toBeGreaterThan(64);
   });
 });
 
@@ -53,13 +101,19 @@ describe("decodeGrayFrames", () => {
     expect(seen).toEqual(Array.from({ length: 40 }, (_, i) => i + 1));
   });
 
-  it("frames of a rotated clip come out turned, at the displayed size", async () => {
+  it("frames of a rotated clip come out turned, at the displayed size: plain ffmpeg's bytes, luma plane taken as it is", async () => {
     const rotated = await makeRotatedClip(dir, "rot.mp4", 90, 6);
-    const probe = await execa("ffprobe", ["-v", "error", "-select_streams", "v:0", "-show_entries", "stream=width,height", "-of", "csv=p=0", rotated]);
-    const [w, h] = probe.stdout.trim().split(",").map(Number);
-    let count = 0;
-    await decodeGrayFrames(testMedia(), { input: rotated, videoStreamIndex: 0, first: 1, last: 6, width: h, height: w, onFrame: () => void count++ });
-    expect(count).toBe(6);
+    const facts = await probe(testMedia(), rotated);
+    expect([facts.rotationDeg !== 0, facts.width, facts.height, facts.pixelFormat]).toEqual([true, 240, 320, "yuv420p"]);
+    const all = await plainFfmpeg(rotated);
+    const got: Uint8Array[] = [];
+    await decodeGrayFrames(testMedia(), {
+      input: rotated, videoStreamIndex: 0, pixelFormat: facts.pixelFormat, colorRange: facts.colorRange, first: 1, last: 6, width: facts.width, height: facts.height,
+      onFrame: (_, d) => void got.push(d),
+    });
+    expect(got).toHaveLength(6);
+    const size = facts.width * facts.height;
+    got.forEach((d, i) => expect(Buffer.from(d).equals(all.subarray(i * size, (i + 1) * size)), `frame ${i + 1}`).toBe(true));
   });
 
   it("a wrong frame size ends with a message naming the size, a cancel as aborted", async () => {
