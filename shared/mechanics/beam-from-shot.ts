@@ -4,6 +4,7 @@
 // (AISC "Beam Diagrams and Formulas", case 8). Small deflections: the chord stands for the shaft.
 import type { BeamInput } from "./beam-input";
 import { StickLabInputError } from "./sticklab-error";
+import { hypot } from "./hypot";
 
 /** A point in world millimetres on the plane of the shot. */
 export interface WorldPointMm {
@@ -54,7 +55,7 @@ export function beamFromShot(source: ShotBeamSource): ShotBeam {
 
   const cx = bladeHeel.x - topHand.x;
   const cy = bladeHeel.y - topHand.y;
-  const chordMm = Math.hypot(cx, cy);
+  const chordMm = hypot(cx, cy);
   if (!(chordMm >= 1)) fail("the top hand and the blade heel are at the same place: the shaft has no length", "bladeHeel");
   const ux = cx / chordMm;
   const uy = cy / chordMm;

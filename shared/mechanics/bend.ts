@@ -1,4 +1,5 @@
 import type { Vec2 } from "./homography";
+import { hypot } from "./hypot";
 
 // Stick bend from three landmarks on the shaft: top hand, bottom hand, blade heel.
 
@@ -28,7 +29,7 @@ export interface ChordGeometry {
 export function chordGeometry(top: Vec2, bottom: Vec2, heel: Vec2): ChordGeometry {
   const cx = heel[0] - top[0];
   const cy = heel[1] - top[1];
-  const L = Math.hypot(cx, cy);
+  const L = hypot(cx, cy);
   const px = bottom[0] - top[0];
   const py = bottom[1] - top[1];
   const a = (px * cx + py * cy) / L;

@@ -4,6 +4,7 @@ import type { Source } from "./sources";
 import type { EndMotion } from "./smoothing-bias";
 import { frameStepS, type TimeBase } from "./time-base";
 import { gridSegments, smoothSegment, type WorldTrack } from "./track-smoothing";
+import { hypot } from "./hypot";
 
 // Blade speed at puck strike. The puck-strike frame is the analyst's judgement, good to ±e frames;
 // a frame after the true impact already shows the blade on its slower path, and the end of a
@@ -49,7 +50,7 @@ export function bladeAtStrike(
   const i = pre.frames.length - 1;
   const end = pre.frames[i];
   const state = linearState(src, pre, i, cal, sigmaPx);
-  const v0 = Math.hypot(state.nominal.vx, state.nominal.vy);
+  const v0 = hypot(state.nominal.vx, state.nominal.vy);
   const dir: [number, number] = v0 > 0 ? [state.nominal.vx / v0, state.nominal.vy / v0] : [1, 0];
   const m = motionAt(end);
   // Along the direction of motion, m/s² and m/s³.
@@ -70,7 +71,7 @@ export function bladeAtStrike(
     speed: carried(v0, 0),
     sample(c, normal, offset) {
       const v = state.sample(c, normal);
-      return carried(Math.hypot(v.vx, v.vy), offset);
+      return carried(hypot(v.vx, v.vy), offset);
     },
   };
 }

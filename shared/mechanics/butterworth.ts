@@ -1,4 +1,5 @@
 import Fili from "fili";
+import { hypot } from "./hypot";
 
 // Zero-lag Butterworth low-pass: a 2nd-order section run forward and backward (Winter,
 // Biomechanics and Motor Control of Human Movement, 4th ed.). Coefficients come from fili;
@@ -127,8 +128,8 @@ export function biquadGain(q: Biquad, fHz: number, fsHz: number): number {
   const w = (2 * Math.PI * fHz) / fsHz;
   const re = (c0: number, c1: number, c2: number) => c0 + c1 * Math.cos(w) + c2 * Math.cos(2 * w);
   const im = (c1: number, c2: number) => -(c1 * Math.sin(w) + c2 * Math.sin(2 * w));
-  const num = Math.hypot(re(q.b0, q.b1, q.b2), im(q.b1, q.b2));
-  const den = Math.hypot(re(1, q.a1, q.a2), im(q.a1, q.a2));
+  const num = hypot(re(q.b0, q.b1, q.b2), im(q.b1, q.b2));
+  const den = hypot(re(1, q.a1, q.a2), im(q.a1, q.a2));
   return num / den;
 }
 

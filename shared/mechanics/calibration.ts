@@ -1,6 +1,7 @@
 import { Calibration as CalibrationSchema, type Calibration, type CalibrationInput } from "../schemas/shot-document";
 import { MechanicsInputError, formatPath, type InputPath } from "./errors";
 import { applyHomography, fitHomography, homographyConditioning, homographyJacobian, homographyLocalScale, homographyW, type Mat3, type Vec2 } from "./homography";
+import { hypot } from "./hypot";
 
 // Image pixels (x right, y down, displayed frame) → world millimetres on the plane of the shot.
 
@@ -142,7 +143,7 @@ class ScaleBarMap implements CalibrationMap {
     b: Vec2,
     lengthMm: number,
   ) {
-    const s = lengthMm / Math.hypot(b[0] - a[0], b[1] - a[1]);
+    const s = lengthMm / hypot(b[0] - a[0], b[1] - a[1]);
     this.mmPerPx = s;
     this.affine = { M: [s, 0, 0, -s], t: [-a[0] * s, a[1] * s] };
   }

@@ -19,6 +19,7 @@ import { gridSegments, lowerBound, smoothSegment } from "./track-smoothing";
 import { hashNumbers, normalSource, spreadOf, uniformSource, type Spread } from "./uncertainty";
 import { MIN_FLIGHT_MARKS, parseShotDocument, type ImageTrack } from "./validate-shot";
 import { ENGINE_VERSION } from "./version";
+import { hypot } from "./hypot";
 
 export interface ComputeShotOptions {
   /** Monte Carlo trials for the uncertainties (default 400, at least 20). */
@@ -151,7 +152,7 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
   const top = smoothed.get("topHand");
   const bottom = smoothed.get("bottomHand");
   const heel = smoothed.get("bladeHeel");
-  const points = top && bottom && heel && opts.series !== false ? bendSeries(top, bottom, heel) : [];
+  const bend = top && bottom && heel && opts.series !== false ? bendSeries(top, bottom, heel) : null;
   const peakPoint: BendPoint | null = top && bottom && heel ? findPeak(top, bottom, heel, iceStrike ?? -Infinity, release) : null;
   if (!peakPoint && (top || bottom || heel))
     notes.push({ code: "BEND_NOT_AVAILABLE", message: "bend needs top hand, bottom hand and blade heel marked on the same frames between ice strike and release" });
@@ -189,7 +190,7 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
   for (let t = 0; t < trials; t++) {
     const c = trialCalibration(doc.calibration, normal, sigmaPx, doc.calibrationErrorRel);
     const dv = flightDraws.sample(c, normal);
-    dPuck.push(Math.hypot(fit.vxMps + dv[0], fit.vyMps + dv[1]) - fit.speedMps);
+    dPuck.push(hypot(fit.vxMps + dv[0], fit.vyMps + dv[1]) - fit.speedMps);
     const strikeShift = eventError * (2 * uniform() - 1);
     if (bladeAt) dBlade.push(bladeAt.sample(c, normal, strikeShift) - bladeAt.speed);
     if (peak) {
@@ -226,7 +227,7 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
     if (!s || opts.series === false) return out;
     for (const g of s.segments)
       for (let i = 0; i < g.frames.length; i++) {
-        const v = Math.hypot(g.vx[i], g.vy[i]);
+        const v = hypot(g.vx[i], g.vy[i]);
         if (g.marked[i] && Number.isFinite(v)) out.push(point(g.frames[i], g.label === "whole" ? side(g.frames[i]) : g.label, v));
       }
     return out;
@@ -297,7 +298,7 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
       firstFrame,
       puckSpeed: { unit: "m/s", points: speedSeries(smoothed.get("puck")) },
       bladeSpeed: { unit: "m/s", points: speedSeries(bladeSm) },
-      bendAngle: { unit: "deg", points: opts.series === false ? [] : points.map((p) => point(p.frame, side(p.frame), p.angle)) },
+      bendAngle: { unit: "deg", points: bend ? bend.frames.map((f, k) => point(f, side(f), bend.angles[k])) : [] },
     },
     smoothing: {
       mode: mode === "raw" ? "raw" : mode === "auto" ? "residualAnalysis" : "analyst",

@@ -1,4 +1,5 @@
 import { Matrix, SVD, solve } from "ml-matrix";
+import { hypot } from "./hypot";
 
 // Planar homography by the normalised direct linear transform (Hartley & Zisserman, Multiple View
 // Geometry, 2nd ed., algorithm 4.2): normalise each point set, solve A h = 0 by SVD, denormalise.
@@ -18,7 +19,7 @@ function normaliser(pts: Vec2[]): Mat3 {
   cx /= pts.length;
   cy /= pts.length;
   let d = 0;
-  for (const [x, y] of pts) d += Math.hypot(x - cx, y - cy);
+  for (const [x, y] of pts) d += hypot(x - cx, y - cy);
   d /= pts.length;
   const s = d > 0 ? Math.SQRT2 / d : 1;
   return [s, 0, -s * cx, 0, s, -s * cy, 0, 0, 1];

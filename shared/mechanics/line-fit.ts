@@ -1,3 +1,5 @@
+import { hypot } from "./hypot";
+
 // Puck exit speed: a straight-line least-squares fit of world position against time over the
 // first flight frames (Gonzalez & Knudson, ISBS 2019: fit the flight instead of filtering through
 // the impact).
@@ -28,7 +30,7 @@ export function fitConstantVelocity(tS: ArrayLike<number>, xMm: ArrayLike<number
   }
   const vxMps = fx.m / 1000;
   const vyMps = fy.m / 1000;
-  return { vxMps, vyMps, speedMps: Math.hypot(vxMps, vyMps), rmsResidualMm: Math.sqrt(ss / n), maxResidualMm: Math.sqrt(worst) };
+  return { vxMps, vyMps, speedMps: hypot(vxMps, vyMps), rmsResidualMm: Math.sqrt(ss / n), maxResidualMm: Math.sqrt(worst) };
 }
 
 /**

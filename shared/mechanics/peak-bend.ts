@@ -50,9 +50,9 @@ function markedIndex(g: SmoothSegment, frame: number): number {
   return i >= 0 && g.marked[i] ? i : -1;
 }
 
-/** Bend at every frame where all three landmarks are marked (for the chart). */
-export function bendSeries(top: SmoothedSource, bottom: SmoothedSource, heel: SmoothedSource): { frame: number; angle: number }[] {
-  const out: { frame: number; angle: number }[] = [];
+/** Bend at every frame where all three landmarks are marked (for the chart), as two columns (no object per frame). */
+export function bendSeries(top: SmoothedSource, bottom: SmoothedSource, heel: SmoothedSource): { frames: number[]; angles: number[] } {
+  const out = { frames: [] as number[], angles: [] as number[] };
   // The pieces are in frame order, so the one holding a frame is found by walking forward.
   let pt = 0;
   let pb = 0;
@@ -66,7 +66,10 @@ export function bendSeries(top: SmoothedSource, bottom: SmoothedSource, heel: Sm
       const B = bottom.segments[pb];
       const it = T ? markedIndex(T, f) : -1;
       const ib = B ? markedIndex(B, f) : -1;
-      if (it >= 0 && ib >= 0) out.push({ frame: f, angle: bendAngleXY(T.sx[it], T.sy[it], B.sx[ib], B.sy[ib], H.sx[i], H.sy[i]) });
+      if (it >= 0 && ib >= 0) {
+        out.frames.push(f);
+        out.angles.push(bendAngleXY(T.sx[it], T.sy[it], B.sx[ib], B.sy[ib], H.sx[i], H.sy[i]));
+      }
     }
   return out;
 }

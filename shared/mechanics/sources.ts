@@ -80,7 +80,8 @@ export function worldTrack(src: Source, cal: CalibrationMap, lo = -Infinity, hi 
   const i0 = lowerBound(ref, lo);
   const i1 = Math.min(lowerBound(ref, hi + 1), i0 + limit);
   const n = Math.max(0, i1 - i0);
-  const out: WorldTrack = { frames: ref.slice(i0, i0 + n), x: new Float64Array(n), y: new Float64Array(n) };
+  // The frames are a view: tracks are never written to once parsed.
+  const out: WorldTrack = { frames: ref.subarray(i0, i0 + n), x: new Float64Array(n), y: new Float64Array(n) };
   const k = 1 / src.parts.length;
   const aff = cal.affine;
   const checkFront = cal.type === "plane" && !noise;

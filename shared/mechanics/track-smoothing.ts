@@ -100,6 +100,15 @@ function gridPiece(t: WorldTrack, i0: number, i1: number, label: PieceLabel, cap
   else if (wanted && step % wanted === 0) step = wanted;
   const f0 = t.frames[i0];
   const len = (t.frames[i1 - 1] - f0) / step + 1;
+  const fsHz = captureFps / step;
+  if (len === i1 - i0) {
+    // No gap: the grid is the marks themselves (views; grids are never written to).
+    const frames = t.frames.subarray(i0, i1);
+    const tS = new Float64Array(len);
+    for (let k = 0; k < len; k++) tS[k] = time.t(frames[k]);
+    const marked = new Uint8Array(len).fill(1);
+    return { label, step, fsHz, frames, tS, x: t.x.subarray(i0, i1), y: t.y.subarray(i0, i1), marked, filled: 0, longestGapFrames: 0, i0, i1 };
+  }
   const frames = new Int32Array(len);
   const tS = new Float64Array(len);
   const x = new Float64Array(len);
@@ -127,7 +136,7 @@ function gridPiece(t: WorldTrack, i0: number, i1: number, label: PieceLabel, cap
     }
   }
   for (let k = 0; k < len; k++) tS[k] = time.t(frames[k]);
-  return { label, step, fsHz: captureFps / step, frames, tS, x, y, marked, filled: len - (i1 - i0), longestGapFrames: longestGap, i0, i1 };
+  return { label, step, fsHz, frames, tS, x, y, marked, filled: len - (i1 - i0), longestGapFrames: longestGap, i0, i1 };
 }
 
 /**

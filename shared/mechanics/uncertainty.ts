@@ -1,5 +1,6 @@
 import seedrandom from "seedrandom";
 import { quantileSorted, sampleStandardDeviation } from "simple-statistics";
+import { hypot } from "./hypot";
 
 // Monte Carlo propagation of distributions (JCGM 101:2008, GUM Supplement 1): the inputs are
 // perturbed by their stated uncertainties, the results recomputed, and their spread reported —
@@ -83,7 +84,7 @@ export function spreadOf(nominal: number, deviations: number[], bias = 0): Sprea
   const floor = MIN_COVERAGE_FACTOR * uTrials;
   const b = Math.abs(bias);
   return {
-    u: Math.hypot(uTrials, bias),
+    u: hypot(uTrials, bias),
     interval95: [nominal + Math.min(quantileSorted(d, 0.025), -floor) - b, nominal + Math.max(quantileSorted(d, 0.975), floor) + b],
   };
 }
