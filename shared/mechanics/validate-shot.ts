@@ -1,4 +1,4 @@
-import { LANDMARKS, ShotDocument, type Landmark, type Mark } from "../schemas/shot-document";
+import { LANDMARKS, markProblem, ShotDocument, ShotDocumentMarksUnchecked, TRACK_NOT_A_LIST, type Landmark, type Mark } from "../schemas/shot-document";
 import { checkCalibration } from "./calibration";
 import { MechanicsInputError, type InputPath } from "./errors";
 import { clockTimeBase, rateTimeBase, type TimeBase } from "./time-base";
@@ -69,21 +69,46 @@ function checkEvents(doc: ShotDocument, clip: [number, number] | null): void {
   }
 }
 
-function toImageTrack(marks: Mark[], name: Landmark, clip: [number, number] | null): ImageTrack {
-  // Marks usually come in frame order, inside the clip, once each: copied in one pass. Anything
-  // else takes the careful path below, which names the first problem in frame order.
-  const n0 = marks.length;
-  const fast: ImageTrack = { frames: new Int32Array(n0), x: new Float64Array(n0), y: new Float64Array(n0) };
-  let k0 = 0;
-  for (; k0 < n0; k0++) {
-    const m = marks[k0];
-    const f = m[0];
-    if ((k0 > 0 && f <= fast.frames[k0 - 1]) || outside(clip, f)) break;
-    fast.frames[k0] = f;
-    fast.x[k0] = m[1];
-    fast.y[k0] = m[2];
+/**
+ * The usual case in one pass: every mark well formed and in frame order, copied as it is checked.
+ * Null for anything else (the careful paths below then name the first problem).
+ */
+function copyInOrder(marks: unknown): ImageTrack | null {
+  if (!Array.isArray(marks)) return null;
+  const n = marks.length;
+  const t: ImageTrack = { frames: new Int32Array(n), x: new Float64Array(n), y: new Float64Array(n) };
+  let last = -1;
+  for (let k = 0; k < n; k++) {
+    const m: unknown = marks[k];
+    if (!Array.isArray(m) || m.length !== 3) return null;
+    const f: unknown = m[0];
+    const x: unknown = m[1];
+    const y: unknown = m[2];
+    if (typeof f !== "number" || !Number.isInteger(f) || f <= last || typeof x !== "number" || !Number.isFinite(x) || typeof y !== "number" || !Number.isFinite(y))
+      return null;
+    t.frames[k] = f;
+    t.x[k] = x;
+    t.y[k] = y;
+    last = f;
   }
-  if (k0 === n0) return fast;
+  return t;
+}
+
+/** The first malformed mark in any track, as ShotDocument's own check names it. */
+function checkMarks(tracks: Record<string, unknown>): void {
+  for (const name of LANDMARKS) {
+    const marks = tracks[name];
+    if (marks === undefined) continue;
+    if (!Array.isArray(marks)) throw new MechanicsInputError(["tracks", name], TRACK_NOT_A_LIST);
+    for (let i = 0; i < marks.length; i++) {
+      const problem = markProblem(marks[i], i);
+      if (problem) throw new MechanicsInputError(["tracks", name, ...problem.path], problem.message);
+    }
+  }
+}
+
+/** Well-formed marks in any order (checkMarks found no problem): sorted, each inside the clip and once, naming the first problem in frame order. */
+function sortedTrack(marks: Mark[], name: Landmark, clip: [number, number] | null): ImageTrack {
   let sorted = true;
   for (let i = 1; i < marks.length && sorted; i++) sorted = marks[i][0] > marks[i - 1][0];
   const order = sorted ? null : marks.map((_, i) => i).sort((a, b) => marks[a][0] - marks[b][0]);
@@ -104,21 +129,29 @@ function toImageTrack(marks: Mark[], name: Landmark, clip: [number, number] | nu
 
 /** Parse and check a shot document; throws MechanicsInputError naming the first problem. */
 export function parseShotDocument(input: unknown): ParsedShot {
-  const parsed = ShotDocument.safeParse(input);
+  // Everything but the marks through the schema, the marks checked as they are copied (one pass
+  // over up to 100,000 marks a track). Problems are named in ShotDocument's order: the schema's
+  // first issue (a malformed mark comes before the events and the fields after them), then the
+  // calibration, the clip and the events, then the marks' order, clip and repeats.
+  const parsed = ShotDocumentMarksUnchecked.safeParse(input);
   if (!parsed.success) {
-    const iss = parsed.error.issues[0];
+    const iss = (ShotDocument.safeParse(input).error ?? parsed.error).issues[0];
     throw new MechanicsInputError(iss.path as InputPath, iss.message);
   }
-  const doc = parsed.data;
+  const doc: ShotDocument = parsed.data;
+  const copies = new Map<Landmark, ImageTrack | null>();
+  for (const name of LANDMARKS) if (doc.tracks[name] !== undefined) copies.set(name, copyInOrder(doc.tracks[name]));
+  if ([...copies.values()].includes(null)) checkMarks(doc.tracks);
   const cal = checkCalibration(doc.calibration);
   if (cal) throw new MechanicsInputError(["calibration", ...cal.path], cal.message);
   const clip = clipOf(doc);
   checkEvents(doc, clip);
 
   const tracks: ParsedShot["tracks"] = {};
-  for (const name of LANDMARKS) {
-    const marks = doc.tracks[name];
-    if (marks) tracks[name] = toImageTrack(marks, name, clip);
+  for (const [name, copy] of copies) {
+    // In frame order, so inside the clip when its first and last marks are.
+    const inClip = copy && (copy.frames.length === 0 || (!outside(clip, copy.frames[0]) && !outside(clip, copy.frames[copy.frames.length - 1])));
+    tracks[name] = copy && inClip ? copy : sortedTrack(doc.tracks[name]!, name, clip);
   }
   const puck = tracks.puck!;
   let flight = 0;

@@ -65,6 +65,27 @@ describe("bad shot documents", () => {
     fails({ ...doc, tracks: { ...doc.tracks, bladeheel: [] } }, "tracks", /unknown field "bladeheel"/);
     fails({ ...doc, cutoffHz: 1700 }, "cutoffHz", /too high/);
   });
+  it("malformed marks: each named at the mark, before any later problem", () => {
+    const top = doc.tracks.topHand!;
+    fails({ ...doc, tracks: { ...doc.tracks, bladeToe: "toe" } }, "tracks.bladeToe", /list of \[frame, x, y\] marks/);
+    fails({ ...doc, tracks: { ...doc.tracks, puck: [...puck.slice(0, 5), [5, 1], ...puck.slice(6)] } }, "tracks.puck[5]", /a mark must be \[frame, x, y\]/);
+    fails({ ...doc, tracks: { ...doc.tracks, puck: [...puck.slice(0, 3), [-1, 1, 1], ...puck.slice(4)] } }, "tracks.puck[3][0]", /whole number, 0 or more \(got -1\)/);
+    fails({ ...doc, tracks: { ...doc.tracks, puck: [...puck.slice(0, 3), [3.5, 1, 1], ...puck.slice(4)] } }, "tracks.puck[3][0]", /whole number/);
+    fails({ ...doc, tracks: { ...doc.tracks, puck: [...puck.slice(0, 3), [3, 1, "2"], ...puck.slice(4)] } }, "tracks.puck[3][2]", /finite numbers \(got \[1, 2\]\)/);
+    // The malformed mark comes first: before a frame marked twice in an earlier track, a wrong
+    // event order, a bad calibration, and a bad field after the tracks.
+    const badTop = { ...doc.tracks, puck: [puck[0], ...puck], topHand: [...top.slice(0, 9), [top[9][0], Number.NaN, 1], ...top.slice(10)] };
+    fails({ ...doc, tracks: badTop }, "tracks.topHand[9][1]", /finite/);
+    fails({ ...doc, tracks: badTop, events: { ...doc.events, release: doc.events.puckStrike } }, "tracks.topHand[9][1]", /finite/);
+    fails({ ...doc, tracks: badTop, calibration: { type: "scaleBar", a: [5, 5], b: [5, 5] } }, "tracks.topHand[9][1]", /finite/);
+    fails({ ...doc, tracks: badTop, stick: { flex: -85 } }, "tracks.topHand[9][1]", /finite/);
+    fails({ ...doc, tracks: { ...doc.tracks, puck: [puck[0], ...puck] }, stick: { flex: -85 } }, "stick.flex", /above 0/);
+    fails({ ...doc, tracks: { ...doc.tracks, puck: [puck[0], ...puck] } }, "tracks.puck[1]", /marked twice/);
+  });
+  it("marks out of frame order are sorted and give the same results", () => {
+    const shuffled = { ...doc, tracks: { ...doc.tracks, puck: [...puck].reverse(), topHand: [...doc.tracks.topHand!.slice(1), doc.tracks.topHand![0]] } };
+    expect(computeShot(shuffled, { trials: 20 })).toEqual(computeShot(doc, { trials: 20 }));
+  });
   it("not a document at all", () => {
     fails(null, "", /shot document/);
     fails("shot.json", "", /shot document/);
