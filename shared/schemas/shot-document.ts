@@ -103,7 +103,7 @@ export const FrameTimes = z.strictObject(
 export const LANDMARKS = ["puck", "bladeHeel", "bladeToe", "bottomHand", "topHand", "buttEnd"] as const;
 export type Landmark = (typeof LANDMARKS)[number];
 
-const tracksOf = (t: z.ZodType<Mark[]>) =>
+const tracksOf = (t: z.ZodType<Mark[], Mark[]>) =>
   z.strictObject(
     { puck: t, bladeHeel: t.optional(), bladeToe: t.optional(), bottomHand: t.optional(), topHand: t.optional(), buttEnd: t.optional() },
     { error: needs("an object of tracks: { puck, bladeHeel?, bladeToe?, bottomHand?, topHand? }") },
