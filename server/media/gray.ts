@@ -57,9 +57,17 @@ export interface GrayDecodeOptions extends GraySpecInput {
   signal?: AbortSignal;
   /** Default 60 s + 20 ms per frame. */
   timeoutMs?: number;
-  /** Called once per frame, in order; its own copy of the bytes. A returned promise holds the decoder back. */
+  /**
+   * Called once per frame, in order, with the frame's bytes, which are the callee's to keep. A
+   * returned promise holds the decoder back (not counted as a stalled decoder).
+   */
   onFrame: (frame: number, data: Uint8Array) => void | Promise<void>;
+  /** Where to decode the next frame: a width × height buffer to reuse. Default a new one each frame. */
+  buffer?: () => Uint8Array;
 }
+
+/** While a consumer holds the decoder back, the stall watchdog is told it is not stuck this often. */
+const HELD_BEAT_MS = 5_000;
 
 /** Decode frames first…last to grey; resolves with the number of frames delivered. */
 export async function decodeGrayFrames(config: MediaConfig, o: GrayDecodeOptions): Promise<number> {
@@ -67,7 +75,13 @@ export async function decodeGrayFrames(config: MediaConfig, o: GrayDecodeOptions
   if (!(bytes > 0) || o.first < 1 || o.last < o.first) throw new RangeError(`bad grey decode request: ${o.width}×${o.height}, frames ${o.first}–${o.last}`);
   const spec = buildGraySpec(o);
   const args = buildFfmpegArgs(spec, { threads: config.threads ?? 2 });
-  let frame = new Uint8Array(bytes);
+  const nextBuffer = () => {
+    const b = o.buffer?.() ?? new Uint8Array(bytes);
+    if (b.length !== bytes) throw new RangeError(`a frame buffer of ${b.length} bytes for ${o.width}×${o.height} frames`);
+    return b;
+  };
+  let frame: Uint8Array | null = null;
+  let beat = () => {};
   let filled = 0;
   let next = o.first;
   await runTool(config, {
@@ -76,19 +90,29 @@ export async function decodeGrayFrames(config: MediaConfig, o: GrayDecodeOptions
     timeoutMs: o.timeoutMs ?? 60_000 + 20 * (o.last - o.first + 1),
     stallTimeoutMs: 30_000,
     signal: o.signal,
+    heartbeat: (b) => (beat = b),
     onStdoutData: async (chunk) => {
       let at = 0;
       while (at < chunk.length) {
         const n = Math.min(bytes - filled, chunk.length - at);
+        frame ??= nextBuffer();
         frame.set(chunk.subarray(at, at + n), filled);
         filled += n;
         at += n;
         if (filled === bytes) {
           const done = frame;
-          frame = new Uint8Array(bytes);
+          frame = null;
           filled = 0;
           if (next > o.last) throw new FfmpegError("failed", `ffmpeg gave more frames than the ${o.last - o.first + 1} asked for`, { command: "", stderrTail: "", durationMs: 0 });
-          await o.onFrame(next++, done);
+          const held = o.onFrame(next++, done);
+          if (held) {
+            const beating = setInterval(beat, HELD_BEAT_MS);
+            try {
+              await held;
+            } finally {
+              clearInterval(beating);
+            }
+          }
         }
       }
     },

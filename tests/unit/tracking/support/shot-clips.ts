@@ -6,6 +6,7 @@
 import { defaultMedia, renderClip, type RenderLook } from "../../../../scripts/demo/render-scene";
 import type { SceneOptions, SceneTruth } from "../../../../scripts/demo/shot-scene";
 import { decodeGrayFrames } from "../../../../server/media/gray";
+import { probe } from "../../../../server/media/probe";
 import type { FrameSource, GrayFrame } from "../../../../shared/tracking/types";
 
 /**
@@ -45,8 +46,10 @@ async function load(scene: SceneOptions, look: RenderLook): Promise<ShotClip> {
   const r = await renderClip([scene], { look });
   const truth = r.scenes[0];
   const frames: GrayFrame[] = [];
+  // The clip's pixel format, as the job reads it from the clip's probe: the same decode path.
+  const { pixelFormat, colorRange } = await probe(defaultMedia(), r.mp4);
   await decodeGrayFrames(defaultMedia(), {
-    input: r.mp4, videoStreamIndex: 0, first: 1, last: r.frameCount, width: truth.width, height: truth.height,
+    input: r.mp4, videoStreamIndex: 0, pixelFormat, colorRange, first: 1, last: r.frameCount, width: truth.width, height: truth.height,
     onFrame: (f, data) => void (frames[f] = { width: truth.width, height: truth.height, data }),
   });
   return { mp4: r.mp4, truth, frames, source: { length: frames.length, frame: async (i) => frames[i] } };
