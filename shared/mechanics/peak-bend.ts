@@ -1,5 +1,5 @@
 import { bendAngleDeg, bendAngleXY, chordGeometry, type ChordGeometry } from "./bend";
-import { endPadLength, zeroLagDesignCached, zeroLagLowPass } from "./butterworth";
+import { endPadLength, zeroLagDesignCached, zeroLagLowPassPair } from "./butterworth";
 import type { CalibrationMap } from "./calibration";
 import type { Vec2 } from "./homography";
 import { linearState } from "./linear-response";
@@ -85,8 +85,7 @@ function twiceOver(g: SmoothSegment, a: number, b: number): { at: (i: number) =>
   const r = reachOf(g);
   const lo = Math.max(0, a - r);
   const hi = Math.min(g.x.length, b + r + 1);
-  const sx = zeroLagLowPass(g.sx.subarray(lo, hi), g.cutoffHz, g.fsHz);
-  const sy = zeroLagLowPass(g.sy.subarray(lo, hi), g.cutoffHz, g.fsHz);
+  const [sx, sy] = zeroLagLowPassPair(g.sx.subarray(lo, hi), g.sy.subarray(lo, hi), g.cutoffHz, g.fsHz);
   return { at: (i) => [sx[i - lo], sy[i - lo]] };
 }
 

@@ -1,4 +1,4 @@
-import { endPadLength, filtfiltResidualSS, passFromRest, zeroLagDesignCached, type Biquad } from "./butterworth";
+import { endPadLength, filtfiltResidualSS, filtfiltResidualSSPair, passFromRest, zeroLagDesignCached, type Biquad } from "./butterworth";
 
 // Cutoff choice by residual analysis (Winter, Biomechanics and Motor Control of Human Movement,
 // 4th ed., Wiley 2009): R(fc), the RMS difference between raw and filtered data, is pure noise at
@@ -118,14 +118,23 @@ function residualAt(series: ResidualSeries[], k: number, judgeK = k): { ss: numb
   let ss = 0;
   let rho = 0;
   let n = 0;
-  for (const s of series) {
+  for (let i = 0; i < series.length; i++) {
+    const s = series[i];
     const len = s.values.length;
     if (len < noiseResidualAt(judgeK, s.fsHz).minLength) continue;
     const q = zeroLagDesignCached(gridCutoff(k, s.fsHz), s.fsHz);
     const nr = noiseResidualAt(k, s.fsHz);
-    ss += filtfiltResidualSS(q, s.values, endPadLength(q));
-    rho += len * nr.interior + 2 * nr.endCorrection;
-    n += len;
+    // A piece's x and y (next to each other, one length and rate) are filtered side by side; the
+    // sums are taken in the same order as one by one.
+    const next = series[i + 1];
+    const paired = next && next.fsHz === s.fsHz && next.values.length === len;
+    const [a, b] = paired ? filtfiltResidualSSPair(q, s.values, next.values, endPadLength(q)) : [filtfiltResidualSS(q, s.values, endPadLength(q)), 0];
+    for (const part of paired ? [a, b] : [a]) {
+      ss += part;
+      rho += len * nr.interior + 2 * nr.endCorrection;
+      n += len;
+    }
+    if (paired) i++;
   }
   return { ss, rho, n };
 }

@@ -1,6 +1,6 @@
 import { Matrix, solve } from "ml-matrix";
 import { bendAngleDeg } from "./bend";
-import { endPadLength, maxWantedCutoff, zeroLagDesignCached, zeroLagLowPass } from "./butterworth";
+import { endPadLength, maxWantedCutoff, zeroLagDesignCached, zeroLagLowPassPair } from "./butterworth";
 import type { CalibrationMap } from "./calibration";
 import { stateWeights } from "./linear-response";
 import type { Source } from "./sources";
@@ -103,7 +103,8 @@ export interface StickInput {
 /** The smoothed piece of a windowed track, smoothed once more (positions only). */
 function smoothAgain(s: SmoothSegment, fcHz: number): { sx: Float64Array; sy: Float64Array } {
   if (s.cutoffHz === null || s.x.length < 3) return { sx: s.sx, sy: s.sy };
-  return { sx: zeroLagLowPass(s.sx, fcHz, s.fsHz), sy: zeroLagLowPass(s.sy, fcHz, s.fsHz) };
+  const [sx, sy] = zeroLagLowPassPair(s.sx, s.sy, fcHz, s.fsHz);
+  return { sx, sy };
 }
 
 /**

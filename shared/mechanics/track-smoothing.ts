@@ -1,5 +1,5 @@
 import type { SegmentLabel } from "../schemas/shot-results";
-import { zeroLagLowPass } from "./butterworth";
+import { zeroLagLowPassPair } from "./butterworth";
 import { rateTimeBase, type TimeBase } from "./time-base";
 
 // Tracks are cut at the impact frames (never filtered across puck strike), put on a uniform frame
@@ -213,8 +213,7 @@ export function smoothSegment(seg: GridSegment, cutoffHz: number | null): Smooth
   let sx = seg.x;
   let sy = seg.y;
   if (cutoffHz !== null && seg.x.length >= 3) {
-    sx = zeroLagLowPass(seg.x, cutoffHz, seg.fsHz);
-    sy = zeroLagLowPass(seg.y, cutoffHz, seg.fsHz);
+    [sx, sy] = zeroLagLowPassPair(seg.x, seg.y, cutoffHz, seg.fsHz);
   }
   return { ...seg, sx, sy, vx: gradientMps(sx, seg.tS), vy: gradientMps(sy, seg.tS), cutoffHz };
 }
