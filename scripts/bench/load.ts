@@ -170,6 +170,7 @@ try {
   // --- 2. latency at 200 requests/s ----------------------------------------------------------
   const clipRepo = await import("../../server/entities/clip/repository");
   const readoutRepo = await import("../../server/entities/shot/readout");
+  const { shotListPage } = await import("../../server/entities/shot/list-page");
   const shotIds = (await (await import("../../server/db/client")).db().execute<{ id: string }>(
     (await import("drizzle-orm")).sql`select id from shot where team_id = ${ids.teamId} order by random() limit 2000`,
   )).rows.map((r) => r.id);
@@ -200,7 +201,7 @@ try {
     {
       name: "Shots list as the Shots page opens it (the team's newest 50, count, filter choices)", rate: RATE, seconds: SECONDS,
       http: () => `${team}/readout/shots?page=1&pageSize=50`,
-      raw: () => Promise.all([readoutRepo.listShots(coach, {}, { limit: 50, offset: 0 }), readoutRepo.countShots(coach, {}), readoutRepo.listFilterChoices(coach)]),
+      raw: () => shotListPage(coach, {}, { limit: 50, offset: 0 }),
     },
   ];
   // Deep pages and other sorts, for the record at a lower rate (one web process).
@@ -213,7 +214,7 @@ try {
     {
       name: `one player's Shots list, any page of 50 (${Math.round(seeded.shots / seeded.players.length)} shots)`, rate: 20, seconds: 5,
       http: (i) => `${team}/readout/shots?playerId=${encodeURIComponent(player)}&page=${(i % 20) + 1}&pageSize=50`,
-      raw: (i) => readoutRepo.listShots(coach, { playerId: player }, { limit: 50, offset: (i % 20) * 50 }),
+      raw: (i) => shotListPage(coach, { playerId: player }, { limit: 50, offset: (i % 20) * 50 }),
     },
   ];
   /** CPU time used so far by these processes, from /proc (Linux); -1 where there is none. */

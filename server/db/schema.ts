@@ -2,7 +2,7 @@
 // organization = team, member, invitation) are generated into auth-schema.ts; ours follow.
 // Every domain row carries its team id so that a single `where team_id = $active` keeps teams apart.
 import { sql } from "drizzle-orm";
-import { bigint, boolean, date, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
+import { bigint, boolean, date, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, unique, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { organization, user } from "./auth-schema";
 import type { ClipTiming } from "../../shared/schemas/clips";
 import { PLAN_IDS } from "../../shared/billing/plans";
@@ -187,7 +187,34 @@ export const shot = pgTable(
     index("shot_team_type_idx").on(t.teamId, t.shotType, t.shotDate.desc().nullsFirst(), t.clipCreatedAt.desc().nullsFirst(), t.createdAt.desc().nullsFirst(), t.id, t.playerId),
     index("shot_team_stick_idx").on(t.teamId, t.stickId),
     index("shot_clip_idx").on(t.clipId),
+    // Shots waiting for review (unpublished), in the list's order: the "waiting" filter's page and
+    // count read only the review queue, not every shot of the team (decision 190).
+    index("shot_team_unpublished_idx")
+      .on(t.teamId, t.shotDate.desc().nullsFirst(), t.clipCreatedAt.desc().nullsFirst(), t.createdAt.desc().nullsFirst(), t.id)
+      .where(sql`published_at is null`),
   ],
+);
+
+/**
+ * How many shots a team has for each combination of what the Shots list filters by (player,
+ * stick, shot type, published), so that staff's list total is a sum over a few rows instead of
+ * a count of every shot of the team (docs/decisions/190-shot-tally.md). PostgreSQL keeps it:
+ * statement triggers on `shot` (migration shot_tally) add each statement's net change inside the
+ * writing transaction, so a committed tally always equals a count of the committed shots. The
+ * application never writes it. No foreign keys: a team's or player's rows fall to zero as their
+ * shots go, and zero rows count nothing.
+ */
+export const shotTally = pgTable(
+  "shot_tally",
+  {
+    teamId: text("team_id").notNull(),
+    playerId: text("player_id"),
+    stickId: uuid("stick_id"),
+    shotType: text("shot_type").notNull(),
+    published: boolean("published").notNull(),
+    n: integer("n").notNull(),
+  },
+  (t) => [unique("shot_tally_key").on(t.teamId, t.playerId, t.stickId, t.shotType, t.published).nullsNotDistinct()],
 );
 
 export const shotResult = pgTable("shot_result", {

@@ -1,7 +1,8 @@
 // From stored rows to the answers of the readout API. Pure apart from nothing: no queries here.
 import { EVENTS, toShotDocument, type ShotStickInfo } from "../../shared/schemas/shots";
 import { frameClockMs, type ReadoutEvent, type ShareRow, type ShotListItem, type ShotReadout, type ShotType } from "../../shared/schemas/readout";
-import type { ListRow, ReadoutRow } from "../entities/shot/readout";
+import type { ReadoutRow } from "../entities/shot/readout";
+import type { PageRow } from "../entities/shot/list-page";
 import { shotDate } from "../entities/shot/date";
 import { shotFrameTimes } from "../../shared/schemas/clips";
 
@@ -12,21 +13,22 @@ export const shotClockOf = (r: Pick<ReadoutRow, "clipFrameTimes" | "storedFps" |
 type Common = Pick<ReadoutRow, "sessionDate" | "clipCreatedAt" | "resultShotVersion" | "resultError" | "calibration" | "events" | "frameStart" | "frameEnd" | "frameCount" | "captureFps">;
 
 
+const NOT_COMPUTED = "Results have not been computed for this shot yet: open it on the Digitise page and save its marks.";
+
+/** What is still needed, for a row read without its marks (the Shots list): the stored engine message, else the next step. */
+export const missingWithoutMarks = (resultError: string | null, hasResults: boolean): string | null => (hasResults ? null : resultError || NOT_COMPUTED);
+
 /**
  * What is still needed before there are results, said as the next step. The stored engine message
  * when there is one; else the same check the server runs before computing.
  */
 export function missingOf(r: Common & { marks?: ReadoutRow["marks"] }, hasResults: boolean): string | null {
-  if (hasResults) return null;
-  if (r.resultError) return r.resultError;
-  if (r.marks) {
-    const built = toShotDocument({
-      captureFps: r.captureFps, calibration: r.calibration, marks: r.marks, events: r.events,
-      frameStart: r.frameStart, frameEnd: r.frameEnd ?? r.frameCount ?? r.frameStart, stick: null,
-    });
-    if (built.missing) return built.missing;
-  }
-  return "Results have not been computed for this shot yet: open it on the Digitise page and save its marks.";
+  if (hasResults || r.resultError || !r.marks) return missingWithoutMarks(r.resultError, hasResults);
+  const built = toShotDocument({
+    captureFps: r.captureFps, calibration: r.calibration, marks: r.marks, events: r.events,
+    frameStart: r.frameStart, frameEnd: r.frameEnd ?? r.frameCount ?? r.frameStart, stick: null,
+  });
+  return built.missing || NOT_COMPUTED;
 }
 
 export function eventsOf(r: Pick<Common, "events" | "frameStart" | "captureFps"> & { frameTimes?: { firstFrame: number; seconds: number[] } | null }): ReadoutEvent[] {
@@ -43,18 +45,18 @@ export function eventsOf(r: Pick<Common, "events" | "frameStart" | "captureFps">
   });
 }
 
-export function listItem(r: ListRow, opts: { viewerId: string; sharedWithViewer: boolean; shareCount: number; viewerIsStaff: boolean }): ShotListItem {
+export function listItem(r: PageRow, opts: { viewerId: string; sharedWithViewer: boolean; shareCount: number; viewerIsStaff: boolean }): ShotListItem {
   const s = r.summary;
   return {
     id: r.id, label: r.label, clipId: r.clipId, clipTitle: r.clipTitle, playerId: r.playerId, playerName: r.playerName,
-    stickId: r.stickId, stickLabel: r.stickLabel, shotType: r.shotType as ShotType, date: shotDate(r), sessionId: r.sessionId, venue: r.venue || null,
-    captureFps: r.captureFps, hasResults: !!s, missing: missingOf(r, !!s),
+    stickId: r.stickId, stickLabel: r.stickLabel, shotType: r.shotType as ShotType, date: r.date, sessionId: r.sessionId, venue: r.venue || null,
+    captureFps: r.captureFps, hasResults: !!s, missing: missingWithoutMarks(r.resultError, !!s),
     puckExitSpeedMps: s?.puckExitSpeed.valueMps ?? null,
     bladeSpeedMps: s?.bladeSpeedAtStrike?.valueMps ?? null,
     peakBendDeg: s?.peakBend?.angleDeg ?? null,
     loadTimeMs: s?.loadTimeMs ?? null,
     contactTimeMs: s?.contactTimeMs ?? null,
-    recomputing: !!r.recomputeRequestedAt,
+    recomputing: r.recomputing,
     sharedWithMe: opts.sharedWithViewer && r.playerId !== opts.viewerId && !opts.viewerIsStaff,
     shareCount: opts.viewerIsStaff ? opts.shareCount : 0,
     published: r.publishedAt !== null,

@@ -17,6 +17,7 @@ import * as memberRepo from "../entities/member/repository";
 import { isUuid } from "../http/ids";
 import { weakTagOf } from "../http/json-answer";
 import * as repo from "../entities/shot/readout";
+import { shotListPage } from "../entities/shot/list-page";
 import { teamSettingsOf } from "../entities/team/repository";
 import { latestAuditEntry } from "../entities/audit/repository";
 
@@ -80,21 +81,17 @@ export async function readoutJson(a: Actor, shotId: string): Promise<{ text: str
 export async function listShots(a: Actor, q: z.output<typeof ShotListPageQuery>): Promise<ShotListResponse> {
   const staff = isStaff(a);
   const filters = { playerId: q.playerId, stickId: q.stickId, shotType: q.shotType, review: q.review };
-  const [rows, choices] = await Promise.all([repo.listShots(a, filters, { limit: q.pageSize, offset: (q.page - 1) * q.pageSize }), repo.listFilterChoices(a)]);
-  // The page's rows carry the total and their shares (decision 178); a page past the end has no row to carry it.
-  const total = rows.length ? rows[0].total! : await repo.countShots(a, filters);
-  const by = new Map(rows.map((r) => [r.id, r.shareIds!]));
+  // One round trip: the page, its total and the filter choices (decision 191).
+  const page = await shotListPage(a, filters, { limit: q.pageSize, offset: (q.page - 1) * q.pageSize });
   // The query already keeps to what the viewer may see; the policy is asked again for each row.
-  const visible = rows.filter((r) => policy.viewShot(a, shotAccess(r, by.get(r.id))));
+  const visible = page.rows.filter((r) => policy.viewShot(a, shotAccess(r, r.shareIds)));
   return {
-    shots: visible.map((r) =>
-      listItem(r, { viewerId: a.userId, viewerIsStaff: staff, sharedWithViewer: (by.get(r.id) ?? []).includes(a.userId), shareCount: (by.get(r.id) ?? []).length }),
-    ),
-    total,
+    shots: visible.map((r) => listItem(r, { viewerId: a.userId, viewerIsStaff: staff, sharedWithViewer: r.shareIds.includes(a.userId), shareCount: r.shareIds.length })),
+    total: page.total,
     page: q.page,
     pageSize: q.pageSize,
-    players: choices.players,
-    sticks: choices.sticks,
+    players: page.players,
+    sticks: page.sticks,
   };
 }
 

@@ -1,12 +1,12 @@
 import { createHash } from "node:crypto";
-import { and, asc, desc, eq, gt, inArray, isNotNull, isNull, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, gt, isNotNull, isNull, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { LRUCache } from "lru-cache";
 import { db } from "../../db/client";
 import { prepared, preparedBy } from "../../db/prepared";
 import { clip, member, shot, shotResult, shotShare, stick, teamSettings, trainingSession, user } from "../../db/schema";
 import { benchTestInForce } from "../stick/stiffness";
-import { isStaff, type Actor } from "../member/role";
+import type { Actor } from "../member/role";
 import { newestShotFirst, shotDateSql } from "./date";
 import { shotVisibleWhere } from "./visibility";
 import { ShotResults } from "../../../shared/schemas/shot-results";
@@ -66,7 +66,7 @@ function joined(columns: typeof withEverything) {
 // Stored results are only used when they have the engine's shape: a row written some other way
 // (by hand, by an older engine) reads as "no results yet" rather than failing the page.
 const fullResults = (v: unknown): ShotResults | null => (ShotResults.safeParse(v).success ? (v as ShotResults) : null);
-function summaryResults(v: unknown): Omit<ShotResults, "series"> | null {
+export function summaryResults(v: unknown): Omit<ShotResults, "series"> | null {
   const r = v as { puckExitSpeed?: { valueMps?: unknown }; contactTimeMs?: unknown; notes?: unknown } | null;
   return r && typeof r.puckExitSpeed?.valueMps === "number" && typeof r.contactTimeMs === "number" && Array.isArray(r.notes) ? (v as Omit<ShotResults, "series">) : null;
 }
@@ -132,7 +132,7 @@ export async function shotTextById(teamId: string, shotId: string) {
 }
 
 /** The shots of the actor's team that the actor may see (entities/shot/visibility.ts), filtered. */
-function listWhere(a: Actor, f: ShotListQuery) {
+export function listWhere(a: Actor, f: ShotListQuery) {
   const where: SQL[] = [shotVisibleWhere(a)];
   if (f.playerId) where.push(eq(shot.playerId, f.playerId));
   if (f.stickId) where.push(eq(shot.stickId, f.stickId));
@@ -156,56 +156,14 @@ export function pageIdsQuery(a: Actor, f: ShotListQuery, page: { limit: number; 
 
 /**
  * Shots of the team, newest first, with the results summary but without time series or marks
- * (small rows); one page when `page` is given, else all (a player's progress needs every shot).
+ * (small rows), all of them (a player's progress needs every shot). The Shots page reads one
+ * page through list-page.ts.
  */
-export async function listShots(a: Actor, f: ShotListQuery, page?: { limit: number; offset: number }) {
-  const where = page ? inArray(shot.id, pageIdsQuery(a, f, page)) : listWhere(a, f);
-  // A page's rows also carry the list's total (an uncorrelated subquery, counted once) and each
-  // shot's shared-with ids: one round trip instead of three (decision 178).
-  const pageExtra = page ? { total: sql<number>`(${countQuery(a, f)})`, shareIds: shareIdsJson } : {};
-  const rows = await joined({ ...withEverything, results: sql<null>`null`, marks: sql<null>`null`, stickTestInForce: sql<null>`null`, clipFrameTimes: sql<null>`null`, ...pageExtra })
-    .where(where)
+export async function listShots(a: Actor, f: ShotListQuery) {
+  const rows = await joined({ ...withEverything, results: sql<null>`null`, marks: sql<null>`null`, stickTestInForce: sql<null>`null`, clipFrameTimes: sql<null>`null` })
+    .where(listWhere(a, f))
     .orderBy(...newestFirst);
-  return rows.map(({ results: _r, marks: _m, stickTestInForce: _t, clipFrameTimes: _f, ...r }) => {
-    const { total, shareIds, ...row } = r as typeof r & { total?: number; shareIds?: string };
-    return { ...typed(row), summary: summaryResults(row.summary), ...(page ? { total: total!, shareIds: JSON.parse(shareIds!) as string[] } : {}) };
-  });
-}
-const shareIdsJson = sql<string>`(select coalesce(json_agg(s.user_id), '[]')::text from ${shotShare} s where s.shot_id = ${shot.id} and s.team_id = ${shot.teamId})`;
-const countQuery = (a: Actor, f: ShotListQuery) => db().select({ n: sql<number>`count(*)::int` }).from(shot).where(listWhere(a, f));
-
-/** How many shots the same filters find, for the pager. */
-export async function countShots(a: Actor, f: ShotListQuery) {
-  const [{ n }] = await countQuery(a, f);
-  return n;
-}
-
-/**
- * The distinct values of a shot column (player, stick) among the shots the actor may see. Staff
- * see the whole team: a skip scan hops from one value to the next through the (team, column …)
- * index, one probe per value, instead of reading every shot of the team ("loose index scan",
- * PostgreSQL wiki). Anyone else sees their own and shared shots, few enough to read directly.
- */
-function distinctVisible(a: Actor, col: typeof shot.playerId | typeof shot.stickId): SQL {
-  const where = listWhere(a, {});
-  if (!isStaff(a)) return sql`(${db().selectDistinct({ id: col }).from(shot).where(and(where, isNotNull(col)))})`;
-  return sql`(with recursive v(id) as (
-    (select ${col} from ${shot} where ${where} and ${col} is not null order by ${col} limit 1)
-    union all
-    select (select ${col} from ${shot} where ${where} and ${col} > v.id order by ${col} limit 1) from v where v.id is not null
-  ) select id from v where id is not null)`;
-}
-
-/** The players and sticks among the shots one may see, for the list's filters. */
-export async function listFilterChoices(a: Actor) {
-  const [players, sticks] = await Promise.all([
-    db().select({ id: user.id, name: user.name }).from(user).where(inArray(user.id, distinctVisible(a, shot.playerId))),
-    db().select({ id: stick.id, label: stick.label }).from(stick).where(inArray(stick.id, distinctVisible(a, shot.stickId))),
-  ]);
-  return {
-    players: players.sort((x, y) => x.name.localeCompare(y.name)),
-    sticks: sticks.sort((x, y) => x.label.localeCompare(y.label)),
-  };
+  return rows.map(({ results: _r, marks: _m, stickTestInForce: _t, clipFrameTimes: _f, ...r }) => ({ ...typed(r), summary: summaryResults(r.summary) }));
 }
 export type ListRow = Awaited<ReturnType<typeof listShots>>[number];
 

@@ -75,6 +75,9 @@ export function shotVisibleWhere(a: Actor): SQL {
   return conditions.length ? and(team, or(...conditions))! : and(team, sql`false`)!;
 }
 
+/** The rule gives this viewer every shot of their team (staff): lists may then count the team's tally. */
+export const seesWholeTeam = (a: Actor): boolean => grounds.some((g) => g.where(a) === true);
+
 /** The pure check for one shot already read. */
 export function canSeeShot(a: Actor, s: ShotAccess): boolean {
   return s.teamId === a.teamId && grounds.some((g) => g.check(a, s));
