@@ -17,9 +17,16 @@ const MAX_SHIFT = 2;
 export function refinePlacement(frame: GrayFrame, tpl: GrayFrame, ox: number, oy: number, mask?: GrayFrame | null): { x: number; y: number } | null {
   const { width: tw, height: th, data: t } = tpl;
   // Interior template pixels (gradients need both neighbours) that the mask keeps.
-  const use: number[] = [];
-  for (let j = 1; j < th - 1; j++) for (let i = 1; i < tw - 1; i++) if (!mask || mask.data[j * tw + i]) use.push(j * tw + i);
-  const n = use.length;
+  const use = new Int32Array(Math.max(0, (tw - 2) * (th - 2)));
+  // …and where each sits in the frame, from the placement's top-left pixel.
+  const inFrame = new Int32Array(use.length);
+  let n = 0;
+  for (let j = 1; j < th - 1; j++)
+    for (let i = 1; i < tw - 1; i++)
+      if (!mask || mask.data[j * tw + i]) {
+        use[n] = j * tw + i;
+        inFrame[n++] = j * frame.width + i;
+      }
   if (n < 16) return null;
   // Normalised to zero mean, unit spread.
   const tn = new Float64Array(n);
@@ -45,7 +52,7 @@ export function refinePlacement(frame: GrayFrame, tpl: GrayFrame, ox: number, oy
   const sample = new Float64Array(n);
   let px = ox, py = oy;
   for (let it = 0; it < MAX_ITERATIONS; it++) {
-    if (!sampleInto(frame, px, py, tw, th, use, sample)) return null;
+    if (!sampleInto(frame, px, py, tw, th, inFrame, sample)) return null;
     if (normalise(sample) === 0) return null;
     let bx = 0, by = 0;
     for (let q = 0; q < n; q++) {
@@ -77,17 +84,17 @@ function normalise(v: Float64Array): number {
   return spread;
 }
 
-/** Bilinear samples of the frame under the template pixels `use` (indexes j·tw + i) at top-left (px, py); false if outside. */
-function sampleInto(f: GrayFrame, px: number, py: number, tw: number, th: number, use: number[], out: Float64Array): boolean {
+/** Bilinear samples of the frame under the template pixels at `inFrame` (j·frame width + i) placed at top-left (px, py); false if outside. */
+function sampleInto(f: GrayFrame, px: number, py: number, tw: number, th: number, inFrame: Int32Array, out: Float64Array): boolean {
   // Template pixel (i, j) has its centre at (px + i + 0.5, py + j + 0.5): frame pixel index px + i.
   const x0 = Math.floor(px), y0 = Math.floor(py);
   const fx = px - x0, fy = py - y0;
   if (x0 < -1 || y0 < -1 || x0 + tw > f.width || y0 + th > f.height) return false;
   const w = f.width, d = f.data;
   const w00 = (1 - fx) * (1 - fy), w10 = fx * (1 - fy), w01 = (1 - fx) * fy, w11 = fx * fy;
-  for (let k = 0; k < use.length; k++) {
-    const j = (use[k] / tw) | 0;
-    const at = (y0 + j) * w + x0 + (use[k] - j * tw);
+  const origin = y0 * w + x0;
+  for (let k = 0; k < out.length; k++) {
+    const at = origin + inFrame[k];
     out[k] = w00 * d[at] + w10 * d[at + 1] + w01 * d[at + w] + w11 * d[at + w + 1];
   }
   return true;
