@@ -10,7 +10,7 @@ import { leanJsonAnswers } from "./http/json-answer";
 import { refuseControlCharactersInUrl } from "./http/request-guards";
 import { asProblemResponse } from "./http/better-auth-errors";
 import { authRouteGuard } from "./auth/http-routes";
-import { apiRouter } from "./routes";
+import { apiRouter, hotReadsRouter } from "./routes";
 import { mountRawRoutes } from "./raw-routes";
 import { applyRateLimits, signInFailureLimit } from "./security/rate-limits";
 import { sameOriginWrites } from "./security/same-origin";
@@ -40,6 +40,9 @@ export function createApp() {
   applyRateLimits(app, e.RATE_LIMIT);
   // A club whose payment is overdue past its grace: its teams take no writes (reads always work).
   app.use(refuseWritesWhenUnpaid());
+  // The hot reads, once every check above (which applies to all of /api) has passed; what follows
+  // is for the auth library, uploads and request bodies, none of which they use (decision 195).
+  app.use("/api", hotReadsRouter());
 
   // better-auth: only the routes the product uses, with a small checked body (mounted before
   // express.json()); its error answers rewritten as problem+json.

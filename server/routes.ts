@@ -4,11 +4,11 @@ import { meRouter } from "./me/routes";
 import { invitationRouter, rosterRouter } from "./roster/routes";
 import { auditRouter } from "./audit/routes";
 import { healthRouter } from "./health/routes";
-import { clipsRouter } from "./clips/routes";
+import { clipListRoute, clipsRouter } from "./clips/routes";
 import { shotsRouter } from "./shots/routes";
 import { trackingRouter } from "./tracking/routes";
 import { sticksRouter } from "./sticks/routes";
-import { readoutRouter } from "./readout/routes";
+import { readoutRouter, shotReadoutRoute } from "./readout/routes";
 import { billingRouter } from "./billing/routes";
 import { signupRouter } from "./signup/routes";
 import { homeRouter } from "./home/routes";
@@ -35,4 +35,17 @@ export function apiRouter() {
   team.use(homeRouter);
   api.use("/teams/:teamId", team);
   return api;
+}
+
+/**
+ * The two reads every page load repeats most (the clips table, one shot's readout), answered
+ * before Express walks the other routers, mounted at /api in app.ts after the checks every API
+ * request passes. Each checks the caller's membership in its own statement (decision 195) rather
+ * than through requireTeamMember; every other team route goes through apiRouter().
+ */
+export function hotReadsRouter() {
+  const hot = Router();
+  hot.get("/teams/:teamId/clips", clipListRoute);
+  hot.get("/teams/:teamId/readout/shots/:shotId", shotReadoutRoute);
+  return hot;
 }

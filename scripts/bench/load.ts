@@ -4,7 +4,7 @@
 //  2. Bare Express, the app's /api/health, the clip list, one shot's results and the Shots list at
 //     200 requests/s against a team of 50,000 shots (5,000 clips, 40 extra players, seeded in a
 //     throwaway database), with one web process and with two (WEB_PROCESSES=2): p50/p95/p99 and
-//     the web processes' CPU per request beside bare Express's; goal p95 < 50 ms.
+//     the web processes' CPU per request beside bare Express's (and the PostgreSQL backends' beside it); goal p95 < 50 ms.
 //  3. /api/health while 10 PDF reports render (they run in worker threads): goal p99 < 100 ms.
 //     Raw baseline in the same run: the same repository query straight to PostgreSQL, one at a
 //     time, without HTTP or sign-in; the ratio says what the API adds.
@@ -188,7 +188,7 @@ try {
     {
       name: "clip list as the Clips page opens it (newest first, pages 1-4)", rate: RATE, seconds: SECONDS,
       http: (i) => `${team}/clips?page=${(i % 4) + 1}&pageSize=25`,
-      raw: (i) => clipRepo.listClips(ids.teamId, {}, "created", "desc", (i % 4) + 1, 25),
+      raw: (i) => clipRepo.clipPageText(coach, {}, "created", "desc", (i % 4) + 1, 25),
     },
     {
       name: "shot results (one shot's readout, random shot)", rate: RATE, seconds: SECONDS,
@@ -209,7 +209,7 @@ try {
     {
       name: "clip list, any page of 200 and any sort", rate: 20, seconds: 5,
       http: (i) => `${team}/clips?page=${(i * 7) % 200 + 1}&pageSize=25&sort=${sorts[i % 4]}`,
-      raw: (i) => clipRepo.listClips(ids.teamId, {}, sorts[i % 4], "desc", (i * 7) % 200 + 1, 25),
+      raw: (i) => clipRepo.clipPageText(coach, {}, sorts[i % 4], "desc", (i * 7) % 200 + 1, 25),
     },
     {
       name: `one player's Shots list, any page of 50 (${Math.round(seeded.shots / seeded.players.length)} shots)`, rate: 20, seconds: 5,
@@ -228,6 +228,18 @@ try {
       return -1;
     }
   };
+  /**
+   * The PostgreSQL backends serving this database (the web processes' pooled connections) and
+   * their CPU so far: the statements' share of a request, which JSON built by PostgreSQL moves
+   * there from the web process (decision 195). Backends that start meanwhile count from zero.
+   */
+  const dbCpu = async () => {
+    const c = new pg.Client({ connectionString: adminUrl });
+    await c.connect();
+    const pids = (await c.query<{ pid: number }>(`select pid from pg_stat_activity where datname = $1`, [dbName]).finally(() => c.end())).rows.map((r) => r.pid);
+    return new Map(pids.map((pid) => [pid, cpuMsOf([pid])] as const).filter(([, ms]) => ms >= 0));
+  };
+  const dbCpuSince = (before: Map<number, number>, after: Map<number, number>) => [...after].reduce((sum, [pid, ms]) => sum + ms - (before.get(pid) ?? 0), 0);
   /** Requests the client gave up on keep running on the server: wait until it is idle again. */
   const settle = async () => {
     for (let calm = 0, i = 0; calm < 3 && i < 300; i++) {
@@ -250,7 +262,7 @@ try {
   bare.kill();
   console.log(`  ${fmt(bareFig)}; CPU ${bareCpu.toFixed(2)} ms a request`);
 
-  type Row = { name: string; procs: number; api: Figures; raw?: Figures; rate: number; cpu: number };
+  type Row = { name: string; procs: number; api: Figures; raw?: Figures; rate: number; cpu: number; dbMs: number };
   const table: Row[] = [];
   const rawOf = new Map<string, Figures>();
   async function run(s: Scenario, procs: number) {
@@ -260,14 +272,16 @@ try {
     if (s.raw && !rawOf.has(s.name)) rawOf.set(s.name, await sequential(Math.min(300, s.rate * s.seconds), s.raw));
     const raw = rawOf.get(s.name);
     const pids = webPids();
+    const db0 = await dbCpu();
     const cpu0 = cpuMsOf(pids);
     const api = await openLoop({ rate: s.rate, seconds: s.seconds, timeoutMs: 30_000, request: (i, signal) => get(s.http(i))(signal) });
     const cpu = cpu0 >= 0 ? (cpuMsOf(pids) - cpu0) / api.n : -1;
+    const dbMs = dbCpuSince(db0, await dbCpu()) / api.n;
     console.log(`  API  ${fmt(api)}`);
-    if (cpu >= 0) console.log(`  web process${procs > 1 ? "es" : ""} CPU ${cpu.toFixed(2)} ms a request (×${(cpu / bareCpu).toFixed(1)} bare Express; ${((cpu * s.rate) / 10).toFixed(0)} % of one core at ${s.rate}/s)`);
+    if (cpu >= 0) console.log(`  web process${procs > 1 ? "es" : ""} CPU ${cpu.toFixed(2)} ms a request (×${(cpu / bareCpu).toFixed(1)} bare Express; ${((cpu * s.rate) / 10).toFixed(0)} % of one core at ${s.rate}/s); PostgreSQL ${dbMs.toFixed(2)} ms a request`);
     if (raw) console.log(`  SQL alone  ${fmt(raw)}   (the same repository queries, one at a time, no HTTP)`);
     console.log(`  goal p95 < 50 ms: ${api.p95 < 50 ? "met" : "NOT met"}`);
-    table.push({ name: s.name, procs, api, raw, rate: s.rate, cpu });
+    table.push({ name: s.name, procs, api, raw, rate: s.rate, cpu, dbMs });
   }
   for (const s of CPU_ONLY ? busy.slice(1) : busy) await run(s, 1);
   if (CPU_ONLY) {
@@ -309,7 +323,7 @@ try {
   console.log(`  uploads: ${matching}/${UPLOADS} checksums match`);
   console.log(`  bare Express @ ${RATE}/s: p50 ${bareFig.p50.toFixed(1)} / p95 ${bareFig.p95.toFixed(1)} / p99 ${bareFig.p99.toFixed(1)} ms, CPU ${bareCpu.toFixed(2)} ms a request`);
   for (const t of table)
-    console.log(`  ${t.name} @ ${t.rate}/s, ${t.procs} process${t.procs > 1 ? "es" : ""}: p50 ${t.api.p50.toFixed(1)} / p95 ${t.api.p95.toFixed(1)} / p99 ${t.api.p99.toFixed(1)} ms; CPU ${t.cpu.toFixed(2)} ms a request (×${(t.cpu / bareCpu).toFixed(1)} bare)${t.raw ? `; SQL alone p50 ${t.raw.p50.toFixed(1)} / p95 ${t.raw.p95.toFixed(1)} ms` : ""}${t.api.errors ? `; ${t.api.errors} errors (${Object.entries(t.api.errorKinds).map(([k, n]) => `${n}× ${k}`).join(", ")})` : ""}`);
+    console.log(`  ${t.name} @ ${t.rate}/s, ${t.procs} process${t.procs > 1 ? "es" : ""}: p50 ${t.api.p50.toFixed(1)} / p95 ${t.api.p95.toFixed(1)} / p99 ${t.api.p99.toFixed(1)} ms; CPU ${t.cpu.toFixed(2)} ms a request (×${(t.cpu / bareCpu).toFixed(1)} bare), PostgreSQL ${t.dbMs.toFixed(2)} ms${t.raw ? `; SQL alone p50 ${t.raw.p50.toFixed(1)} / p95 ${t.raw.p95.toFixed(1)} ms` : ""}${t.api.errors ? `; ${t.api.errors} errors (${Object.entries(t.api.errorKinds).map(([k, n]) => `${n}× ${k}`).join(", ")})` : ""}`);
   console.log(`  /api/health while 10 PDFs render: p50 ${underPdf.p50.toFixed(1)} / p95 ${underPdf.p95.toFixed(1)} / p99 ${underPdf.p99.toFixed(1)} ms (${pdfs} reports)`);
   console.log(`  total ${((Date.now() - t0) / 1000).toFixed(0)} s; load average ${load()} at the end (${os.cpus().length} cores)`);
   client.close();

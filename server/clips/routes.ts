@@ -1,7 +1,8 @@
-import { Router, type Request, type Response } from "express";
+import { Router, type Request, type RequestHandler, type Response } from "express";
 import { z } from "zod";
-import { actorOf } from "../auth/context";
-import { HttpError } from "../http/problem";
+import { actorOf, readAsTeamMember } from "../auth/context";
+import { sendJsonText } from "../http/json-answer";
+import { HttpError, zodToHttp } from "../http/problem";
 import { parse } from "../http/validate";
 import { streamPolled } from "../http/polled-stream";
 import { clipKeys } from "../storage";
@@ -15,11 +16,25 @@ import { sendImage, sendOriginal, videoMime } from "./serve";
 /** Mounted at /api/teams/:teamId (after requireTeamMember). Uploads themselves go to /api/uploads (tus). */
 export const clipsRouter = Router({ mergeParams: true });
 
+/**
+ * GET /api/teams/:teamId/clips, the clips table: a hot read mounted ahead of the team's routers
+ * (server/routes.ts), whose one statement checks membership and builds the page (decision 195).
+ * A bad query is refused only once the caller is known to be a member, as on every team route.
+ */
+export const clipListRoute: RequestHandler = async (req, res) => {
+  const q = ClipListQuerySchema.safeParse(req.query);
+  const refused = (err: z.ZodError) => ({
+    answer: (): string => {
+      throw zodToHttp(err);
+    },
+  });
+  sendJsonText(res, await readAsTeamMember(req, async (a) => (q.success ? svc.listText(a, q.data) : refused(q.error))));
+};
+
 const FrameNumber = z.coerce.number({ message: "Frame numbers start at 1" }).int("Frame numbers are whole numbers").min(1, "Frame numbers start at 1");
 const id = (req: Request) => String(req.params.clipId);
 
 clipsRouter.get("/clip-options", async (req, res) => void res.json(await svc.options(actorOf(req))));
-clipsRouter.get("/clips", async (req, res) => void res.json(await svc.list(actorOf(req), parse(ClipListQuerySchema, req.query))));
 clipsRouter.get("/clips/:clipId", async (req, res) => void res.json(await svc.get(actorOf(req), id(req))));
 clipsRouter.patch("/clips/:clipId", async (req, res) => void res.json(await svc.patch(actorOf(req), id(req), parse(ClipPatchSchema, req.body))));
 clipsRouter.get("/clips/:clipId/deletion", async (req, res) => void res.json(await svc.deletionCounts(actorOf(req), id(req))));

@@ -5,11 +5,12 @@ import { log } from "../log";
 import { forbidden, HttpError, notFound } from "../http/problem";
 import { cancelExtract, sendExtract } from "../jobs/clip-queue";
 import { clipKeys } from "../storage";
-import type { ClipDeletionCounts, ClipDetail, ClipListQuerySchema, ClipOptions, ClipPage, ClipPatch, ClipProgress } from "../../shared/schemas/clips";
+import type { ClipDeletionCounts, ClipDetail, ClipListQuerySchema, ClipOptions, ClipPatch, ClipProgress } from "../../shared/schemas/clips";
 import type { z } from "zod";
 import { storage } from "./deps";
 import { checkMetaRefs } from "./ingest";
-import { toDetail, toProgress, toSummary } from "./present";
+import { toDetail, toProgress } from "./present";
+import type { ReadWithRole } from "../auth/context";
 import * as memberRepo from "../entities/member/repository";
 import { countClipShotsOf } from "../entities/shot/players";
 import { shotsAndMarksOfClip } from "../entities/shot/repository";
@@ -44,12 +45,18 @@ export async function options(a: Actor): Promise<ClipOptions> {
   return { sessions, players, sticks: sticks.map(({ stick: s }) => ({ id: s.id, label: s.label, ownerId: s.ownerId })) };
 }
 
-export async function list(a: Actor, q: z.output<typeof ClipListQuerySchema>): Promise<ClipPage> {
+/**
+ * The clips table's page as JSON text (ClipPage), with the stored role its statement read for the
+ * caller (decision 195): PostgreSQL builds the rows' JSON, so this process neither parses nor
+ * serialises them.
+ */
+export async function listText(a: Actor, q: z.output<typeof ClipListQuerySchema>): Promise<ReadWithRole<string>> {
+  const page = (items: string, total: number) => `{"items":${items},"total":${total},"page":${q.page},"pageSize":${q.pageSize}}`;
   // Players see only the clips of their own shots.
   const playerId = policy.listClips(a) ? q.playerId : a.userId;
-  if (!policy.listClips(a) && q.playerId && q.playerId !== a.userId) return { items: [], total: 0, page: q.page, pageSize: q.pageSize };
-  const { rows, total } = await repo.listClips(a.teamId, { playerId, sessionId: q.sessionId, shotType: q.shotType, status: q.status }, q.sort, q.dir, q.page, q.pageSize);
-  return { items: rows.map(toSummary), total, page: q.page, pageSize: q.pageSize };
+  if (!policy.listClips(a) && q.playerId && q.playerId !== a.userId) return { answer: () => page("[]", 0) };
+  const r = await repo.clipPageText(a, { playerId, sessionId: q.sessionId, shotType: q.shotType, status: q.status }, q.sort, q.dir, q.page, q.pageSize);
+  return { storedRole: r.role, answer: () => page(r.items ?? "[]", r.total) };
 }
 
 export const get = async (a: Actor, id: string): Promise<ClipDetail> => toDetail(await visibleClip(a, id));

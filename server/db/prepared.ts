@@ -2,6 +2,9 @@
 // Drizzle then builds the SQL text once per process instead of on every call, and PostgreSQL
 // parses and plans it once per pooled connection: about 0.2 ms of CPU saved per query, more for
 // wide selects (scripts/bench/load.ts).
+import { fillPlaceholders, type SQL } from "drizzle-orm";
+import { PgDialect } from "drizzle-orm/pg-core";
+import { db } from "./client";
 
 /** One prepared statement per key, built on first use. Keys must be few and fixed (a filter combination, a sort). */
 export function preparedBy<K extends string, P>(name: string, build: (name: string, key: K) => P): (key: K) => P {
@@ -17,4 +20,19 @@ export function preparedBy<K extends string, P>(name: string, build: (name: stri
 export function prepared<P>(name: string, build: (name: string) => P): () => P {
   const get = preparedBy<"", P>(name, (n) => build(n));
   return () => get("");
+}
+
+/**
+ * A statement built with Drizzle's `sql` (placeholders included) and run through the pool as a
+ * named prepared statement, its rows as pg parses them: no Drizzle row mapping. For hot reads whose
+ * statement answers one row of a few values, JSON text built by PostgreSQL among them
+ * (docs/decisions/195-hot-reads-in-one-statement.md).
+ */
+export function rawPrepared<R extends Record<string, unknown>>(name: string, build: () => SQL): (values: Record<string, unknown>) => Promise<R[]> {
+  let made: { text: string; params: unknown[] } | undefined;
+  return async (values) => {
+    made ??= (({ sql: text, params }) => ({ text, params }))(new PgDialect().sqlToQuery(build()));
+    const r = await db().pool.query<R>({ name, text: made.text, values: fillPlaceholders(made.params, values) });
+    return r.rows;
+  };
 }

@@ -1,5 +1,5 @@
-import { Router, type Request, type Response } from "express";
-import { actorOf } from "../auth/context";
+import { Router, type Request, type RequestHandler, type Response } from "express";
+import { actorOf, readAsTeamMember } from "../auth/context";
 import { parse } from "../http/validate";
 import { sendJsonText } from "../http/json-answer";
 import { CompareQuery, ExportQuery, ProgressQuery, PublishShotBody, ReviewSettings, ShareShotBody, ShotListPageQuery } from "../../shared/schemas/readout";
@@ -13,6 +13,16 @@ export const readoutRouter = Router({ mergeParams: true });
 
 const shotId = (req: Request) => String(req.params.shotId);
 
+/**
+ * GET /api/teams/:teamId/readout/shots/:shotId, one shot's readout: a hot read mounted ahead of the
+ * team's routers (server/routes.ts), whose one statement checks membership and reads the shot
+ * (decision 195).
+ */
+export const shotReadoutRoute: RequestHandler = async (req, res) => {
+  const { text, tag } = await readAsTeamMember(req, (a) => svc.readoutJson(a, shotId(req)));
+  sendJsonText(res, text, tag);
+};
+
 function sendFile(res: Response, f: FileAnswer) {
   res.setHeader("Content-Type", f.contentType);
   res.setHeader("Content-Disposition", `attachment; filename="${f.filename}"`);
@@ -22,10 +32,6 @@ function sendFile(res: Response, f: FileAnswer) {
 }
 
 readoutRouter.get("/readout/shots", async (req, res) => void res.json(await svc.listShots(actorOf(req), parse(ShotListPageQuery, req.query))));
-readoutRouter.get("/readout/shots/:shotId", async (req, res) => {
-  const { text, tag } = await svc.readoutJson(actorOf(req), shotId(req));
-  sendJsonText(res, text, tag);
-});
 readoutRouter.get("/readout/compare", async (req, res) => void res.json(await svc.compare(actorOf(req), parse(CompareQuery, req.query))));
 readoutRouter.get("/readout/players", async (req, res) => void res.json(await svc.players(actorOf(req))));
 readoutRouter.get("/readout/progress", async (req, res) => void res.json(await svc.progress(actorOf(req), parse(ProgressQuery, req.query))));

@@ -20,6 +20,7 @@ import * as repo from "../entities/shot/readout";
 import { shotListPage } from "../entities/shot/list-page";
 import { teamSettingsOf } from "../entities/team/repository";
 import { latestAuditEntry } from "../entities/audit/repository";
+import type { ReadWithRole } from "../auth/context";
 
 
 const shotNotFound = (which = "That shot") =>
@@ -31,10 +32,16 @@ function shareRows(rows: Awaited<ReturnType<typeof repo.sharesOf>>): ShareRow[] 
   return rows.map((r) => ({ userId: r.userId, name: r.name, role: r.role === null ? "former member" : roleForList(r.role), sharedAt: r.sharedAt.toISOString(), sharedByName: r.sharedByName }));
 }
 
+type FoundShot = repo.ReadoutRow & { resultsText?: string | null; resultsHash?: string; shares?: repo.ShareDbRow[] };
+
 /** A shot the actor may see with its shares, else 404 (410 for staff when the audit log says it was deleted). */
-export async function visibleShot(a: Actor, shotId: string, which = "That shot", o: { marks?: "always"; resultsAsText?: true } = {}) {
+export async function visibleShot(a: Actor, shotId: string, which = "That shot", o: { marks?: "always" } = {}) {
   if (!isUuid(shotId)) throw shotNotFound(which);
-  const row: (repo.ReadoutRow & { resultsText?: string | null; resultsHash?: string; shares?: repo.ShareDbRow[] }) | null = o.resultsAsText ? await repo.shotTextById(a.teamId, shotId) : await repo.shotById(a.teamId, shotId, { marks: o.marks });
+  return seenAs(a, await repo.shotById(a.teamId, shotId, { marks: o.marks }), shotId, which);
+}
+
+/** The found row (or none) as the actor may see it: the row with its shares, or the 404 / 410. */
+async function seenAs(a: Actor, row: FoundShot | null, shotId: string, which: string) {
   if (!row) {
     const gone = isStaff(a) ? await latestAuditEntry(a.teamId, "shot.deleted", shotId) : null;
     if (gone)
@@ -67,15 +74,22 @@ export async function getReadout(a: Actor, shotId: string): Promise<ShotReadout>
 /**
  * The same readout as JSON text, with the stored results put in as PostgreSQL holds them: they
  * are most of the answer (tens of kB), and parsing and serialising them again was the route's
- * largest CPU cost (decision 175).
+ * largest CPU cost (decision 175). Its statement also reads the caller's stored role, in place of
+ * a membership query before it (decision 195).
  */
-export async function readoutJson(a: Actor, shotId: string): Promise<{ text: string; tag: string }> {
-  const v = await visibleShot(a, shotId, "That shot", { resultsAsText: true });
-  const { results: _none, ...rest } = await toReadout(a, v);
-  const head = JSON.stringify(rest).slice(0, -1);
-  const text = `${head},"results":${v.row.resultsText ?? "null"}}`;
-  // Its validator from the head and the results' hash, which the shape check already took.
-  return { text, tag: weakTagOf(text.length, head, v.row.resultsHash ?? "") };
+export async function readoutJson(a: Actor, shotId: string): Promise<ReadWithRole<{ text: string; tag: string }>> {
+  const row = isUuid(shotId) ? await repo.shotTextById(a, shotId) : null;
+  return {
+    storedRole: row?.viewerRole,
+    answer: async () => {
+      const v = await seenAs(a, row, shotId, "That shot");
+      const { results: _none, ...rest } = await toReadout(a, v);
+      const head = JSON.stringify(rest).slice(0, -1);
+      const text = `${head},"results":${v.row.resultsText ?? "null"}}`;
+      // Its validator from the head and the results' hash, which the shape check already took.
+      return { text, tag: weakTagOf(text.length, head, v.row.resultsHash ?? "") };
+    },
+  };
 }
 
 export async function listShots(a: Actor, q: z.output<typeof ShotListPageQuery>): Promise<ShotListResponse> {

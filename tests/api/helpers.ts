@@ -1,5 +1,6 @@
 // Real HTTP against the real app on an ephemeral loopback port, with a cookie jar per person.
 import type { AddressInfo } from "node:net";
+import { afterAll, beforeAll } from "vitest";
 import type { Server } from "node:http";
 import { createApp } from "../../server/app";
 import { createWebServer } from "../../server/http/web-server";
@@ -77,6 +78,18 @@ export async function seedWorld(): Promise<DemoIds & { outsiderEmail: string; ot
   await db().insert(organization).values({ id: otherTeamId, name: "Riverside Foxes", slug: "riverside-foxes", createdAt: new Date() });
   await db().insert(member).values({ id: crypto.randomUUID(), organizationId: otherTeamId, userId, role: "admin", createdAt: new Date() });
   return { ...ids, outsiderEmail, otherTeamId };
+}
+
+/** An API test file's usual setting: the in-process server and the demo world, with one person signed in. */
+export function useWorld(email: string = EMAILS.admin) {
+  const w = {} as { srv: TestServer; world: Awaited<ReturnType<typeof seedWorld>>; signedIn: Client };
+  beforeAll(async () => {
+    w.srv = await startServer();
+    w.world = await seedWorld();
+    w.signedIn = await new Client(w.srv.url).signIn(email);
+  });
+  afterAll(() => w.srv.close());
+  return w;
 }
 
 /** Messages the dev mail sink (maildev) received for an address, newest last. */

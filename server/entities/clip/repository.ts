@@ -1,8 +1,10 @@
 // The only Drizzle code of clip ingest.
-import { and, asc, desc, eq, getTableColumns, inArray, isNotNull, lt, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNotNull, lt, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import { db } from "../../db/client";
-import { preparedBy } from "../../db/prepared";
+import { preparedBy, rawPrepared } from "../../db/prepared";
+import { viewerStoredRole } from "../member/repository";
+import { clipSummaryJson } from "./summary-json";
 import { clip, shot, stick, trainingSession, user } from "../../db/schema";
 import type { ClipSort, ShotType } from "../../../shared/schemas/clips";
 import type { ClipCalibration } from "../../../shared/schemas/shots";
@@ -17,31 +19,27 @@ export type NewClipRow = typeof clip.$inferInsert;
 
 const uploader = alias(user, "uploader");
 
-// The clips table shows none of the heavy columns (the probe, one timestamp per frame, the
-// calibration): leaving them out of the list keeps a page of 25 rows small to read and parse.
-const { probe: _probe, frameTimes: _frameTimes, calibration: _calibration, ...summaryColumns } = getTableColumns(clip);
-
-/** A clip with the names the API shows next to it; the list reads only the summary columns. */
-const joined = <C extends typeof clip | typeof summaryColumns, E extends Record<string, SQL<unknown>> = Record<never, never>>(columns: C, extra?: E) =>
+/** A clip with the names the API shows next to it. */
+const joined = () =>
   db()
     .select({
-      clip: columns,
+      clip,
       playerName: user.name,
       uploaderName: uploader.name,
       session: { id: trainingSession.id, date: trainingSession.date, venue: trainingSession.venue, drill: trainingSession.drill },
       stickLabel: stick.label,
-      ...(extra as E),
     })
     .from(clip)
     .leftJoin(user, eq(user.id, clip.playerId))
     .leftJoin(uploader, eq(uploader.id, clip.uploadedBy))
     .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
     .leftJoin(stick, eq(stick.id, clip.stickId));
-export type JoinedClip = Awaited<ReturnType<typeof joined<typeof clip>>>[number];
-export type JoinedClipSummary = Awaited<ReturnType<typeof joined<typeof summaryColumns>>>[number];
+export type JoinedClip = Awaited<ReturnType<typeof joined>>[number];
+/** What the clips table shows of a clip: none of the heavy columns (the probe, one timestamp per frame, the calibration). */
+export type JoinedClipSummary = Omit<JoinedClip, "clip"> & { clip: Omit<ClipRow, "probe" | "frameTimes" | "calibration"> };
 
 export async function clipInTeam(teamId: string, id: string): Promise<JoinedClip | null> {
-  const [row] = await joined(clip).where(and(eq(clip.teamId, teamId), eq(clip.id, id)));
+  const [row] = await joined().where(and(eq(clip.teamId, teamId), eq(clip.id, id)));
   return row ?? null;
 }
 
@@ -72,11 +70,15 @@ const filterKeys = ["playerId", "sessionId", "shotType", "status"] as const;
 const filterColumn = { playerId: clip.playerId, sessionId: clip.sessionId, shotType: clip.shotType, status: clip.status } as const;
 type PageKey = `${ClipSort}:${"asc" | "desc"}:${string}`;
 
-// One prepared statement pair (page rows, total) per sort, direction and set of filters used.
+// One statement per sort, direction and set of filters used: the viewer's stored role, the total
+// and the page as the clips table shows it, built by PostgreSQL as JSON text, in one row and one
+// round trip (decisions 178, 195). The rows are read only when the viewer's stored role is the one
+// the caller assumed (the filters depend on it); otherwise the caller learns the role and asks again.
 const pageQueries = preparedBy<PageKey, ReturnType<typeof buildPage>>("clip_page", (name, key) => buildPage(name, key));
 function buildPage(name: string, key: PageKey) {
   const [sort, dir, used] = key.split(":") as [ClipSort, "asc" | "desc", string];
-  const where = and(eq(clip.teamId, sql.placeholder("teamId")), ...filterKeys.filter((k) => used.split(",").includes(k)).map((k) => eq(filterColumn[k], sql.placeholder(k))));
+  const asAssumed = sql`${viewerStoredRole} = ${sql.placeholder("assumedRole")}`;
+  const where = and(eq(clip.teamId, sql.placeholder("teamId")), ...filterKeys.filter((k) => used.split(",").includes(k)).map((k) => eq(filterColumn[k], sql.placeholder(k))), asAssumed);
   const order = dir === "asc" ? asc : desc;
   const orderBy = [order(sortColumn[sort]), desc(clip.createdAt), asc(clip.id)];
   // The page's ids first, sorting only the keys (with the one join a sort by name or session
@@ -86,22 +88,28 @@ function buildPage(name: string, key: PageKey) {
   const keyed = sort === "player" ? keys.leftJoin(user, eq(user.id, clip.playerId)) : sort === "session" ? keys.leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId)) : keys;
   const ids = keyed.where(where).orderBy(...orderBy).limit(sql.placeholder("limit")).offset(sql.placeholder("offset"));
   const total = db().select({ n: sql<number>`count(*)::int` }).from(clip).where(where);
-  return {
-    // The total rides along on every row (an uncorrelated subquery, counted once): one round trip
-    // to the database instead of two, which is most of a page's CPU (decision 178).
-    rows: joined(summaryColumns, { total: sql<number>`(${total})` }).where(inArray(clip.id, ids)).orderBy(...orderBy).prepare(`${name}:rows`),
-    total: total.prepare(`${name}:total`),
-  };
+  const items = db()
+    .select({ items: sql`coalesce(json_agg(${clipSummaryJson(uploader.name)} order by ${sql.join(orderBy, sql`, `)}), '[]')::text` })
+    .from(clip)
+    .leftJoin(user, eq(user.id, clip.playerId))
+    .leftJoin(uploader, eq(uploader.id, clip.uploadedBy))
+    .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
+    .leftJoin(stick, eq(stick.id, clip.stickId))
+    .where(inArray(clip.id, ids));
+  return rawPrepared<{ role: string | null; total: number | null; items: string | null }>(name, () =>
+    sql`select ${viewerStoredRole} as role, (${total}) as total, case when ${asAssumed} then (${items}) end as items`);
 }
 
-export async function listClips(teamId: string, f: ListFilter, sort: ClipSort, dir: "asc" | "desc", page: number, pageSize: number) {
+/**
+ * One page of the team's clips as the clips table shows it: `items` is the JSON text of the
+ * ClipSummary array (null when `viewer.role` is not the viewer's stored role, which comes back as
+ * `role`: null when not a member).
+ */
+export async function clipPageText(viewer: Actor, f: ListFilter, sort: ClipSort, dir: "asc" | "desc", page: number, pageSize: number) {
   const used = filterKeys.filter((k) => f[k]);
-  const q = pageQueries(`${sort}:${dir}:${used.join(",")}`);
-  const params = { teamId, ...Object.fromEntries(used.map((k) => [k, f[k]])), limit: pageSize, offset: (page - 1) * pageSize };
-  const rows = await q.rows.execute(params);
-  // A page past the end has no row to carry the total.
-  const total = rows.length ? rows[0].total : (await q.total.execute(params))[0].n;
-  return { rows, total };
+  const params = { viewerId: viewer.userId, teamId: viewer.teamId, assumedRole: viewer.role, ...Object.fromEntries(used.map((k) => [k, f[k]])), limit: pageSize, offset: (page - 1) * pageSize };
+  const [row] = await pageQueries(`${sort}:${dir}:${used.join(",")}`)(params);
+  return { role: row.role, total: row.total ?? 0, items: row.items };
 }
 
 /** Inserts a clip; null when the team already has a clip with this checksum (unique index). */

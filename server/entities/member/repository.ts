@@ -10,6 +10,13 @@ const roleQuery = prepared("role_in", (name) =>
   db().select({ role: member.role }).from(member).where(and(eq(member.userId, sql.placeholder("userId")), eq(member.organizationId, sql.placeholder("teamId")))).prepare(name),
 );
 
+/**
+ * The stored role of the viewer (placeholder `viewerId`) in the team (placeholder `teamId`), as a
+ * value inside a hot read's own statement, so the membership check and the read are one round
+ * trip (docs/decisions/195-hot-reads-in-one-statement.md). Parse it with parseRole, as roleIn does.
+ */
+export const viewerStoredRole = sql<string | null>`(select ${member.role} from ${member} where ${member.userId} = ${sql.placeholder("viewerId")} and ${member.organizationId} = ${sql.placeholder("teamId")})`;
+
 /** Role of a user in a team, or null when not a member or the stored role is unknown (no access). */
 export async function roleIn(userId: string, teamId: string): Promise<Role | null> {
   const [row] = await roleQuery().execute({ userId, teamId });

@@ -9,6 +9,7 @@ import { benchTestInForce } from "../stick/stiffness";
 import type { Actor } from "../member/role";
 import { newestShotFirst, shotDateSql } from "./date";
 import { shotVisibleWhere } from "./visibility";
+import { viewerStoredRole } from "../member/repository";
 import { ShotResults } from "../../../shared/schemas/shot-results";
 import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../../shared/schemas/shots";
 import type { ShotListQuery } from "../../../shared/schemas/readout";
@@ -106,8 +107,9 @@ const sharesJson = sql<string>`(select coalesce(json_agg(json_build_object('shot
 
 const shotTextQuery = prepared("readout_shot_text", (name) =>
   // (joined() is typed for the readout's columns; the extra `shares` is read back as text below.)
-  joined({ ...withEverything, marks: marksWhenNoResults, results: sql<string | null>`${shotResult.results}::text`, ...{ shares: sharesJson } })
-    .where(and(eq(shot.id, sql.placeholder("shotId")), eq(shot.teamId, sql.placeholder("teamId"))))
+  // The caller's stored role comes along, and a non-member gets no row (decision 195).
+  joined({ ...withEverything, marks: marksWhenNoResults, results: sql<string | null>`${shotResult.results}::text`, ...{ shares: sharesJson, viewerRole: viewerStoredRole } })
+    .where(and(eq(shot.id, sql.placeholder("shotId")), eq(shot.teamId, sql.placeholder("teamId")), isNotNull(viewerStoredRole)))
     .prepare(name),
 );
 // Whether a stored result has the engine's shape, by a hash of its exact text: the same text is
@@ -117,18 +119,19 @@ const shapeChecked = new LRUCache<string, boolean>({ max: 20_000 });
 /**
  * The readout's row with the stored results as the JSON text PostgreSQL holds (the page's
  * largest part, tens of kB), for answering without parsing and re-serialising it (decision 175).
- * `results` is null where the stored value lacks the engine's shape, as in shotById.
+ * `results` is null where the stored value lacks the engine's shape, as in shotById. `viewerRole`
+ * is the viewer's stored role in the team; no row when the viewer is not a member.
  */
-export async function shotTextById(teamId: string, shotId: string) {
-  const [row] = await shotTextQuery().execute({ teamId, shotId });
+export async function shotTextById(viewer: Pick<Actor, "userId" | "teamId">, shotId: string) {
+  const [row] = await shotTextQuery().execute({ teamId: viewer.teamId, shotId, viewerId: viewer.userId });
   if (!row) return null;
   const text = row.results as string | null;
   const key = text === null ? "" : createHash("sha1").update(text).digest("base64");
   let ok = text === null ? false : shapeChecked.get(key);
   if (ok === undefined) shapeChecked.set(key, (ok = fullResults(JSON.parse(text!)) !== null));
-  const { shares: sharesText, ...rest } = row as typeof row & { shares: string };
+  const { shares: sharesText, viewerRole, ...rest } = row as typeof row & { shares: string; viewerRole: string | null };
   const shares = sharesText === "[]" ? [] : (JSON.parse(sharesText) as (Omit<ShareDbRow, "sharedAt"> & { sharedAt: string })[]).map((x) => ({ ...x, sharedAt: new Date(x.sharedAt) }));
-  return { ...typed(rest), results: null, resultsText: ok ? text : null, resultsHash: ok ? key : "", marks: row.marks as ShotMarks | null, shares: shares as ShareDbRow[] };
+  return { ...typed(rest), results: null, resultsText: ok ? text : null, resultsHash: ok ? key : "", marks: row.marks as ShotMarks | null, shares: shares as ShareDbRow[], viewerRole };
 }
 
 /** The shots of the actor's team that the actor may see (entities/shot/visibility.ts), filtered. */
