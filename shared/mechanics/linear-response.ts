@@ -1,7 +1,7 @@
 import { endPadLength, lfilterZi, passFromRest, zeroLagDesignCached, type Biquad } from "./butterworth";
 import type { CalibrationMap } from "./calibration";
 import type { Source } from "./sources";
-import { gradientWeights, subSegment, type GridSegment, type SmoothSegment } from "./track-smoothing";
+import { gradientWeights, subSegment, velocityAt, type GridSegment, type SmoothSegment } from "./track-smoothing";
 
 // Gap filling, the zero-lag filter and differencing are all linear in the world marks, so a
 // smoothed position or velocity at one frame is a weighted sum of the marks. The weights (one row
@@ -209,7 +209,8 @@ export function linearStates(src: Source, at: StateAt[], nominalCal: Calibration
     // Noise = L·z with z ~ N(0, I₄), L the Cholesky factor (a zero pivot — a state with no
     // velocity, say — leaves its column zero).
     const L = cholesky4(C);
-    const nominal: State = { x: seg.sx[i], y: seg.sy[i], vx: seg.vx[i], vy: seg.vy[i] };
+    const [vx, vy] = velocityAt(seg, i);
+    const nominal: State = { x: seg.sx[i], y: seg.sy[i], vx, vy };
     const sums = { pxp: 0, pyp: 0, wp: 0, pxv: 0, pyv: 0, wv: 0 };
     for (let t = 0; t < px.length; t++) {
       sums.pxp += wp[t] * px[t];

@@ -5,7 +5,7 @@ import type { CalibrationMap } from "./calibration";
 import { stateWeights } from "./linear-response";
 import type { Source } from "./sources";
 import type { TimeBase } from "./time-base";
-import { gridIndex, gridSegments, marksBetween, smoothSegment, type GridSegment, type SmoothSegment, type WorldTrack } from "./track-smoothing";
+import { gridIndex, gridSegments, marksBetween, smoothSegment, velocityAt, type GridSegment, type SmoothSegment, type WorldTrack } from "./track-smoothing";
 import { hypot } from "./hypot";
 
 // Smoothing bias at the two results read from smoothed tracks, and the cutoff each is read at
@@ -219,8 +219,9 @@ export function bladeEndJudge(src: Source, world: WorldTrack, f0: number, cal: C
     if (!seg || seg.frames.length < 3) return null;
     const s = smoothSegment(seg, fc);
     const i = s.frames.length - 1;
-    const speed = hypot(s.vx[i], s.vy[i]);
-    const dir: [number, number] = speed > 0 ? [s.vx[i] / speed, s.vy[i] / speed] : [1, 0];
+    const [vx, vy] = velocityAt(s, i);
+    const speed = hypot(vx, vy);
+    const dir: [number, number] = speed > 0 ? [vx / speed, vy / speed] : [1, 0];
     const { vel } = stateWeights(s, i);
     if (!vel) return null;
     const noiseU = Math.sqrt(quad(dir, covarianceOf(src, offset, s, vel, cal, sigmaPx)));

@@ -39,9 +39,7 @@ export interface SmoothSegment extends GridSegment {
   /** Smoothed position, mm. */
   sx: Float64Array;
   sy: Float64Array;
-  /** Velocity, m/s (NaN for a one-sample segment). */
-  vx: Float64Array;
-  vy: Float64Array;
+  // Velocities are read where needed (velocityAt): most samples' never are.
   cutoffHz: number | null;
 }
 
@@ -165,57 +163,63 @@ export function gradientWeights(t: ArrayLike<number>, i: number): { from: number
   return { from: i - 1, w: [-hd / (hs * (hs + hd)), (hd - hs) / (hs * hd), hs / (hd * (hs + hd))] };
 }
 
+/** w0·v[a] + w1·v[a+1] + w2·v[a+2] in that order, mm/s → m/s. */
+function weighted3(v: ArrayLike<number>, a: number, w0: number, w1: number, w2: number): number {
+  let d = w0 * v[a];
+  d += w1 * v[a + 1];
+  d += w2 * v[a + 2];
+  return d / 1000;
+}
+
 /**
- * d/dt like numpy.gradient(v, t, edge_order=2); values in mm, times in s, result in m/s. The
- * weights of gradientWeights written out in place (the same arithmetic, no object per sample:
- * this runs over every sample of every smoothed track).
+ * d/dt at sample i like numpy.gradient(v, t, edge_order=2)[i]; values in mm, times in s, result
+ * in m/s. The weights of gradientWeights written out in place (the same arithmetic, no object per
+ * sample: the series run this over every sample of the puck and the blade). NaN for one sample.
  */
-export function gradientMps(v: Float64Array, tS: ArrayLike<number>): Float64Array {
+export function derivativeAt(v: ArrayLike<number>, tS: ArrayLike<number>, i: number): number {
   const n = v.length;
-  const out = new Float64Array(n);
-  if (n === 1) {
-    out[0] = NaN;
-    return out;
-  }
+  if (n === 1) return NaN;
   if (n === 2) {
     const h = tS[1] - tS[0];
     let d = (-1 / h) * v[0];
     d += (1 / h) * v[1];
-    out[0] = out[1] = d / 1000;
-    return out;
-  }
-  const three = (a: number, w0: number, w1: number, w2: number) => {
-    let d = w0 * v[a];
-    d += w1 * v[a + 1];
-    d += w2 * v[a + 2];
     return d / 1000;
-  };
-  {
+  }
+  if (i === 0) {
     const d1 = tS[1] - tS[0];
     const d2 = tS[2] - tS[1];
-    out[0] = three(0, -(2 * d1 + d2) / (d1 * (d1 + d2)), (d1 + d2) / (d1 * d2), -d1 / (d2 * (d1 + d2)));
+    return weighted3(v, 0, -(2 * d1 + d2) / (d1 * (d1 + d2)), (d1 + d2) / (d1 * d2), -d1 / (d2 * (d1 + d2)));
   }
-  for (let i = 1; i < n - 1; i++) {
-    const hs = tS[i] - tS[i - 1];
-    const hd = tS[i + 1] - tS[i];
-    out[i] = three(i - 1, -hd / (hs * (hs + hd)), (hd - hs) / (hs * hd), hs / (hd * (hs + hd)));
-  }
-  {
+  if (i === n - 1) {
     const d1 = tS[n - 2] - tS[n - 3];
     const d2 = tS[n - 1] - tS[n - 2];
-    out[n - 1] = three(n - 3, d2 / (d1 * (d1 + d2)), -(d1 + d2) / (d1 * d2), (2 * d2 + d1) / (d2 * (d1 + d2)));
+    return weighted3(v, n - 3, d2 / (d1 * (d1 + d2)), -(d1 + d2) / (d1 * d2), (2 * d2 + d1) / (d2 * (d1 + d2)));
   }
+  const hs = tS[i] - tS[i - 1];
+  const hd = tS[i + 1] - tS[i];
+  return weighted3(v, i - 1, -hd / (hs * (hs + hd)), (hd - hs) / (hs * hd), hs / (hd * (hs + hd)));
+}
+
+/** d/dt of every sample, like numpy.gradient(v, t, edge_order=2) (derivativeAt at each). */
+export function gradientMps(v: Float64Array, tS: ArrayLike<number>): Float64Array {
+  const out = new Float64Array(v.length);
+  for (let i = 0; i < v.length; i++) out[i] = derivativeAt(v, tS, i);
   return out;
 }
 
-/** Smooth a grid segment at cutoffHz (null = raw) and differentiate against the samples' times. */
+/** Velocity (m/s) of a smoothed piece at grid index i: NaN for a one-sample piece. */
+export function velocityAt(s: SmoothSegment, i: number): [vx: number, vy: number] {
+  return [derivativeAt(s.sx, s.tS, i), derivativeAt(s.sy, s.tS, i)];
+}
+
+/** Smooth a grid segment at cutoffHz (null = raw); velocityAt differentiates it against the samples' times. */
 export function smoothSegment(seg: GridSegment, cutoffHz: number | null): SmoothSegment {
   let sx = seg.x;
   let sy = seg.y;
   if (cutoffHz !== null && seg.x.length >= 3) {
     [sx, sy] = zeroLagLowPassPair(seg.x, seg.y, cutoffHz, seg.fsHz);
   }
-  return { ...seg, sx, sy, vx: gradientMps(sx, seg.tS), vy: gradientMps(sy, seg.tS), cutoffHz };
+  return { ...seg, sx, sy, cutoffHz };
 }
 
 /** Index of `frame` on the segment's grid, or −1. */
@@ -241,7 +245,7 @@ export function subSegment<T extends GridSegment>(seg: T, a: number, b: number):
   const cut = <A extends Float64Array | Int32Array | Uint8Array>(v: A) => v.subarray(a, b + 1) as A;
   const sub = { ...seg, frames: cut(seg.frames), tS: cut(seg.tS), x: cut(seg.x), y: cut(seg.y), marked: cut(seg.marked), i0, i1: i0 + marks } as T;
   const sm = seg as unknown as Partial<SmoothSegment>;
-  if (sm.sx && sm.sy && sm.vx && sm.vy) Object.assign(sub, { sx: cut(sm.sx), sy: cut(sm.sy), vx: cut(sm.vx), vy: cut(sm.vy) });
+  if (sm.sx && sm.sy) Object.assign(sub, { sx: cut(sm.sx), sy: cut(sm.sy) });
   return { sub, offset: a };
 }
 
