@@ -94,7 +94,7 @@ function rowsOf(a: Actor, f: Filters): SQL {
     left join ${user} on ${user.id} = ${shot.playerId}
     left join ${stick} on ${stick.id} = ${shot.stickId}
     left join ${shotResult} on ${shotResult.shotId} = ${shot.id}
-    where ${shot.id} in (${pageIdsQuery(a, f, { limit: sql.placeholder("limit") as unknown as number, offset: sql.placeholder("offset") as unknown as number })}))`;
+    where ${shot.id} = any(array(${pageIdsQuery(a, f, { limit: sql.placeholder("limit") as unknown as number, offset: sql.placeholder("offset") as unknown as number })})))`;
 }
 
 /**
