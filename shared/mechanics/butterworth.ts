@@ -80,6 +80,11 @@ export function passFromRest(q: Biquad, buf: Float64Array, backward: boolean): v
   pass(q, buf, [0, 0], backward);
 }
 
+/** passFromRest over two buffers of one length, side by side. */
+export function passPairFromRest(q: Biquad, a: Float64Array, b: Float64Array, backward: boolean): void {
+  passPair(q, a, b, [0, 0], backward);
+}
+
 /**
  * `pass` over two buffers of one length at once. Each recurrence waits on its own previous output,
  * so two run side by side take little longer than one; the arithmetic of each is `pass`'s exactly.

@@ -1,4 +1,4 @@
-import { endPadLength, lfilterZi, passFromRest, zeroLagDesignCached, type Biquad } from "./butterworth";
+import { endPadLength, lfilterZi, passFromRest, passPairFromRest, zeroLagDesignCached, type Biquad } from "./butterworth";
 import type { CalibrationMap } from "./calibration";
 import type { Source } from "./sources";
 import { gradientWeights, subSegment, velocityAt, type GridSegment, type SmoothSegment } from "./track-smoothing";
@@ -26,32 +26,59 @@ function zeroInputResponse(q: Biquad, n: number): Float64Array {
  * zero-input response and R reversal, A = C·(RFR + Rg·e_lastᵀ)·(F + g·e_0ᵀ)·E, and FᵀR = RF.
  */
 export function filtfiltAdjoint(q: Biquad, v: Float64Array, padlen: number): Float64Array {
+  return filtfiltAdjointPair(q, v, null, padlen)[0];
+}
+
+/**
+ * filtfiltAdjoint of two vectors of one length (a state's position and velocity rows): one
+ * zero-input response for both and the passes side by side; each result as on its own.
+ */
+export function filtfiltAdjointPair(q: Biquad, v: Float64Array, w: Float64Array | null, padlen: number): [Float64Array, Float64Array | null] {
   const n = v.length;
-  if (n < 2) return Float64Array.from(v);
+  if (w && w.length !== n) throw new RangeError(`a pair of vectors must have one length (got ${n} and ${w.length})`);
+  if (n < 2) return [Float64Array.from(v), w && Float64Array.from(w)];
   const p = Math.min(padlen, n - 1);
   const N = n + 2 * p;
   const g = zeroInputResponse(q, N);
-  const u = new Float64Array(N);
-  u.set(v, p);
+  const us = (w ? [v, w] : [v]).map((x) => {
+    const u = new Float64Array(N);
+    u.set(x, p);
+    return u;
+  });
   // (F + e_last·(Rg)ᵀ) u
-  let s1 = 0;
-  for (let i = 0; i < N; i++) s1 += g[N - 1 - i] * u[i];
-  passFromRest(q, u, false);
-  u[N - 1] += s1;
+  const s1 = us.map((u) => {
+    let s = 0;
+    for (let i = 0; i < N; i++) s += g[N - 1 - i] * u[i];
+    return s;
+  });
+  passBoth(q, us, false);
+  us.forEach((u, k) => (u[N - 1] += s1[k]));
   // (RFR + e_0·gᵀ) u
-  let s2 = 0;
-  for (let i = 0; i < N; i++) s2 += g[i] * u[i];
-  passFromRest(q, u, true);
-  u[0] += s2;
+  const s2 = us.map((u) => {
+    let s = 0;
+    for (let i = 0; i < N; i++) s += g[i] * u[i];
+    return s;
+  });
+  passBoth(q, us, true);
+  us.forEach((u, k) => (u[0] += s2[k]));
   // Eᵀ u
-  const x = u.slice(p, p + n);
-  for (let i = 0; i < p; i++) {
-    x[0] += 2 * u[i];
-    x[p - i] -= u[i];
-    x[n - 1] += 2 * u[p + n + i];
-    x[n - 2 - i] -= u[p + n + i];
-  }
-  return x;
+  const out = us.map((u) => {
+    const x = u.slice(p, p + n);
+    for (let i = 0; i < p; i++) {
+      x[0] += 2 * u[i];
+      x[p - i] -= u[i];
+      x[n - 1] += 2 * u[p + n + i];
+      x[n - 2 - i] -= u[p + n + i];
+    }
+    return x;
+  });
+  return [out[0], out[1] ?? null];
+}
+
+/** A pass from rest over one buffer, or two side by side. */
+function passBoth(q: Biquad, us: Float64Array[], backward: boolean): void {
+  if (us.length === 2) passPairFromRest(q, us[0], us[1], backward);
+  else passFromRest(q, us[0], backward);
 }
 
 /** Grid weights → weights on the segment's marks (adjoint of the straight-line gap filling). */
@@ -87,12 +114,11 @@ export function stateWeights(seg: SmoothSegment, i: number): { pos: Float64Array
   const n = seg.frames.length;
   const filtered = seg.cutoffHz !== null && n >= 3;
   const q = filtered ? zeroLagDesignCached(seg.cutoffHz!, seg.fsHz) : null;
-  const smoothT = (c: Float64Array) => (q ? filtfiltAdjoint(q, c, endPadLength(q)) : c);
   const e = new Float64Array(n);
   e[i] = 1;
-  const pos = gridToMarkWeights(seg, smoothT(e));
-  const vel = n >= 2 ? gridToMarkWeights(seg, smoothT(gradientRow(seg.tS, i))) : null;
-  return { pos, vel };
+  const row = n >= 2 ? gradientRow(seg.tS, i) : null;
+  const [pe, pv] = q ? filtfiltAdjointPair(q, e, row, endPadLength(q)) : [e, row];
+  return { pos: gridToMarkWeights(seg, pe), vel: pv && gridToMarkWeights(seg, pv) };
 }
 
 export interface State {

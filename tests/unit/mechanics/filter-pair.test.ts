@@ -1,8 +1,9 @@
-// The engine filters a track's x and y side by side (butterworth.ts, filtfiltPair and friends): two
-// recurrences interleaved, for speed only. Checked here to give the very bits of filtering each
-// coordinate on its own [calc, no outside source]; filtfilt itself is checked against scipy in
-// filter-scipy.test.ts.
+// The engine filters a track's x and y side by side (butterworth.ts, filtfiltPair and friends; the
+// adjoint of a state's two weight rows in linear-response.ts): two recurrences interleaved, for
+// speed only. Checked here to give the very bits of filtering each one on its own [calc, no outside
+// source]; filtfilt itself is checked against scipy in filter-scipy.test.ts.
 import { describe, expect, it } from "vitest";
+import { filtfiltAdjoint, filtfiltAdjointPair } from "../../../shared/mechanics/linear-response";
 import { endPadLength, filtfilt, filtfiltPair, filtfiltResidualSS, filtfiltResidualSSPair, normalSource, zeroLagDesign, zeroLagLowPass, zeroLagLowPassPair } from "../../../shared/mechanics/index";
 
 const normal = normalSource("filter-pair");
@@ -27,9 +28,21 @@ describe("filtering a pair of coordinates side by side", () => {
       }
   });
 
+  it("the smoothing's adjoint (the Monte Carlo's weights) of a pair gives each vector's own to the bit", () => {
+    for (const [fc, fs] of [[5, 3200], [60, 1000], [400, 1000]])
+      for (const n of [1, 2, 3, 40, 700]) {
+        const q = zeroLagDesign(fc, fs);
+        const v = signal(n, 3);
+        const w = signal(n, 4);
+        const [a, b] = filtfiltAdjointPair(q, v, w, endPadLength(q));
+        expect(same(a, filtfiltAdjoint(q, v, endPadLength(q))) && same(b!, filtfiltAdjoint(q, w, endPadLength(q))), `${fc} Hz at ${fs} Hz, n ${n}`).toBe(true);
+      }
+  });
+
   it("refuses two signals of different lengths", () => {
     const q = zeroLagDesign(60, 1000);
     expect(() => filtfiltPair(q, signal(10, 1), signal(11, 2))).toThrow(/one length/);
     expect(() => filtfiltResidualSSPair(q, signal(10, 1), signal(9, 2))).toThrow(/one length/);
+    expect(() => filtfiltAdjointPair(q, signal(10, 1), signal(9, 2), 9)).toThrow(/one length/);
   });
 });
