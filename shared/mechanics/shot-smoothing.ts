@@ -63,21 +63,28 @@ function residualSeries(grids: GridSegment[], window: FrameWindow): ResidualSeri
 export function shapeTracks(tracks: WorldTrack[]): WorldTrack[] {
   if (tracks.length === 1) return tracks;
   const [ref, ...rest] = tracks;
-  const rows: { i: number; j: number[] }[] = [];
+  // Rows where every landmark is marked: the reference's index and each other track's (no object per frame).
+  const n = ref.frames.length;
+  const refAt = new Int32Array(n);
+  const restAt = rest.map(() => new Int32Array(n));
   const at = rest.map(() => 0);
-  for (let i = 0; i < ref.frames.length; i++) {
+  let rows = 0;
+  for (let i = 0; i < n; i++) {
     const f = ref.frames[i];
-    const j = rest.map((t, k) => {
+    let all = true;
+    for (let k = 0; k < rest.length; k++) {
+      const t = rest[k];
       while (at[k] < t.frames.length && t.frames[at[k]] < f) at[k]++;
-      return at[k] < t.frames.length && t.frames[at[k]] === f ? at[k] : -1;
-    });
-    if (j.every((v) => v >= 0)) rows.push({ i, j });
+      if (at[k] < t.frames.length && t.frames[at[k]] === f) restAt[k][rows] = at[k];
+      else all = false;
+    }
+    if (all) refAt[rows++] = i;
   }
-  const frames = Int32Array.from(rows, (r) => ref.frames[r.i]);
+  const frames = Int32Array.from(refAt.subarray(0, rows), (i) => ref.frames[i]);
   return rest.map((t, k) => ({
     frames,
-    x: Float64Array.from(rows, (r) => t.x[r.j[k]] - ref.x[r.i]),
-    y: Float64Array.from(rows, (r) => t.y[r.j[k]] - ref.y[r.i]),
+    x: Float64Array.from(refAt.subarray(0, rows), (i, r) => t.x[restAt[k][r]] - ref.x[i]),
+    y: Float64Array.from(refAt.subarray(0, rows), (i, r) => t.y[restAt[k][r]] - ref.y[i]),
   }));
 }
 
