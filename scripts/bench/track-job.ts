@@ -29,11 +29,11 @@ const load = () => os.loadavg().map((l) => l.toFixed(2)).join(" ");
 /** The 480-frame shot: ice strike on frame 200 so the puck is in the picture for most of it. */
 export const JOB_SCENE = { ...TRACK_SHOTS[3200], frames: 480, iceStrikeFrame: 200 };
 
-/** CPU seconds of a process and its waited-for children (ffmpeg), from /proc. */
-function cpuSeconds(pid: number) {
+/** CPU seconds of a process itself and of its waited-for children (ffmpeg), from /proc. */
+function cpuParts(pid: number) {
   const f = readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1].split(" ");
   // fields 14–17 of stat (utime stime cutime cstime) are 12–15 here, after pid and comm
-  return (Number(f[11]) + Number(f[12]) + Number(f[13]) + Number(f[14])) / 100;
+  return { own: (Number(f[11]) + Number(f[12])) / 100, children: (Number(f[13]) + Number(f[14])) / 100 };
 }
 
 async function decodeAlone(mp4: string, bytesExpected: number) {
@@ -130,12 +130,12 @@ export async function benchTrackJob(rounds: number, scene: SceneOptions = JOB_SC
     const shot = await analyst.post(`${team}/clips/${clipId}/shots`, { frameStart: 1, frameEnd: truth.frameCount });
     const shotId = shot.json.id as string;
 
-    const walls: number[] = [], cpus: number[] = [], decodes: number[] = [], replays: number[] = [], ratios: number[] = [];
+    const walls: number[] = [], cpus: number[] = [], owns: number[] = [], decodes: number[] = [], replays: number[] = [], ratios: number[] = [];
     let stored = 0;
     for (let r = 0; r < rounds; r++) {
       const decode = await decodeAlone(baselineClip, truth.width * truth.height * truth.frameCount);
       const matching = replay();
-      const cpu0 = cpuSeconds(worker.pid!);
+      const cpu0 = cpuParts(worker.pid!);
       const t0 = performance.now();
       const started = await analyst.post(`${team}/shots/${shotId}/tracking`, { seedFrame: 1, seeds });
       if (started.status !== 202) throw new Error(`tracking not started: ${started.status} ${started.text}`);
@@ -149,7 +149,9 @@ export async function benchTrackJob(rounds: number, scene: SceneOptions = JOB_SC
       if (run.status !== "done") throw new Error(`the run ended ${run.status}: ${run.failureReason}`);
       stored = Object.values(run.proposals.tracks as Record<string, { marks: unknown[] }>).reduce((n, t) => n + t.marks.length, 0);
       walls.push(wall);
-      cpus.push(cpuSeconds(worker.pid!) - cpu0);
+      const cpu1 = cpuParts(worker.pid!);
+      owns.push(cpu1.own - cpu0.own);
+      cpus.push(cpu1.own - cpu0.own + cpu1.children - cpu0.children);
       decodes.push(decode);
       replays.push(matching);
       ratios.push(wall / (decode + matching));
@@ -164,6 +166,7 @@ export async function benchTrackJob(rounds: number, scene: SceneOptions = JOB_SC
     console.log(`  the job, button to proposals stored       ${fmt(wall, 2)} s  (rounds: ${walls.map((w) => fmt(w, 2)).join(", ")})`);
     console.log(`  landmark-frames per second of wall time   ${fmt(stored / wall)}   (one job holds one worker core; ffmpeg decodes beside it)`);
     console.log(`  landmark-frames per worker CPU-second     ${fmt(stored / median(cpus))}   (the worker process and its ffmpeg: ${fmt(median(cpus), 2)} CPU-s)`);
+    console.log(`    CPU-s per round, worker + its ffmpeg: ${cpus.map((c, i) => `${fmt(owns[i], 2)} + ${fmt(c - owns[i], 2)}`).join(", ")}`);
     console.log(`  job / raw baseline, median of paired rounds: ${fmt(median(ratios), 2)}`);
     console.log(`Goal: ≥ 600 landmark-frames/s per worker core end to end, within 2× the baseline.`);
   } finally {

@@ -81,8 +81,8 @@ export async function runTracking(runId: string, job: TrackRun): Promise<TrackOu
         first, last, seedFrame: run.seedFrame, width: work.width!, height: work.height!, budgetBytes: env().TRACK_MEMORY_MB * 1024 * 1024, spillDir: dir,
       });
       const decoding = decodeGrayFrames(mediaConfig(), {
-        input, videoStreamIndex: work.probe?.videoStreamIndex ?? 0, pixelFormat: work.probe?.pixelFormat, colorRange: work.probe?.colorRange,
-        first, last, width: work.width!, height: work.height!, signal: abort.signal,
+        input, videoStreamIndex: work.probe?.videoStreamIndex ?? 0, first, last, width: work.width!, height: work.height!, signal: abort.signal,
+        pixelFormat: work.probe?.pixelFormat, colorRange: work.probe?.colorRange, interlaced: work.probe?.interlaced, pixelAspect: work.probe?.pixelAspect,
         // Held a few frames ahead of the tracker, the decoder runs as long as the tracking does.
         timeoutMs: jobPolicies["shot.track"].expireInSeconds * 1000,
         onFrame: (f, data) => store.put(f, data),

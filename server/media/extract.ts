@@ -109,7 +109,7 @@ export const hdrToSdr =
 // Both fields of every frame, each its own picture (bwdif, ffmpeg's motion-adaptive deinterlacer).
 export const deinterlace = "bwdif=mode=send_field:parity=auto:deint=all";
 // Non-square pixels widened to square (the frame's own sample aspect ratio, even width).
-const squarePixels = "scale='trunc(iw*sar/2+0.5)*2':ih,setsar=1";
+export const squarePixels = "scale='trunc(iw*sar/2+0.5)*2':ih,setsar=1";
 
 /** libwebp quality 0–100 from the same 1–31 scale (3 → 96, 31 → 40). */
 export const webpQuality = (q: number) => Math.round(100 - (Math.min(31, Math.max(1, q)) - 1) * 2);

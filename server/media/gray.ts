@@ -2,6 +2,7 @@
 // round trip. Frames are numbered as the extraction numbers them (every decoded frame, in order,
 // the first is 1, the same rotation), so frame n here is the picture the analyst marked as frame n.
 import { buildFfmpegArgs, type FfmpegSpec } from "./command";
+import { deinterlace, squarePixels } from "./extract";
 import { FfmpegError } from "./errors";
 import { runTool, type MediaConfig } from "./ffmpeg";
 
@@ -14,6 +15,9 @@ export interface GraySpecInput {
   /** The clip's probed pixel format and colour range; unknown takes the general conversion. */
   pixelFormat?: string | null;
   colorRange?: string | null;
+  /** As the extraction: an interlaced clip's fields are pictures of their own, non-square pixels are widened. */
+  interlaced?: boolean;
+  pixelAspect?: number | null;
 }
 
 // 8-bit planar YUV: its luma plane already is the grey picture, so it is taken as it is
@@ -37,7 +41,13 @@ export function lumaFilters(s: Pick<GraySpecInput, "pixelFormat" | "colorRange">
 export function buildGraySpec(s: GraySpecInput): FfmpegSpec {
   // trim ends the stream after `last`, so ffmpeg stops decoding there instead of at the clip's end.
   // A rotated clip is turned before these filters (ffmpeg puts its autorotation first).
-  const chain = [`trim=start_frame=${s.first - 1}:end_frame=${s.last}`, ...lumaFilters(s)];
+  // The extraction's geometry (extract.ts), so frame n is its frame n: fields split before trim counts them.
+  const chain = [
+    ...(s.interlaced ? [deinterlace] : []),
+    `trim=start_frame=${s.first - 1}:end_frame=${s.last}`,
+    ...lumaFilters(s),
+    ...(s.pixelAspect && Math.abs(s.pixelAspect - 1) > 1e-6 ? [squarePixels] : []),
+  ];
   return {
     inputs: [{ path: s.input }],
     outputs: [

@@ -140,6 +140,15 @@ export async function quietRuns(staleMs: number) {
 }
 
 /** What a run needs of its shot and clip to decode and track. */
+/** What the grey decode needs of the clip's stored probe (server/media/probe.ts). */
+interface ClipDecodeFacts {
+  videoStreamIndex?: number;
+  pixelFormat?: string | null;
+  colorRange?: string | null;
+  interlaced?: boolean;
+  pixelAspect?: number | null;
+}
+
 export async function workOf(shotId: string) {
   const [row] = await db()
     .select({
@@ -149,7 +158,7 @@ export async function workOf(shotId: string) {
     .from(shot)
     .innerJoin(clip, eq(clip.id, shot.clipId))
     .where(eq(shot.id, shotId));
-  return row ? { ...row, calibration: row.calibration as ClipCalibration | null, probe: row.probe as { videoStreamIndex?: number; pixelFormat?: string | null; colorRange?: string | null } | null } : null;
+  return row ? { ...row, calibration: row.calibration as ClipCalibration | null, probe: row.probe as ClipDecodeFacts | null } : null;
 }
 
 /** The team's runs queued or running, oldest first: at most `limit`, each row with the count of all of them. */

@@ -5,7 +5,8 @@
 import { execa } from "execa";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import path from "node:path";
-import { buildGraySpec, decodeGrayFrames, FfmpegError, probe } from "../../../server/media";
+import sharp from "sharp";
+import { buildGraySpec, decodeGrayFrames, extractFrames, FfmpegError, frameFileName, probe } from "../../../server/media";
 import { ffmpeg, makeClip, makeRotatedClip, tempDir, testMedia } from "./helpers";
 
 let dir: string;
@@ -122,5 +123,48 @@ describe("decodeGrayFrames", () => {
     const run = decodeGrayFrames(testMedia(), { input: clip, videoStreamIndex: 0, first: 1, last: 40, width: 160, height: 90, signal: abort.signal, onFrame: (f) => void (f === 3 && abort.abort()) });
     await expect(run).rejects.toMatchObject({ kind: "aborted" });
     await expect(run).rejects.toBeInstanceOf(FfmpegError);
+  });
+});
+
+// The analyst marks frame n of the extraction; the job must track that very picture. Interlaced
+// video is extracted one picture per field and non-square pixels widened (decision 132, extract.ts).
+// Source of truth: the extraction's own frames, the dark box's centre on each.
+describe("decodeGrayFrames keeps the extraction's frames", () => {
+  const darkCentre = (d: Uint8Array | Buffer, w: number) => {
+    let n = 0, sx = 0, sy = 0;
+    for (let i = 0; i < d.length; i++) {
+      if (d[i] >= 100) continue;
+      n++;
+      sx += i % w;
+      sy += Math.floor(i / w);
+    }
+    return [sx / n, sy / n];
+  };
+  const box = "color=white:s=160x96:r=60[bg];color=black:s=8x8:r=60[b];[bg][b]overlay=x='4*n':y='20+2*n':eval=frame";
+  it.each([
+    { name: "interlaced.mp4", filters: `${box},tinterlace=mode=interleave_top`, codec: ["-flags", "+ildct+ilme", "-x264-params", "tff=1"], frames: 10 },
+    { name: "non-square.mp4", filters: `${box},scale=80:96,setsar=2`, codec: [], frames: 12 },
+  ])("$name: frame n is the extracted frame n, at the extracted size", async ({ name, filters, codec, frames }) => {
+    const file = path.join(dir, name);
+    await ffmpeg(["-f", "lavfi", "-i", filters, "-frames:v", String(frames), "-c:v", "libx264", "-preset", "ultrafast", "-pix_fmt", "yuv420p", ...codec, file]);
+    const facts = await probe(testMedia(), file);
+    expect(facts.interlaced || facts.pixelAspect !== 1, "the source is what the test is about").toBe(true);
+    const out = path.join(dir, `${name}-extracted`);
+    const extracted = await extractFrames(testMedia(), { input: file, probe: facts, outDir: out, strip: false, quality: 2 });
+    expect(extracted.frameCount).toBe(facts.frameCount);
+    const got: Uint8Array[] = [];
+    const n = await decodeGrayFrames(testMedia(), {
+      input: file, videoStreamIndex: facts.videoStreamIndex, first: 1, last: facts.frameCount, width: facts.width, height: facts.height,
+      pixelFormat: facts.pixelFormat, colorRange: facts.colorRange, interlaced: facts.interlaced, pixelAspect: facts.pixelAspect,
+      onFrame: (_, d) => void got.push(d),
+    });
+    expect(n).toBe(facts.frameCount);
+    for (let f = 1; f <= n; f++) {
+      const jpeg = await sharp(path.join(out, "frames", frameFileName(f, "jpg"))).greyscale().raw().toBuffer({ resolveWithObject: true });
+      expect([jpeg.info.width, jpeg.info.height]).toEqual([facts.width, facts.height]);
+      const [ex, ey] = darkCentre(jpeg.data, jpeg.info.width);
+      const [gx, gy] = darkCentre(got[f - 1], facts.width);
+      expect(Math.hypot(gx - ex, gy - ey), `frame ${f}: grey (${gx.toFixed(1)}, ${gy.toFixed(1)}), extracted (${ex.toFixed(1)}, ${ey.toFixed(1)})`).toBeLessThan(0.5);
+    }
   });
 });
