@@ -3,6 +3,7 @@ import type { ShotDocument } from "../schemas/shot-document";
 import type { ChordGeometry } from "./bend";
 import type { Vec2 } from "./homography";
 import { bladeAtStrike } from "./blade-at-strike";
+import { ChartPoint } from "./chart-point";
 import { planeMap, scaleBarMap, type CalibrationMap } from "./calibration";
 import { eventTiming } from "./event-timing";
 import { flightTrials } from "./flight-trials";
@@ -214,13 +215,7 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
   const firstFrame = clip ? clip[0] : (doc.frameTimes?.firstFrame ?? 0);
   if (iceStrike !== undefined) timingNote(notes, time, "load time", iceStrike, strike);
   timingNote(notes, time, "contact time", strike, release);
-  const point = (frame: number, label: SegmentLabel, value: number): SeriesPoint => ({
-    frame,
-    tMs: ms(firstFrame, frame),
-    tFromStrikeMs: ms(strike, frame),
-    value,
-    segment: label,
-  });
+  const point = (frame: number, label: SegmentLabel, value: number): SeriesPoint => new ChartPoint(frame, ms(firstFrame, frame), ms(strike, frame), value, label);
   const side = (frame: number): SegmentLabel => (frame <= strike ? "beforeStrike" : "afterStrike");
   const speedSeries = (s: SmoothedSource | undefined): SeriesPoint[] => {
     const out: SeriesPoint[] = [];
