@@ -103,6 +103,10 @@ describe("the Shots list", () => {
         const want = await expected(a, f);
         const got = await allPages(c, f);
         expect({ who, name, ids: got.ids, totals: got.totals }).toEqual({ who, name, ids: want, totals: [want.length] });
+        // The page as the Shots page opens it (its own statement, decision 191) says the same.
+        const q = new URLSearchParams(Object.entries(f).filter(([, v]) => v) as [string, string][]);
+        const opening = (await c.get(`${R()}/shots?${q}&page=1&pageSize=50`)).json;
+        expect({ who, name, ids: opening.shots.map((s: { id: string }) => s.id), total: opening.total }).toEqual({ who, name, ids: want.slice(0, 50), total: want.length });
       }
     // The player sees their own published shots and the one published shot shared with them.
     const seen = await allPages(player, {});

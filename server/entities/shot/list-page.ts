@@ -11,7 +11,7 @@ import { organization } from "../../db/auth-schema";
 import { clip, shot, shotResult, shotShare, shotTally, stick, trainingSession, user } from "../../db/schema";
 import type { Actor, Role } from "../member/role";
 import { newestShotFirst } from "./date";
-import { listWhere, pageIdsQuery, summaryResults } from "./readout";
+import { listWhere, orderedIdsQuery, pageIdsQuery, summaryResults } from "./readout";
 import { seesWholeTeam } from "./visibility";
 import type { ShotListQuery } from "../../../shared/schemas/readout";
 
@@ -44,12 +44,21 @@ const shapeOf = (f: Filters) => ({
   ...(f.shotType ? { shotType: sql.placeholder("shotType") as unknown as NonNullable<Filters["shotType"]> } : {}),
   ...(f.review ? { review: f.review } : {}),
 });
-// The statement's key: the role, then which filters are set ("p" player, "s" stick, "t" type) and the review filter.
-const keyOf = (role: Role, f: Filters) => `${role}:${f.playerId ? "p" : ""}${f.stickId ? "s" : ""}${f.shotType ? "t" : ""}:${f.review ?? ""}`;
-function fromKey(key: string): { role: Role; f: Filters } {
-  const [role, set, review] = key.split(":");
+/**
+ * The page as the Shots page opens it (the first 50) is written into its statement: PostgreSQL
+ * can then plan it once and reuse the plan (a generic plan), where a placeholder page size or
+ * offset makes it plan each execution again (decision 191). Any other page uses placeholders.
+ */
+export const OPENING_PAGE = { limit: 50, offset: 0 } as const;
+const isOpening = (p: { limit: number; offset: number }) => p.limit === OPENING_PAGE.limit && p.offset === OPENING_PAGE.offset;
+
+// The statement's key: the role, which filters are set ("p" player, "s" stick, "t" type), the review filter, and "1" for the opening page.
+const keyOf = (role: Role, f: Filters, opening: boolean) => `${role}:${f.playerId ? "p" : ""}${f.stickId ? "s" : ""}${f.shotType ? "t" : ""}:${f.review ?? ""}:${opening ? "1" : ""}`;
+function fromKey(key: string): { role: Role; f: Filters; opening: boolean } {
+  const [role, set, review, opening] = key.split(":");
   return {
     role: role as Role,
+    opening: opening === "1",
     f: shapeOf({ playerId: set.includes("p") ? "set" : undefined, stickId: set.includes("s") ? "set" : undefined, shotType: set.includes("t") ? "slap" : undefined, review: (review || undefined) as Filters["review"] }),
   };
 }
@@ -73,7 +82,11 @@ function totalOf(a: Actor, f: Filters): SQL {
 }
 
 /** The page's shots as one JSON array, newest first, with only what the list shows. */
-function rowsOf(a: Actor, f: Filters): SQL {
+function rowsOf(a: Actor, f: Filters, opening: boolean): SQL {
+  // (The query builder would send even a constant page size as a placeholder, so the opening page's is written here.)
+  const ids = opening
+    ? sql`${orderedIdsQuery(a, f)} limit ${sql.raw(String(OPENING_PAGE.limit))}`
+    : pageIdsQuery(a, f, { limit: sql.placeholder("limit") as unknown as number, offset: sql.placeholder("offset") as unknown as number });
   const sm = shotResult.summary;
   return sql`(select coalesce(json_agg(json_build_object(
       'id', ${shot.id}, 'teamId', ${shot.teamId}, 'label', ${shot.label}, 'clipId', ${shot.clipId}, 'clipTitle', ${clip.title},
@@ -94,7 +107,7 @@ function rowsOf(a: Actor, f: Filters): SQL {
     left join ${user} on ${user.id} = ${shot.playerId}
     left join ${stick} on ${stick.id} = ${shot.stickId}
     left join ${shotResult} on ${shotResult.shotId} = ${shot.id}
-    where ${shot.id} = any(array(${pageIdsQuery(a, f, { limit: sql.placeholder("limit") as unknown as number, offset: sql.placeholder("offset") as unknown as number })})))`;
+    where ${shot.id} = any(array(${ids})))`;
 }
 
 /**
@@ -114,12 +127,12 @@ function distinctVisible(a: Actor, col: typeof shot.playerId | typeof shot.stick
 }
 
 const pageQuery = preparedBy("shot_list_page", (name, key: string) => {
-  const { role, f } = fromKey(key);
+  const { role, f, opening } = fromKey(key);
   const a = viewer(role);
   return db()
     .select({
       total: totalOf(a, f).mapWith(Number),
-      rows: sql<string>`${rowsOf(a, f)}`,
+      rows: sql<string>`${rowsOf(a, f, opening)}`,
       players: sql<string>`(select coalesce(json_agg(json_build_object('id', ${user.id}, 'name', ${user.name})), '[]')::text from ${user} where ${user.id} in (${distinctVisible(a, shot.playerId)}))`,
       sticks: sql<string>`(select coalesce(json_agg(json_build_object('id', ${stick.id}, 'label', ${stick.label})), '[]')::text from ${stick} where ${stick.id} in (${distinctVisible(a, shot.stickId)}))`,
     })
@@ -130,8 +143,9 @@ const pageQuery = preparedBy("shot_list_page", (name, key: string) => {
 
 /** One page of the team's Shots list as the viewer may see it, its total and the filter choices. */
 export async function shotListPage(a: Actor, f: Filters, page: { limit: number; offset: number }): Promise<ListPage> {
-  const [row] = await pageQuery(keyOf(a.role, f)).execute({
-    teamId: a.teamId, viewerId: a.userId, limit: page.limit, offset: page.offset,
+  const opening = isOpening(page);
+  const [row] = await pageQuery(keyOf(a.role, f, opening)).execute({
+    teamId: a.teamId, viewerId: a.userId, ...(opening ? {} : { limit: page.limit, offset: page.offset }),
     ...(f.playerId ? { playerId: f.playerId } : {}), ...(f.stickId ? { stickId: f.stickId } : {}), ...(f.shotType ? { shotType: f.shotType } : {}),
   });
   if (!row) return { total: 0, rows: [], players: [], sticks: [] };

@@ -154,8 +154,10 @@ const newestFirst = newestShotFirst;
  * shot too (decision 176), with its own index in the same order.
  */
 export function pageIdsQuery(a: Actor, f: ShotListQuery, page: { limit: number; offset: number }) {
-  return db().select({ id: shot.id }).from(shot).where(listWhere(a, f)).orderBy(...newestFirst).limit(page.limit).offset(page.offset);
+  return orderedIdsQuery(a, f).limit(page.limit).offset(page.offset);
 }
+/** The same ids in the list's order, for a caller that writes its own LIMIT. */
+export const orderedIdsQuery = (a: Actor, f: ShotListQuery) => db().select({ id: shot.id }).from(shot).where(listWhere(a, f)).orderBy(...newestFirst);
 
 /**
  * Shots of the team, newest first, with the results summary but without time series or marks
