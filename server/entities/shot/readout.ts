@@ -107,8 +107,9 @@ const sharesJson = sql<string>`(select coalesce(json_agg(json_build_object('shot
 
 const shotTextQuery = prepared("readout_shot_text", (name) =>
   // (joined() is typed for the readout's columns; the extra `shares` is read back as text below.)
-  // The caller's stored role comes along, and a non-member gets no row (decision 195).
-  joined({ ...withEverything, marks: marksWhenNoResults, results: sql<string | null>`${shotResult.results}::text`, ...{ shares: sharesJson, viewerRole: viewerStoredRole } })
+  // The caller's stored role comes along, and a non-member gets no row (decision 195). The results
+  // summary (~2 kB of JSON that pg would parse) is left out: the readout shows the full results.
+  joined({ ...withEverything, summary: sql<null>`null`, marks: marksWhenNoResults, results: sql<string | null>`${shotResult.results}::text`, ...{ shares: sharesJson, viewerRole: viewerStoredRole } })
     .where(and(eq(shot.id, sql.placeholder("shotId")), eq(shot.teamId, sql.placeholder("teamId")), isNotNull(viewerStoredRole)))
     .prepare(name),
 );
