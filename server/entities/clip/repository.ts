@@ -88,6 +88,8 @@ function buildPage(name: string, key: PageKey) {
   const keyed = sort === "player" ? keys.leftJoin(user, eq(user.id, clip.playerId)) : sort === "session" ? keys.leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId)) : keys;
   const ids = keyed.where(where).orderBy(...orderBy).limit(sql.placeholder("limit")).offset(sql.placeholder("offset"));
   const total = db().select({ n: sql<number>`count(*)::int` }).from(clip).where(where);
+  // The page's ids as an array, so each row is found by its key: as "id in (…)", PostgreSQL's
+  // generic plan (which guesses 500 ids) read all of the team's clips to hash-join 25 of them.
   const items = db()
     .select({ items: sql`coalesce(json_agg(${clipSummaryJson(uploader.name)} order by ${sql.join(orderBy, sql`, `)}), '[]')::text` })
     .from(clip)
@@ -95,7 +97,7 @@ function buildPage(name: string, key: PageKey) {
     .leftJoin(uploader, eq(uploader.id, clip.uploadedBy))
     .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
     .leftJoin(stick, eq(stick.id, clip.stickId))
-    .where(inArray(clip.id, ids));
+    .where(sql`${clip.id} = any(array(${ids}))`);
   return rawPrepared<{ role: string | null; total: number | null; items: string | null }>(name, () =>
     sql`select ${viewerStoredRole} as role, (${total}) as total, case when ${asAssumed} then (${items}) end as items`);
 }
