@@ -8,7 +8,7 @@ import { clipListRoute, clipsRouter } from "./clips/routes";
 import { shotsRouter } from "./shots/routes";
 import { trackingRouter } from "./tracking/routes";
 import { sticksRouter } from "./sticks/routes";
-import { readoutRouter, shotReadoutRoute } from "./readout/routes";
+import { readoutRouter, shotListRoute, shotReadoutRoute } from "./readout/routes";
 import { billingRouter } from "./billing/routes";
 import { signupRouter } from "./signup/routes";
 import { homeRouter } from "./home/routes";
@@ -38,7 +38,7 @@ export function apiRouter() {
 }
 
 /**
- * The two reads every page load repeats most (the clips table, one shot's readout), answered
+ * The reads every page load repeats most (the clips table, one shot's readout, the Shots list), answered
  * before Express walks the other routers, mounted at /api in app.ts after the checks every API
  * request passes. Each checks the caller's membership in its own statement (decision 195) rather
  * than through requireTeamMember; every other team route goes through apiRouter().
@@ -47,5 +47,6 @@ export function hotReadsRouter() {
   const hot = Router();
   hot.get("/teams/:teamId/clips", clipListRoute);
   hot.get("/teams/:teamId/readout/shots/:shotId", shotReadoutRoute);
+  hot.get("/teams/:teamId/readout/shots", shotListRoute);
   return hot;
 }

@@ -1,6 +1,7 @@
 import { Router, type Request, type RequestHandler, type Response } from "express";
 import { actorOf, readAsTeamMember } from "../auth/context";
 import { parse } from "../http/validate";
+import { zodToHttp } from "../http/problem";
 import { sendJsonText } from "../http/json-answer";
 import { CompareQuery, ExportQuery, ProgressQuery, PublishShotBody, ReviewSettings, ShareShotBody, ShotListPageQuery } from "../../shared/schemas/readout";
 import type { FileAnswer } from "./exports";
@@ -23,6 +24,22 @@ export const shotReadoutRoute: RequestHandler = async (req, res) => {
   sendJsonText(res, text, tag);
 };
 
+/** The Shots page's list, a hot read (decision 195): a bad query is refused only once membership is known. */
+export const shotListRoute: RequestHandler = async (req, res) => {
+  const q = ShotListPageQuery.safeParse(req.query);
+  res.json(
+    await readAsTeamMember(req, async (a) =>
+      q.success
+        ? svc.listShots(a, q.data)
+        : {
+            answer: (): never => {
+              throw zodToHttp(q.error);
+            },
+          },
+    ),
+  );
+};
+
 function sendFile(res: Response, f: FileAnswer) {
   res.setHeader("Content-Type", f.contentType);
   res.setHeader("Content-Disposition", `attachment; filename="${f.filename}"`);
@@ -31,7 +48,6 @@ function sendFile(res: Response, f: FileAnswer) {
   res.send(f.body);
 }
 
-readoutRouter.get("/readout/shots", async (req, res) => void res.json(await svc.listShots(actorOf(req), parse(ShotListPageQuery, req.query))));
 readoutRouter.get("/readout/compare", async (req, res) => void res.json(await svc.compare(actorOf(req), parse(CompareQuery, req.query))));
 readoutRouter.get("/readout/players", async (req, res) => void res.json(await svc.players(actorOf(req))));
 readoutRouter.get("/readout/progress", async (req, res) => void res.json(await svc.progress(actorOf(req), parse(ProgressQuery, req.query))));

@@ -92,20 +92,29 @@ export async function readoutJson(a: Actor, shotId: string): Promise<ReadWithRol
   };
 }
 
-export async function listShots(a: Actor, q: z.output<typeof ShotListPageQuery>): Promise<ShotListResponse> {
+/**
+ * The Shots page's request: one statement reads the caller's stored role, the page, its total and
+ * the filter choices (decisions 191, 195); the answer is made only once readAsTeamMember has held
+ * that role to the one the statement ran as.
+ */
+export async function listShots(a: Actor, q: z.output<typeof ShotListPageQuery>): Promise<ReadWithRole<ShotListResponse>> {
   const staff = isStaff(a);
   const filters = { playerId: q.playerId, stickId: q.stickId, shotType: q.shotType, review: q.review };
-  // One round trip: the page, its total and the filter choices (decision 191).
   const page = await shotListPage(a, filters, { limit: q.pageSize, offset: (q.page - 1) * q.pageSize });
-  // The query already keeps to what the viewer may see; the policy is asked again for each row.
-  const visible = page.rows.filter((r) => policy.viewShot(a, shotAccess(r, r.shareIds)));
   return {
-    shots: visible.map((r) => listItem(r, { viewerId: a.userId, viewerIsStaff: staff, sharedWithViewer: r.shareIds.includes(a.userId), shareCount: r.shareIds.length })),
-    total: page.total,
-    page: q.page,
-    pageSize: q.pageSize,
-    players: page.players,
-    sticks: page.sticks,
+    storedRole: page.storedRole,
+    answer: () => {
+      // The query already keeps to what the viewer may see; the policy is asked again for each row.
+      const visible = page.rows.filter((r) => policy.viewShot(a, shotAccess(r, r.shareIds)));
+      return {
+        shots: visible.map((r) => listItem(r, { viewerId: a.userId, viewerIsStaff: staff, sharedWithViewer: r.shareIds.includes(a.userId), shareCount: r.shareIds.length })),
+        total: page.total,
+        page: q.page,
+        pageSize: q.pageSize,
+        players: page.players,
+        sticks: page.sticks,
+      };
+    },
   };
 }
 

@@ -11,6 +11,8 @@ import { canSeeShot } from "../../server/entities/shot/visibility";
 import type { Actor } from "../../server/entities/member/role";
 import * as svc from "../../server/readout/service";
 import { sql } from "drizzle-orm";
+import { createAccount } from "../../server/auth/accounts";
+import { DEMO_PASSWORD } from "../../server/seed/demo-people";
 
 let srv: TestServer;
 let world: Awaited<ReturnType<typeof seedWorld>>;
@@ -113,6 +115,28 @@ describe("the Shots list", () => {
     expect(seen.ids.length).toBe(5);
   });
 
+  it("checks membership in its own statement: a coach made a player sees only what a player may on the very next read, a removed member gets 404, a bad query 422 only for members", async () => {
+    const email = "list.hotread@ravens.example";
+    const { userId } = await createAccount({ email, password: DEMO_PASSWORD, name: "Lee Listread", emailVerified: true, signIn: false });
+    await db().insert(member).values({ id: crypto.randomUUID(), organizationId: world.teamId, userId, role: "coach", createdAt: new Date() });
+    const c = await new Client(srv.url).signIn(email);
+    const setRole = (role: string) => db().update(member).set({ role }).where(sql`${member.userId} = ${userId} and ${member.organizationId} = ${world.teamId}`);
+    const as = (role: Actor["role"]): Actor => ({ userId, teamId: world.teamId, role });
+    expect((await allPages(c, {})).ids).toEqual(await expected(as("coach"), {}));
+    await setRole("player");
+    const asPlayer = await allPages(c, {});
+    expect(asPlayer).toEqual({ ids: [], totals: [0] });
+    await setRole("coach");
+    expect((await allPages(c, {})).ids).toEqual(await expected(as("coach"), {}));
+    expect((await c.get(`${R()}/shots?pageSize=nonsense`)).status).toBe(422);
+    await db().delete(member).where(sql`${member.userId} = ${userId} and ${member.organizationId} = ${world.teamId}`);
+    const gone = await c.get(`${R()}/shots?pageSize=50`);
+    expect(gone.status).toBe(404);
+    expect(gone.text).not.toContain("List 1");
+    expect((await c.get(`${R()}/shots?pageSize=nonsense`)).status).toBe(404);
+    expect((await new Client(srv.url).get(`${R()}/shots`)).status).toBe(401);
+  });
+
   it("says who may see a shared shot: staff see how many it is shared with, the player that it was shared with them", async () => {
     const shared = (await player.get(`${R()}/shots?playerId=${uid(EMAILS.player2)}&pageSize=50`)).json;
     expect(shared.total).toBe(1);
@@ -129,13 +153,15 @@ describe("the Shots list", () => {
       texts.push(typeof cfg === "string" ? cfg : cfg.text);
       return (query as (...a: unknown[]) => unknown)(cfg, ...rest);
     };
-    let total = -1;
+    let read: Awaited<ReturnType<typeof svc.listShots>> | undefined;
     try {
-      total = (await svc.listShots(coachActor(), { page: 1, pageSize: 50 })).total;
+      read = await svc.listShots(coachActor(), { page: 1, pageSize: 50 });
     } finally {
       (pool as unknown as { query: unknown }).query = query;
     }
-    expect(total).toBe((await expected(coachActor(), {})).length);
+    // Membership is read in the same statement (decision 195).
+    expect(read.storedRole).toBe("coach");
+    expect((await read.answer()).total).toBe((await expected(coachActor(), {})).length);
     expect(texts).toHaveLength(1);
     expect(texts[0]).toMatch(/from "shot_tally"/);
   });

@@ -10,6 +10,7 @@ import { preparedBy } from "../../db/prepared";
 import { organization } from "../../db/auth-schema";
 import { clip, shot, shotResult, shotShare, shotTally, stick, trainingSession, user } from "../../db/schema";
 import type { Actor, Role } from "../member/role";
+import { viewerStoredRole } from "../member/repository";
 import { newestShotFirst } from "./date";
 import { listWhere, orderedIdsQuery, pageIdsQuery, summaryResults } from "./readout";
 import { seesWholeTeam } from "./visibility";
@@ -26,6 +27,8 @@ export interface PageRow {
   shareIds: string[];
 }
 export interface ListPage {
+  /** The viewer's stored role in the team, read by the same statement (decision 195); null for a non-member. */
+  storedRole: string | null;
   total: number;
   rows: PageRow[];
   players: { id: string; name: string }[];
@@ -131,6 +134,8 @@ const pageQuery = preparedBy("shot_list_page", (name, key: string) => {
   const a = viewer(role);
   return db()
     .select({
+      // Membership in the same statement (decision 195): the answer is made only for this role.
+      storedRole: viewerStoredRole,
       total: totalOf(a, f).mapWith(Number),
       rows: sql<string>`${rowsOf(a, f, opening)}`,
       players: sql<string>`(select coalesce(json_agg(json_build_object('id', ${user.id}, 'name', ${user.name})), '[]')::text from ${user} where ${user.id} in (${distinctVisible(a, shot.playerId)}))`,
@@ -148,9 +153,10 @@ export async function shotListPage(a: Actor, f: Filters, page: { limit: number; 
     teamId: a.teamId, viewerId: a.userId, ...(opening ? {} : { limit: page.limit, offset: page.offset }),
     ...(f.playerId ? { playerId: f.playerId } : {}), ...(f.stickId ? { stickId: f.stickId } : {}), ...(f.shotType ? { shotType: f.shotType } : {}),
   });
-  if (!row) return { total: 0, rows: [], players: [], sticks: [] };
+  if (!row) return { storedRole: null, total: 0, rows: [], players: [], sticks: [] };
   const rows = (JSON.parse(row.rows) as (Omit<PageRow, "summary"> & { summary: unknown })[]).map((r) => ({ ...r, summary: summaryResults(r.summary) }));
   return {
+    storedRole: row.storedRole,
     total: row.total,
     rows,
     players: (JSON.parse(row.players) as ListPage["players"]).sort((x, y) => x.name.localeCompare(y.name)),
