@@ -16,7 +16,7 @@ import { endMotion } from "./smoothing-bias";
 import { bladeSource, worldTrack, type BladePoint, type Source, type SourceKey } from "./sources";
 import { storedEnergy } from "./stored-energy";
 import { describeIrregularity, rateTimeBase, timesOf, type TimeBase } from "./time-base";
-import { derivativeAt, gridSegments, lowerBound, smoothSegment } from "./track-smoothing";
+import { gridSegments, lowerBound, smoothSegment, speedAt } from "./track-smoothing";
 import { hashNumbers, normalSource, spreadOf, uniformSource, type Spread } from "./uncertainty";
 import { MIN_FLIGHT_MARKS, parseShotDocument, type ImageTrack } from "./validate-shot";
 import { ENGINE_VERSION } from "./version";
@@ -222,7 +222,7 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
     if (!s || opts.series === false) return out;
     for (const g of s.segments)
       for (let i = 0; i < g.frames.length; i++) {
-        const v = hypot(derivativeAt(g.sx, g.tS, i), derivativeAt(g.sy, g.tS, i));
+        const v = speedAt(g, i);
         if (g.marked[i] && Number.isFinite(v)) out.push(point(g.frames[i], g.label === "whole" ? side(g.frames[i]) : g.label, v));
       }
     return out;

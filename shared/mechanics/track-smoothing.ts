@@ -1,5 +1,6 @@
 import type { SegmentLabel } from "../schemas/shot-results";
 import { zeroLagLowPassPair } from "./butterworth";
+import { hypot } from "./hypot";
 import { rateTimeBase, type TimeBase } from "./time-base";
 
 // Tracks are cut at the impact frames (never filtered across puck strike), put on a uniform frame
@@ -171,33 +172,71 @@ function weighted3(v: ArrayLike<number>, a: number, w0: number, w1: number, w2: 
   return d / 1000;
 }
 
-/**
- * d/dt at sample i like numpy.gradient(v, t, edge_order=2)[i]; values in mm, times in s, result
- * in m/s. The weights of gradientWeights written out in place (the same arithmetic, no object per
- * sample: the series run this over every sample of the puck and the blade). NaN for one sample.
- */
-export function derivativeAt(v: ArrayLike<number>, tS: ArrayLike<number>, i: number): number {
-  const n = v.length;
-  if (n === 1) return NaN;
+/** d/dt at sample i of x (and of y, when given) into `out`: numpy.gradient's weights, computed once for both. */
+function derivativesAt(x: ArrayLike<number>, y: ArrayLike<number> | null, tS: ArrayLike<number>, i: number, out: Float64Array): void {
+  const n = x.length;
+  if (n === 1) {
+    out[0] = out[1] = NaN;
+    return;
+  }
   if (n === 2) {
     const h = tS[1] - tS[0];
-    let d = (-1 / h) * v[0];
-    d += (1 / h) * v[1];
-    return d / 1000;
+    let d = (-1 / h) * x[0];
+    d += (1 / h) * x[1];
+    out[0] = d / 1000;
+    if (y) {
+      let e = (-1 / h) * y[0];
+      e += (1 / h) * y[1];
+      out[1] = e / 1000;
+    }
+    return;
   }
+  let a: number;
+  let w0: number;
+  let w1: number;
+  let w2: number;
   if (i === 0) {
     const d1 = tS[1] - tS[0];
     const d2 = tS[2] - tS[1];
-    return weighted3(v, 0, -(2 * d1 + d2) / (d1 * (d1 + d2)), (d1 + d2) / (d1 * d2), -d1 / (d2 * (d1 + d2)));
-  }
-  if (i === n - 1) {
+    a = 0;
+    w0 = -(2 * d1 + d2) / (d1 * (d1 + d2));
+    w1 = (d1 + d2) / (d1 * d2);
+    w2 = -d1 / (d2 * (d1 + d2));
+  } else if (i === n - 1) {
     const d1 = tS[n - 2] - tS[n - 3];
     const d2 = tS[n - 1] - tS[n - 2];
-    return weighted3(v, n - 3, d2 / (d1 * (d1 + d2)), -(d1 + d2) / (d1 * d2), (2 * d2 + d1) / (d2 * (d1 + d2)));
+    a = n - 3;
+    w0 = d2 / (d1 * (d1 + d2));
+    w1 = -(d1 + d2) / (d1 * d2);
+    w2 = (2 * d2 + d1) / (d2 * (d1 + d2));
+  } else {
+    const hs = tS[i] - tS[i - 1];
+    const hd = tS[i + 1] - tS[i];
+    a = i - 1;
+    w0 = -hd / (hs * (hs + hd));
+    w1 = (hd - hs) / (hs * hd);
+    w2 = hs / (hd * (hs + hd));
   }
-  const hs = tS[i] - tS[i - 1];
-  const hd = tS[i + 1] - tS[i];
-  return weighted3(v, i - 1, -hd / (hs * (hs + hd)), (hd - hs) / (hs * hd), hs / (hd * (hs + hd)));
+  out[0] = weighted3(x, a, w0, w1, w2);
+  if (y) out[1] = weighted3(y, a, w0, w1, w2);
+}
+
+const scratch2 = new Float64Array(2);
+
+/**
+ * d/dt at sample i like numpy.gradient(v, t, edge_order=2)[i]; values in mm, times in s, result
+ * in m/s. The weights of gradientWeights written out in place (the same arithmetic, no object per
+ * sample). NaN for one sample.
+ */
+export function derivativeAt(v: ArrayLike<number>, tS: ArrayLike<number>, i: number): number {
+  derivativesAt(v, null, tS, i, scratch2);
+  return scratch2[0];
+}
+
+/** Speed (m/s) of a smoothed piece at grid index i, √(vx² + vy²) with the weights computed once: the series run this on every sample. */
+export function speedAt(s: SmoothSegment, i: number): number {
+  derivativesAt(s.sx, s.sy, s.tS, i, scratch2);
+  return hypot(scratch2[0], scratch2[1]);
 }
 
 /** d/dt of every sample, like numpy.gradient(v, t, edge_order=2) (derivativeAt at each). */
@@ -209,7 +248,8 @@ export function gradientMps(v: Float64Array, tS: ArrayLike<number>): Float64Arra
 
 /** Velocity (m/s) of a smoothed piece at grid index i: NaN for a one-sample piece. */
 export function velocityAt(s: SmoothSegment, i: number): [vx: number, vy: number] {
-  return [derivativeAt(s.sx, s.tS, i), derivativeAt(s.sy, s.tS, i)];
+  derivativesAt(s.sx, s.sy, s.tS, i, scratch2);
+  return [scratch2[0], scratch2[1]];
 }
 
 /** Smooth a grid segment at cutoffHz (null = raw); velocityAt differentiates it against the samples' times. */
