@@ -176,6 +176,9 @@ export type ClipPatch = z.infer<typeof ClipPatchSchema>;
 export const clipSorts = ["created", "title", "player", "session", "shotType", "captureFps", "frames", "status"] as const;
 export type ClipSort = (typeof clipSorts)[number];
 
+/** Clips a page of the clips table holds, unless the request asks for another size. */
+export const CLIP_PAGE_SIZE = 20;
+
 export const ClipListQuerySchema = z.object({
   playerId: opaqueId("playerId").optional(),
   sessionId: z.uuid("Unknown session").optional(),
@@ -184,7 +187,7 @@ export const ClipListQuerySchema = z.object({
   sort: z.enum(clipSorts).default("created"),
   dir: z.enum(["asc", "desc"]).default("desc"),
   page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(100).default(20),
+  pageSize: z.coerce.number().int().min(1).max(100).default(CLIP_PAGE_SIZE),
 });
 export type ClipListQuery = z.input<typeof ClipListQuerySchema>;
 

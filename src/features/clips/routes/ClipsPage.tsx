@@ -1,14 +1,14 @@
 import { useSearchParams } from "react-router-dom";
 import { Button, Card, EmptyState, PageHeader, PageSpinner, LoadError, Pager } from "@/components/ui";
 import { useActiveTeam } from "@/lib/session";
-import { clipSorts, clipStatuses, shotTypes, type ClipListQuery, type ClipSort } from "@shared/schemas/clips";
+import { CLIP_PAGE_SIZE, clipSorts, clipStatuses, shotTypes, type ClipListQuery, type ClipSort } from "@shared/schemas/clips";
 import { useClipOptions } from "@/entities/clip";
 import { useClips } from "../api/clips";
 import { ClipFilters, type FilterValues } from "../components/ClipFilters";
 import { ClipsTable } from "../components/ClipsTable";
 import { UploadPanel } from "../components/UploadPanel";
 
-const PAGE_SIZE = 20;
+const PAGE_SIZE = CLIP_PAGE_SIZE;
 const oneOf = <T extends string>(all: readonly T[], v: string | null): T | undefined => (v && (all as readonly string[]).includes(v) ? (v as T) : undefined);
 
 export function Component() {
