@@ -1,15 +1,20 @@
 // The shot's grey frames between the decoder and the tracker. The tracker takes each frame once,
 // back from the seed frame, then on from it, and gives it back when done with it. Frames before
 // the seed wait in memory up to a budget and beyond it in a file in the job's folder, so a long 4K
-// shot does not exhaust memory; past the seed the decoder is held a few frames ahead of the
-// tracker. Frame buffers given back are decoded into again: a shot's worth of fresh 1 MB buffers
-// made the garbage collector sweep the worker's whole heap (OpenCV's included) every few frames.
+// shot does not exhaust memory; past the seed the decoder is held some frames ahead of the
+// tracker. Frame buffers given back are decoded into again, so only that many are ever alive:
+// a shot's worth of 1 MB buffers alive at once cost the worker about as much CPU as the tracking.
 import { open, type FileHandle } from "node:fs/promises";
 import path from "node:path";
 import type { FrameSource, GrayFrame } from "../../shared/tracking/types";
 
-/** Frames past the seed decoded ahead of the tracker by default: enough that it never waits. */
-const AHEAD = 24;
+/**
+ * Frames past the seed decoded ahead of the tracker by default: a quarter of the memory budget, at
+ * most 120 (8 at least). The decoder runs niced; held close (24 frames) on a busy machine the
+ * tracker kept waiting for it, and its CPU per frame rose (bench:track, decision 155).
+ */
+const AHEAD_MAX = 120;
+const AHEAD_MIN = 8;
 
 export class FrameStore implements FrameSource {
   readonly length: number;
@@ -46,6 +51,11 @@ export class FrameStore implements FrameSource {
     this.bytes = o.width * o.height;
   }
 
+  /** Frames past the seed the decoder may run ahead of the tracker. */
+  get aheadLimit() {
+    return this.o.aheadFrames ?? Math.max(AHEAD_MIN, Math.min(AHEAD_MAX, Math.floor(this.o.budgetBytes / 4 / this.bytes)));
+  }
+
   /** A buffer for the decoder's next frame: one given back, or a new one. */
   buffer(): Uint8Array {
     return this.pool.pop() ?? new Uint8Array(this.bytes);
@@ -71,7 +81,7 @@ export class FrameStore implements FrameSource {
   async put(index: number, data: Uint8Array) {
     if (this.closed) return;
     if (this.isAhead(index)) {
-      while (this.aheadHeld >= (this.o.aheadFrames ?? AHEAD) && !this.closed) await new Promise<void>((r) => this.room.push(r));
+      while (this.aheadHeld >= this.aheadLimit && !this.closed) await new Promise<void>((r) => this.room.push(r));
       if (this.closed) return;
       this.aheadHeld++;
     }

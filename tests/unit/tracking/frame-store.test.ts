@@ -74,6 +74,14 @@ describe("FrameStore", () => {
     expect(s.heldInMemory).toBe(2);
   });
 
+  it("by default runs ahead by a quarter of the memory budget, 8 to 120 frames", () => {
+    const at = (width: number, height: number, mb: number) => new FrameStore({ first: 1, last: 9, width, height, budgetBytes: mb * 1024 * 1024, spillDir: os.tmpdir(), seedFrame: 1 }).aheadLimit;
+    expect(at(1280, 720, 768)).toBe(120);
+    expect(at(1920, 1080, 768)).toBe(97);
+    expect(at(3840, 2160, 768)).toBe(24);
+    expect(at(3840, 2160, 16)).toBe(8);
+  });
+
   it("a frame given back is decoded into again; one not handed over, or given back twice, is not taken", async () => {
     const s = store(8);
     const first = s.buffer();
