@@ -14,7 +14,6 @@ import { decodeGrayFrames, isRetryable, withJobDir } from "../media";
 import { clipKeys } from "../storage";
 import { mediaConfig, storage } from "../clips/deps";
 import { FrameStore } from "../tracking/frame-store";
-import { jobPolicies } from "./types";
 import { buildProposals } from "../tracking/proposals";
 import * as repo from "../entities/tracking-run/repository";
 import { isTrackInputError } from "../../shared/tracking/errors";
@@ -77,16 +76,11 @@ export async function runTracking(runId: string, job: TrackRun): Promise<TrackOu
         input = path.join(dir, "original");
         await pipeline((await st.get(originalKey)).body, createWriteStream(input));
       }
-      const store = new FrameStore({
-        first, last, seedFrame: run.seedFrame, width: work.width!, height: work.height!, budgetBytes: env().TRACK_MEMORY_MB * 1024 * 1024, spillDir: dir,
-      });
+      const store = new FrameStore({ first, last, width: work.width!, height: work.height!, budgetBytes: env().TRACK_MEMORY_MB * 1024 * 1024, spillDir: dir });
       const decoding = decodeGrayFrames(mediaConfig(), {
         input, videoStreamIndex: work.probe?.videoStreamIndex ?? 0, first, last, width: work.width!, height: work.height!, signal: abort.signal,
         pixelFormat: work.probe?.pixelFormat, colorRange: work.probe?.colorRange, interlaced: work.probe?.interlaced, pixelAspect: work.probe?.pixelAspect,
-        // Held a few frames ahead of the tracker, the decoder runs as long as the tracking does.
-        timeoutMs: jobPolicies["shot.track"].expireInSeconds * 1000,
         onFrame: (f, data) => store.put(f, data),
-        buffer: () => store.buffer(),
       }).then(
         (n) => store.end(n === last - first + 1 ? undefined : new Error(`the clip gave ${n} of the shot's ${last - first + 1} frames`)),
         (err) => {
@@ -106,8 +100,8 @@ export async function runTracking(runId: string, job: TrackRun): Promise<TrackOu
         return tracked;
       } finally {
         abort.abort(new RunGone("finished"));
-        await store.close(); // lets a decoder held back go, so it can stop
         await decoding.catch(() => undefined);
+        await store.close();
       }
     });
     await writes;

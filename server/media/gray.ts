@@ -72,8 +72,6 @@ export interface GrayDecodeOptions extends GraySpecInput {
    * returned promise holds the decoder back (not counted as a stalled decoder).
    */
   onFrame: (frame: number, data: Uint8Array) => void | Promise<void>;
-  /** Where to decode the next frame: a width × height buffer to reuse. Default a new one each frame. */
-  buffer?: () => Uint8Array;
 }
 
 /** While a consumer holds the decoder back, the stall watchdog is told it is not stuck this often. */
@@ -85,11 +83,6 @@ export async function decodeGrayFrames(config: MediaConfig, o: GrayDecodeOptions
   if (!(bytes > 0) || o.first < 1 || o.last < o.first) throw new RangeError(`bad grey decode request: ${o.width}×${o.height}, frames ${o.first}–${o.last}`);
   const spec = buildGraySpec(o);
   const args = buildFfmpegArgs(spec, { threads: config.threads ?? 2 });
-  const nextBuffer = () => {
-    const b = o.buffer?.() ?? new Uint8Array(bytes);
-    if (b.length !== bytes) throw new RangeError(`a frame buffer of ${b.length} bytes for ${o.width}×${o.height} frames`);
-    return b;
-  };
   let frame: Uint8Array | null = null;
   let beat = () => {};
   let filled = 0;
@@ -105,7 +98,7 @@ export async function decodeGrayFrames(config: MediaConfig, o: GrayDecodeOptions
       let at = 0;
       while (at < chunk.length) {
         const n = Math.min(bytes - filled, chunk.length - at);
-        frame ??= nextBuffer();
+        frame ??= new Uint8Array(bytes);
         frame.set(chunk.subarray(at, at + n), filled);
         filled += n;
         at += n;

@@ -222,14 +222,12 @@ export async function trackShot(req: ShotTrackRequest, onProgress?: (p: ShotTrac
             }
           }
         }
-        frames.release?.(frame);
         onProgress?.({ ...progress });
       }
     };
 
     await pass(-1);
     await pass(1);
-    frames.release?.(seedImage);
     for (const k of seeded) tracks[k]!.proposals.sort((a, b) => a.frame - b.frame);
     onProgress?.({ done: total, total });
     return { tracks, puck, work: total };

@@ -15,8 +15,6 @@ export interface FrameSource {
   frame(index: number, signal?: AbortSignal): Promise<GrayFrame>;
   /** Frames to ask for ahead of the one being matched (default 2); more when decodes run in parallel. */
   readonly prefetch?: number;
-  /** The tracker is done with a frame it was given (it keeps no reference): its buffer may be reused. */
-  release?(frame: GrayFrame): void;
 }
 
 /** A landmark position on one frame. */
