@@ -251,7 +251,6 @@ export async function runTool(config: MediaConfig, o: RunOptions): Promise<RunRe
   });
 
   const result = await sub;
-  if (process.env.DBGP) console.log("sub done");
   // The pipe may still hold the last frames while the consumer works: read to its end.
   await stdoutEnded;
   for (let seen: Promise<void> | null = null; seen !== consuming; ) await (seen = consuming);
