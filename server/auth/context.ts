@@ -1,7 +1,8 @@
 import type { NextFunction, Request, Response } from "express";
 import { fromNodeHeaders } from "better-auth/node";
 import { auth } from "./auth";
-import { HttpError, notFound, unauthenticated } from "../http/problem";
+import type { z } from "zod";
+import { HttpError, notFound, unauthenticated, zodToHttp } from "../http/problem";
 import { LRUCache } from "lru-cache";
 import { roleIn } from "../entities/member/repository";
 import { parseRole, type Role } from "../entities/member/role";
@@ -52,19 +53,23 @@ export async function readSession(req: Request): Promise<SignedIn | null> {
 }
 const recent = sessionMemo<SignedIn>();
 
-export async function requireUser(req: Request, _res: Response, next: NextFunction) {
-  const s = await readSession(req);
+/** The signed-in person, read once per request; 401 when signed out. */
+async function signedInOr401(req: Request): Promise<SignedIn> {
+  const s = req.signedIn ?? (await readSession(req));
   if (!s) throw unauthenticated();
   req.signedIn = s;
+  return s;
+}
+
+export async function requireUser(req: Request, _res: Response, next: NextFunction) {
+  await signedInOr401(req);
   next();
 }
 
 
 /** For routers mounted at /api/teams/:teamId — sets req.actor or answers 401/404. */
 export async function requireTeamMember(req: Request, _res: Response, next: NextFunction) {
-  const s = req.signedIn ?? (await readSession(req));
-  if (!s) throw unauthenticated();
-  req.signedIn = s;
+  const s = await signedInOr401(req);
   const teamId = String(req.params.teamId ?? "");
   const role = await roleIn(s.user.id, teamId);
   if (!role) throw notFound("That team");
@@ -96,9 +101,7 @@ const lastRoles = new LRUCache<string, Role>({ max: 10_000 });
  * does not hold at the moment of the read.
  */
 export async function readAsTeamMember<T>(req: Request, read: (a: Actor) => Promise<ReadWithRole<T>>): Promise<T> {
-  const s = req.signedIn ?? (await readSession(req));
-  if (!s) throw unauthenticated();
-  req.signedIn = s;
+  const s = await signedInOr401(req);
   const teamId = String(req.params.teamId ?? "");
   const key = `${s.user.id}\u0000${teamId}`;
   let role = lastRoles.get(key) ?? (await roleIn(s.user.id, teamId));
@@ -116,6 +119,23 @@ export async function readAsTeamMember<T>(req: Request, read: (a: Actor) => Prom
   lastRoles.delete(key);
   if (role) throw new HttpError(503, "busy", "Your role in this team changed while this page was read. Try again.");
   throw notFound("That team");
+}
+
+/**
+ * readAsTeamMember for a read whose query string `schema` checks: a bad query is refused (422)
+ * only once the caller is known to be a member, as on every team route (a non-member gets 404).
+ */
+export function readQueryAsTeamMember<S extends z.ZodType, T>(req: Request, schema: S, read: (a: Actor, q: z.output<S>) => Promise<ReadWithRole<T>>): Promise<T> {
+  const q = schema.safeParse(req.query);
+  return readAsTeamMember(req, async (a) =>
+    q.success
+      ? read(a, q.data)
+      : {
+          answer: (): never => {
+            throw zodToHttp(q.error);
+          },
+        },
+  );
 }
 
 export function actorOf(req: Request): Actor {

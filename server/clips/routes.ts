@@ -1,8 +1,8 @@
 import { Router, type Request, type RequestHandler, type Response } from "express";
 import { z } from "zod";
-import { actorOf, readAsTeamMember } from "../auth/context";
+import { actorOf, readQueryAsTeamMember } from "../auth/context";
 import { sendJsonText } from "../http/json-answer";
-import { HttpError, zodToHttp } from "../http/problem";
+import { HttpError } from "../http/problem";
 import { parse } from "../http/validate";
 import { streamPolled } from "../http/polled-stream";
 import { clipKeys } from "../storage";
@@ -19,16 +19,9 @@ export const clipsRouter = Router({ mergeParams: true });
 /**
  * GET /api/teams/:teamId/clips, the clips table: a hot read mounted ahead of the team's routers
  * (server/routes.ts), whose one statement checks membership and builds the page (decision 195).
- * A bad query is refused only once the caller is known to be a member, as on every team route.
  */
 export const clipListRoute: RequestHandler = async (req, res) => {
-  const q = ClipListQuerySchema.safeParse(req.query);
-  const refused = (err: z.ZodError) => ({
-    answer: (): string => {
-      throw zodToHttp(err);
-    },
-  });
-  sendJsonText(res, await readAsTeamMember(req, async (a) => (q.success ? svc.listText(a, q.data) : refused(q.error))));
+  sendJsonText(res, await readQueryAsTeamMember(req, ClipListQuerySchema, svc.listText));
 };
 
 const FrameNumber = z.coerce.number({ message: "Frame numbers start at 1" }).int("Frame numbers are whole numbers").min(1, "Frame numbers start at 1");

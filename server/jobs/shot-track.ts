@@ -79,7 +79,7 @@ export async function runTracking(runId: string, job: TrackRun): Promise<TrackOu
       const store = new FrameStore({ first, last, width: work.width!, height: work.height!, budgetBytes: env().TRACK_MEMORY_MB * 1024 * 1024, spillDir: dir });
       const decoding = decodeGrayFrames(mediaConfig(), {
         input, videoStreamIndex: work.probe?.videoStreamIndex ?? 0, first, last, width: work.width!, height: work.height!, signal: abort.signal,
-        pixelFormat: work.probe?.pixelFormat, colorRange: work.probe?.colorRange, interlaced: work.probe?.interlaced, pixelAspect: work.probe?.pixelAspect,
+        pixelFormat: work.probe?.pixelFormat, colorRange: work.probe?.colorRange, interlaced: work.probe?.interlaced, pixelAspect: work.probe?.pixelAspect, bitsPerSample: work.probe?.bitsPerSample,
         onFrame: (f, data) => store.put(f, data),
       }).then(
         (n) => store.end(n === last - first + 1 ? undefined : new Error(`the clip gave ${n} of the shot's ${last - first + 1} frames`)),

@@ -30,7 +30,7 @@ export type ExtractProbe = Pick<ProbeResult, "frameCount" | "videoStreamIndex" |
  * the full 16 bits, so the 8-bit frames get its levels rather than only its dark high byte
  * (decision 138). Null for anything else.
  */
-export function fullBitDepth(p: Pick<ExtractProbe, "pixelFormat" | "bitsPerSample">): string | null {
+export function fullBitDepth(p: { pixelFormat?: string | null; bitsPerSample?: number | null }): string | null {
   const bits = p.bitsPerSample ?? 16;
   if (!/(16|48|64)(le|be)$/.test(p.pixelFormat ?? "") || bits <= 8 || bits >= 16) return null;
   const f = p.pixelFormat ?? "";

@@ -2,7 +2,7 @@
 // round trip. Frames are numbered as the extraction numbers them (every decoded frame, in order,
 // the first is 1, the same rotation), so frame n here is the picture the analyst marked as frame n.
 import { buildFfmpegArgs, type FfmpegSpec } from "./command";
-import { deinterlace, squarePixels } from "./extract";
+import { deinterlace, fullBitDepth, squarePixels } from "./extract";
 import { FfmpegError } from "./errors";
 import { runTool, type MediaConfig } from "./ffmpeg";
 
@@ -18,6 +18,8 @@ export interface GraySpecInput {
   /** As the extraction: an interlaced clip's fields are pictures of their own, non-square pixels are widened. */
   interlaced?: boolean;
   pixelAspect?: number | null;
+  /** Bits the samples carry (12-bit data in 16-bit samples is scaled up, as the extraction does). */
+  bitsPerSample?: number | null;
 }
 
 // 8-bit planar YUV: its luma plane already is the grey picture, so it is taken as it is
@@ -41,10 +43,13 @@ export function lumaFilters(s: Pick<GraySpecInput, "pixelFormat" | "colorRange">
 export function buildGraySpec(s: GraySpecInput): FfmpegSpec {
   // trim ends the stream after `last`, so ffmpeg stops decoding there instead of at the clip's end.
   // A rotated clip is turned before these filters (ffmpeg puts its autorotation first).
-  // The extraction's geometry (extract.ts), so frame n is its frame n: fields split before trim counts them.
+  // The extraction's geometry and levels (extract.ts), so frame n is its frame n: fields split
+  // before trim counts them, 12-bit samples in 16 bits scaled up rather than read as their dark high byte.
+  const levels = fullBitDepth(s);
   const chain = [
     ...(s.interlaced ? [deinterlace] : []),
     `trim=start_frame=${s.first - 1}:end_frame=${s.last}`,
+    ...(levels ? [levels] : []),
     ...lumaFilters(s),
     ...(s.pixelAspect && Math.abs(s.pixelAspect - 1) > 1e-6 ? [squarePixels] : []),
   ];

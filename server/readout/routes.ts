@@ -1,7 +1,6 @@
 import { Router, type Request, type RequestHandler, type Response } from "express";
-import { actorOf, readAsTeamMember } from "../auth/context";
+import { actorOf, readAsTeamMember, readQueryAsTeamMember } from "../auth/context";
 import { parse } from "../http/validate";
-import { zodToHttp } from "../http/problem";
 import { sendJsonText } from "../http/json-answer";
 import { CompareQuery, ExportQuery, ProgressQuery, PublishShotBody, ReviewSettings, ShareShotBody, ShotListPageQuery } from "../../shared/schemas/readout";
 import type { FileAnswer } from "./exports";
@@ -26,18 +25,7 @@ export const shotReadoutRoute: RequestHandler = async (req, res) => {
 
 /** The Shots page's list, a hot read (decision 195): a bad query is refused only once membership is known. */
 export const shotListRoute: RequestHandler = async (req, res) => {
-  const q = ShotListPageQuery.safeParse(req.query);
-  res.json(
-    await readAsTeamMember(req, async (a) =>
-      q.success
-        ? svc.listShots(a, q.data)
-        : {
-            answer: (): never => {
-              throw zodToHttp(q.error);
-            },
-          },
-    ),
-  );
+  res.json(await readQueryAsTeamMember(req, ShotListPageQuery, svc.listShots));
 };
 
 function sendFile(res: Response, f: FileAnswer) {

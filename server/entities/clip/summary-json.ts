@@ -1,7 +1,7 @@
 // A clip as the clips table shows it (ClipSummary), built by PostgreSQL as JSON: the SQL twin of
 // toSummary (server/clips/present.ts), which stays the definition. The clip list answers with this
-// text as it comes, so the web process neither parses 25 rows nor serialises them again
-// (docs/decisions/195-hot-reads-in-one-statement.md). tests/api/clip-list-json.test.ts holds the
+// text as it comes, so the web process neither parses a page of rows nor serialises it again
+// (docs/decisions/195-hot-reads-in-one-statement.md). tests/api/hot-reads.test.ts holds the
 // two equal, key for key, over clips in every state.
 import { sql } from "drizzle-orm";
 import type { AnyPgColumn } from "drizzle-orm/pg-core";

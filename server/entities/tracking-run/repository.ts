@@ -139,7 +139,6 @@ export async function quietRuns(staleMs: number) {
     .where(and(inArray(trackingRun.status, LIVE), lt(trackingRun.updatedAt, new Date(Date.now() - staleMs))));
 }
 
-/** What a run needs of its shot and clip to decode and track. */
 /** What the grey decode needs of the clip's stored probe (server/media/probe.ts). */
 interface ClipDecodeFacts {
   videoStreamIndex?: number;
@@ -147,8 +146,10 @@ interface ClipDecodeFacts {
   colorRange?: string | null;
   interlaced?: boolean;
   pixelAspect?: number | null;
+  bitsPerSample?: number | null;
 }
 
+/** What a run needs of its shot and clip to decode and track. */
 export async function workOf(shotId: string) {
   const [row] = await db()
     .select({

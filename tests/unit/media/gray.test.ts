@@ -79,6 +79,32 @@ describe("decodeGrayFrames on other sources", () => {
   });
 });
 
+describe("decodeGrayFrames on 12-bit data in 16-bit samples", () => {
+  it("scales the samples up as the extraction does (decision 138): the full picture's grey, not its dark high byte", async () => {
+    // The same picture at full 16 bits and as a camera's 12-bit samples (0–4095) in 16-bit words,
+    // both lossless; the stored probe says 12 bits (a PNG sequence's sBIT, clips-sequences.test.ts).
+    const src = "testsrc2=size=256x96:rate=30";
+    const full = path.join(dir, "gray16-full.mkv");
+    const twelve = path.join(dir, "gray16-12bit.mkv");
+    await ffmpeg(["-f", "lavfi", "-i", src, "-frames:v", "6", "-vf", "format=gray16le", "-c:v", "ffv1", full]);
+    await ffmpeg(["-f", "lavfi", "-i", src, "-frames:v", "6", "-vf", "format=gray16le,lut=c0=val/16", "-c:v", "ffv1", twelve]);
+    const reference = await plainFfmpeg(full);
+    const size = 256 * 96;
+    const decode = async (bitsPerSample: number | null) => {
+      const got: Uint8Array[] = [];
+      await decodeGrayFrames(testMedia(), { input: twelve, videoStreamIndex: 0, pixelFormat: "gray16le", bitsPerSample, first: 1, last: 6, width: 256, height: 96, onFrame: (_f, d) => void got.push(d) });
+      return got;
+    };
+    const maxDiff = (frames: Uint8Array[]) => Math.max(...frames.map((d, i) => Math.max(...d.map((v, k) => Math.abs(v - reference[i * size + k])))));
+    // Scaled up, every pixel within one level of the full picture (the 4 dropped bits can round it).
+    const scaled = await decode(12);
+    expect(scaled).toHaveLength(6);
+    expect(maxDiff(scaled)).toBeLessThanOrEqual(1);
+    // Read as 16-bit words, the picture is a sixteenth as bright.
+    expect(maxDiff(await decode(null))).toBeGreaterThan(100);
+  });
+});
+
 describe("decodeGrayFrames", () => {
   it("gives every frame of a range with its clip frame number, byte for byte what ffmpeg gives", async () => {
     const all = await plainFfmpeg(clip);
