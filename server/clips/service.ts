@@ -15,6 +15,7 @@ import * as memberRepo from "../entities/member/repository";
 import { countClipShotsOf } from "../entities/shot/players";
 import { shotsAndMarksOfClip } from "../entities/shot/repository";
 import { isUuid } from "../http/ids";
+import { answerCache, answerKey } from "../http/answer-cache";
 import * as repo from "../entities/clip/repository";
 import * as stickRepo from "../entities/stick/repository";
 
@@ -50,14 +51,19 @@ export async function options(a: Actor): Promise<ClipOptions> {
  * caller (decision 195): PostgreSQL builds the rows' JSON, so this process neither parses nor
  * serialises them.
  */
-export async function listText(a: Actor, q: z.output<typeof ClipListQuerySchema>): Promise<ReadWithRole<string>> {
+export async function listText(a: Actor, q: z.output<typeof ClipListQuerySchema>): Promise<ReadWithRole<{ text: string; tag?: string }>> {
   const page = (items: string, total: number) => `{"items":${items},"total":${total},"page":${q.page},"pageSize":${q.pageSize}}`;
   // Players see only the clips of their own shots.
   const playerId = policy.listClips(a) ? q.playerId : a.userId;
-  if (!policy.listClips(a) && q.playerId && q.playerId !== a.userId) return { answer: () => page("[]", 0) };
-  const r = await repo.clipPageText(a, { playerId, sessionId: q.sessionId, shotType: q.shotType, status: q.status }, q.sort, q.dir, q.page, q.pageSize);
-  return { storedRole: r.role, answer: () => page(r.items ?? "[]", r.total) };
+  if (!policy.listClips(a) && q.playerId && q.playerId !== a.userId) return { answer: () => ({ text: page("[]", 0) }) };
+  // The page this process sent last for exactly this ask, if any: the statement sends the page
+  // again only when the team's change stamp moved (decision 192).
+  const key = answerKey(a, q);
+  const known = clipPages.known(key);
+  const r = await repo.clipPageText(a, { playerId, sessionId: q.sessionId, shotType: q.shotType, status: q.status }, q.sort, q.dir, q.page, q.pageSize, known?.stamp);
+  return { storedRole: r.role, answer: () => (known?.stamp === r.stamp ? known : clipPages.keep(key, r.stamp, page(r.items ?? "[]", r.total))) };
 }
+const clipPages = answerCache();
 
 export const get = async (a: Actor, id: string): Promise<ClipDetail> => toDetail(await visibleClip(a, id));
 

@@ -28,11 +28,14 @@ export function prepared<P>(name: string, build: (name: string) => P): () => P {
  * statement answers one row of a few values, JSON text built by PostgreSQL among them
  * (docs/decisions/195-hot-reads-in-one-statement.md).
  */
-export function rawPrepared<R extends Record<string, unknown>>(name: string, build: () => SQL): (values: Record<string, unknown>) => Promise<R[]> {
+export function rawPrepared<R extends Record<string, unknown>>(name: string, build: () => SQL): ((values: Record<string, unknown>) => Promise<R[]>) & { text: () => string } {
   let made: { text: string; params: unknown[] } | undefined;
-  return async (values) => {
-    made ??= (({ sql: text, params }) => ({ text, params }))(new PgDialect().sqlToQuery(build()));
-    const r = await db().pool.query<R>({ name, text: made.text, values: fillPlaceholders(made.params, values) });
+  const make = () => (made ??= (({ sql: text, params }) => ({ text, params }))(new PgDialect().sqlToQuery(build())));
+  const run = async (values: Record<string, unknown>) => {
+    const { text, params } = make();
+    const r = await db().pool.query<R>({ name, text, values: fillPlaceholders(params, values) });
     return r.rows;
   };
+  // The statement's SQL text (tests/api/answer-cache.test.ts reads which tables it reads).
+  return Object.assign(run, { text: () => make().text });
 }

@@ -217,6 +217,28 @@ export const shotTally = pgTable(
   (t) => [unique("shot_tally_key").on(t.teamId, t.playerId, t.stickId, t.shotType, t.published).nullsNotDistinct()],
 );
 
+/**
+ * What changed, for the answer caches of the hot reads (docs/decisions/192-answer-cache-with-a-change-stamp.md):
+ * one row per team and writing transaction, added by statement triggers on every table those reads
+ * read (migration answer_stamp), inside the writing transaction. A team's change stamp is its
+ * `answer_stamp.n` plus its rows here (and the same for "*", changes of a person's name, which any
+ * team may show): a committed write always raises it, and writers never wait for each other on it
+ * (each adds its own row). Rows are folded into `answer_stamp` now and then. The application never
+ * writes either table.
+ */
+export const answerChange = pgTable(
+  "answer_change",
+  {
+    teamId: text("team_id").notNull(),
+    xid: bigint("xid", { mode: "number" }).notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.teamId, t.xid] })],
+);
+export const answerStamp = pgTable("answer_stamp", {
+  teamId: text("team_id").primaryKey(),
+  n: bigint("n", { mode: "number" }).notNull(),
+});
+
 export const shotResult = pgTable("shot_result", {
   shotId: uuid("shot_id").primaryKey().references(() => shot.id, { onDelete: "cascade" }),
   teamId: teamRef(),

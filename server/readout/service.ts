@@ -16,6 +16,7 @@ import { mostCommonType, progressPoints, summarise } from "./progress";
 import * as memberRepo from "../entities/member/repository";
 import { isUuid } from "../http/ids";
 import { weakTagOf } from "../http/json-answer";
+import { answerCache, answerKey } from "../http/answer-cache";
 import * as repo from "../entities/shot/readout";
 import { shotListPage } from "../entities/shot/list-page";
 import { teamSettingsOf } from "../entities/team/repository";
@@ -78,19 +79,25 @@ export async function getReadout(a: Actor, shotId: string): Promise<ShotReadout>
  * a membership query before it (decision 195).
  */
 export async function readoutJson(a: Actor, shotId: string): Promise<ReadWithRole<{ text: string; tag: string }>> {
-  const row = isUuid(shotId) ? await repo.shotTextById(a, shotId) : null;
+  // The readout this process sent last for this person, role and shot, if any: the statement
+  // sends the shot again only when the team's change stamp moved (decision 192).
+  const key = answerKey(a, shotId);
+  const known = readouts.known(key);
+  const found = isUuid(shotId) ? await repo.shotTextById(a, shotId, known?.stamp) : null;
   return {
-    storedRole: row?.viewerRole,
+    storedRole: found?.viewerRole,
     answer: async () => {
-      const v = await seenAs(a, row, shotId, "That shot");
+      if (found && known?.stamp === found.stamp) return known;
+      const v = await seenAs(a, found?.row ?? null, shotId, "That shot");
       const { results: _none, ...rest } = await toReadout(a, v);
       const head = JSON.stringify(rest).slice(0, -1);
       const text = `${head},"results":${v.row.resultsText ?? "null"}}`;
       // Its validator from the head and the results' hash, which the shape check already took.
-      return { text, tag: weakTagOf(text.length, head, v.row.resultsHash ?? "") };
+      return readouts.keep(key, found!.stamp, text, weakTagOf(text.length, head, v.row.resultsHash ?? ""));
     },
   };
 }
+const readouts = answerCache();
 
 /**
  * The Shots page's request: one statement reads the caller's stored role, the page, its total and

@@ -4,6 +4,7 @@ import { alias } from "drizzle-orm/pg-core";
 import { db } from "../../db/client";
 import { preparedBy, rawPrepared } from "../../db/prepared";
 import { viewerStoredRole } from "../member/repository";
+import { knownStamp, teamStampSql } from "../../db/answer-stamp";
 import { clipSummaryJson } from "./summary-json";
 import { clip, shot, stick, trainingSession, user } from "../../db/schema";
 import { CLIP_PAGE_SIZE, type ClipSort, type ShotType } from "../../../shared/schemas/clips";
@@ -103,21 +104,29 @@ function buildPage(name: string, key: PageKey) {
     .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
     .leftJoin(stick, eq(stick.id, clip.stickId))
     .where(sql`${clip.id} = any(array(${ids}))`);
-  return rawPrepared<{ role: string | null; total: number | null; items: string | null }>(name, () =>
-    sql`select ${viewerStoredRole} as role, (${total}) as total, case when ${asAssumed} then (${items}) end as items`);
+  // The team's change stamp comes along, and the page only when it differs from the one of the
+  // answer the caller holds (decision 192).
+  const changed = sql`now.stamp is distinct from ${knownStamp}`;
+  return rawPrepared<{ role: string | null; stamp: string; total: number | null; items: string | null }>(name, () =>
+    sql`select ${viewerStoredRole} as role, now.stamp, case when ${changed} then (${total}) end as total,
+      case when ${asAssumed} and ${changed} then (${items}) end as items from (select ${teamStampSql} as stamp) now`);
 }
 
 /**
  * One page of the team's clips as the clips table shows it: `items` is the JSON text of the
  * ClipSummary array (null when `viewer.role` is not the viewer's stored role, which comes back as
- * `role`: null when not a member).
+ * `role`: null when not a member; null too when the team's change `stamp` is `knownStamp`, the
+ * stamp of the page the caller holds: nothing it shows has changed).
  */
-export async function clipPageText(viewer: Actor, f: ListFilter, sort: ClipSort, dir: "asc" | "desc", page: number, pageSize: number) {
+export async function clipPageText(viewer: Actor, f: ListFilter, sort: ClipSort, dir: "asc" | "desc", page: number, pageSize: number, knownStamp = "") {
   const used = filterKeys.filter((k) => f[k]);
-  const params = { viewerId: viewer.userId, teamId: viewer.teamId, assumedRole: viewer.role, ...Object.fromEntries(used.map((k) => [k, f[k]])), limit: pageSize, offset: (page - 1) * pageSize };
+  const params = { viewerId: viewer.userId, teamId: viewer.teamId, assumedRole: viewer.role, knownStamp, ...Object.fromEntries(used.map((k) => [k, f[k]])), limit: pageSize, offset: (page - 1) * pageSize };
   const [row] = await pageQueries(`${sort}:${dir}:${used.join(",")}:${pageSize === CLIP_PAGE_SIZE ? CLIP_PAGE_SIZE : ""}`)(params);
-  return { role: row.role, total: row.total ?? 0, items: row.items };
+  return { role: row.role, stamp: row.stamp, total: row.total ?? 0, items: row.items };
 }
+
+/** The SQL text of the clips table's statement with every filter set and the widest sort (which tables it reads, decision 192). */
+export const clipPageStatementText = () => pageQueries("player:asc:playerId,sessionId,shotType,status:").text();
 
 /** Inserts a clip; null when the team already has a clip with this checksum (unique index). */
 export async function insertClip(values: NewClipRow): Promise<ClipRow | null> {

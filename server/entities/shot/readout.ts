@@ -1,6 +1,7 @@
 import { createHash } from "node:crypto";
 import { and, asc, desc, eq, gt, isNotNull, isNull, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
+import type { SelectResultFields } from "drizzle-orm/query-builders/select.types";
 import { LRUCache } from "lru-cache";
 import { db } from "../../db/client";
 import { prepared, preparedBy } from "../../db/prepared";
@@ -10,6 +11,7 @@ import type { Actor } from "../member/role";
 import { newestShotFirst, shotDateSql } from "./date";
 import { shotVisibleWhere } from "./visibility";
 import { viewerStoredRole } from "../member/repository";
+import { knownStamp, teamStampSql } from "../../db/answer-stamp";
 import { ShotResults } from "../../../shared/schemas/shot-results";
 import type { ClipCalibration, ShotEventsDraft, ShotMarks } from "../../../shared/schemas/shots";
 import type { ShotListQuery } from "../../../shared/schemas/readout";
@@ -105,14 +107,26 @@ const sharesJson = sql<string>`(select coalesce(json_agg(json_build_object('shot
   left join ${user} b on b.id = s.shared_by
   where s.team_id = ${shot.teamId} and s.shot_id = ${shot.id})`;
 
+const textColumns = { ...withEverything, summary: sql<null>`null`, marks: marksWhenNoResults, results: sql<string | null>`${shotResult.results}::text`, shares: sharesJson };
 const shotTextQuery = prepared("readout_shot_text", (name) =>
-  // (joined() is typed for the readout's columns; the extra `shares` is read back as text below.)
-  // The caller's stored role comes along, and a non-member gets no row (decision 195). The results
-  // summary (~2 kB of JSON that pg would parse) is left out: the readout shows the full results.
-  joined({ ...withEverything, summary: sql<null>`null`, marks: marksWhenNoResults, results: sql<string | null>`${shotResult.results}::text`, ...{ shares: sharesJson, viewerRole: viewerStoredRole } })
-    .where(and(eq(shot.id, sql.placeholder("shotId")), eq(shot.teamId, sql.placeholder("teamId")), isNotNull(viewerStoredRole)))
+  // One row always: the caller's stored role (decision 195) and the team's change stamp (decision
+  // 192), with the shot's columns only for a member, when the shot is there and when the stamp
+  // differs from the one of the readout the caller holds (else they are null). The results summary
+  // (~2 kB of JSON that pg would parse) is left out: the readout shows the full results.
+  db()
+    .select({ ...textColumns, viewerRole: viewerStoredRole, stamp: sql<string>`now.stamp` })
+    .from(sql`(select ${teamStampSql} as stamp) now`)
+    .leftJoin(shot, and(eq(shot.id, sql.placeholder("shotId")), eq(shot.teamId, sql.placeholder("teamId")), isNotNull(viewerStoredRole), sql`now.stamp is distinct from ${knownStamp}`))
+    .leftJoin(clip, eq(clip.id, shot.clipId))
+    .leftJoin(trainingSession, eq(trainingSession.id, clip.sessionId))
+    .leftJoin(player, eq(player.id, shot.playerId))
+    .leftJoin(stick, eq(stick.id, shot.stickId))
+    .leftJoin(shotResult, eq(shotResult.shotId, shot.id))
     .prepare(name),
 );
+type TextRow = SelectResultFields<typeof textColumns>;
+/** The SQL text of one shot's readout statement (which tables it reads, decision 192). */
+export const readoutStatementText = () => shotTextQuery().getQuery().sql;
 // Whether a stored result has the engine's shape, by a hash of its exact text: the same text is
 // checked once per process, not parsed again on every read (hashing is a small part of parsing).
 const shapeChecked = new LRUCache<string, boolean>({ max: 20_000 });
@@ -121,18 +135,24 @@ const shapeChecked = new LRUCache<string, boolean>({ max: 20_000 });
  * The readout's row with the stored results as the JSON text PostgreSQL holds (the page's
  * largest part, tens of kB), for answering without parsing and re-serialising it (decision 175).
  * `results` is null where the stored value lacks the engine's shape, as in shotById. `viewerRole`
- * is the viewer's stored role in the team; no row when the viewer is not a member.
+ * is the viewer's stored role in the team (null when not a member) and `stamp` the team's change
+ * stamp; `row` is null when the viewer is not a member, the shot is not in the team, or `stamp`
+ * equals `knownStamp` (the stamp of the readout the caller holds: nothing it shows has changed).
  */
-export async function shotTextById(viewer: Pick<Actor, "userId" | "teamId">, shotId: string) {
-  const [row] = await shotTextQuery().execute({ teamId: viewer.teamId, shotId, viewerId: viewer.userId });
-  if (!row) return null;
+export async function shotTextById(viewer: Pick<Actor, "userId" | "teamId">, shotId: string, knownStamp = "") {
+  const [found] = await shotTextQuery().execute({ teamId: viewer.teamId, shotId, viewerId: viewer.userId, knownStamp });
+  const { viewerRole, stamp } = found;
+  return { viewerRole, stamp, row: found.id === null ? null : textRow(found as unknown as TextRow) };
+}
+
+function textRow(row: TextRow) {
   const text = row.results as string | null;
   const key = text === null ? "" : createHash("sha1").update(text).digest("base64");
   let ok = text === null ? false : shapeChecked.get(key);
   if (ok === undefined) shapeChecked.set(key, (ok = fullResults(JSON.parse(text!)) !== null));
-  const { shares: sharesText, viewerRole, ...rest } = row as typeof row & { shares: string; viewerRole: string | null };
+  const { shares: sharesText, ...rest } = row;
   const shares = sharesText === "[]" ? [] : (JSON.parse(sharesText) as (Omit<ShareDbRow, "sharedAt"> & { sharedAt: string })[]).map((x) => ({ ...x, sharedAt: new Date(x.sharedAt) }));
-  return { ...typed(rest), results: null, resultsText: ok ? text : null, resultsHash: ok ? key : "", marks: row.marks as ShotMarks | null, shares: shares as ShareDbRow[], viewerRole };
+  return { ...typed(rest), results: null, resultsText: ok ? text : null, resultsHash: ok ? key : "", marks: row.marks as ShotMarks | null, shares: shares as ShareDbRow[] };
 }
 
 /** The shots of the actor's team that the actor may see (entities/shot/visibility.ts), filtered. */
