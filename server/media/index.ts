@@ -15,4 +15,4 @@ export {
   type StripOptions,
 } from "./extract";
 export { extractClipFrames, jobTmpRoot, type ExtractClipOptions, type ExtractClipResult } from "./ingest";
-export { buildGraySpec, decodeGrayFrames, type GrayDecodeOptions, type GraySpecInput } from "./gray";
+export { buildGraySpec, decodeGrayFrames, grayFfmpegArgs, type GrayDecodeOptions, type GraySpecInput } from "./gray";

@@ -6,7 +6,7 @@ import { execa } from "execa";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import path from "node:path";
 import sharp from "sharp";
-import { buildGraySpec, decodeGrayFrames, extractFrames, FfmpegError, frameFileName, probe } from "../../../server/media";
+import { buildGraySpec, decodeGrayFrames, extractFrames, FfmpegError, frameFileName, grayFfmpegArgs, probe } from "../../../server/media";
 import { ffmpeg, makeClip, makeRotatedClip, tempDir, testMedia } from "./helpers";
 
 let dir: string;
@@ -41,6 +41,19 @@ describe("buildGraySpec", () => {
     expect(vf("yuvj420p", "pc")).toBe("trim=start_frame=0:end_frame=9,extractplanes=y");
     expect(vf("yuv444p", "pc")).toBe("trim=start_frame=0:end_frame=9,extractplanes=y");
     for (const f of ["yuv420p10le", "rgb24", "nv12", "gray16le", "yuva420p"]) expect(vf(f, "tv")).toBe("trim=start_frame=0:end_frame=9");
+  });
+});
+
+describe("grayFfmpegArgs", () => {
+  // Decision 147: the tracker works beside the decoder, so frame threads only cost CPU while one
+  // thread keeps up; larger frames keep the configured cap.
+  const threadsOf = (a: string[]) => ["-threads", "-filter_threads", "-filter_complex_threads"].map((flag) => a.flatMap((x, i) => (x === flag ? [a[i + 1]] : [])));
+  it("decodes up to 1280×720 with one thread (decoder and filters), larger frames with the configured cap", () => {
+    const at = (width: number, height: number, threads?: number) => threadsOf(grayFfmpegArgs({ threads }, { input: "/clips/a.mp4", videoStreamIndex: 0, first: 1, last: 9, width, height }));
+    expect(at(1280, 720)).toEqual([["1", "1"], ["1"], ["1"]]);
+    expect(at(720, 1280, 4)).toEqual([["1", "1"], ["1"], ["1"]]);
+    expect(at(1920, 1080)).toEqual([["2", "2"], ["2"], ["2"]]);
+    expect(at(3840, 2160, 4)).toEqual([["4", "4"], ["4"], ["4"]]);
   });
 });
 
