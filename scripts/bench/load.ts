@@ -5,6 +5,10 @@
 //     200 requests/s against a team of 50,000 shots (5,000 clips, 40 extra players, seeded in a
 //     throwaway database), with one web process and with two (WEB_PROCESSES=2): p50/p95/p99 and
 //     the web processes' CPU per request beside bare Express's (and the PostgreSQL backends' beside it); goal p95 < 50 ms.
+//     Repeated reads are answered from each process's kept answers (decision 192); two rows show
+//     reads no kept answer serves: the clip list with a write to the team before each request, and
+//     one shot's results for a random shot (each asked for about once).
+//     Then saving marks' two writes without and with the change-stamp triggers (their cost to writers).
 //  3. /api/health while 10 PDF reports render (they run in worker threads): goal p99 < 100 ms.
 //     Raw baseline in the same run: the same repository query straight to PostgreSQL, one at a
 //     time, without HTTP or sign-in; the ratio says what the API adds.
@@ -20,7 +24,7 @@ import os from "node:os";
 import path from "node:path";
 import pg from "pg";
 import * as tus from "tus-js-client";
-import { fmt, httpClient, openLoop, sequential, type Figures } from "./load-client";
+import { figures, fmt, httpClient, openLoop, sequential, type Figures } from "./load-client";
 import { BENCH_SIZE, seedBenchTeam } from "./load-seed";
 import { CLIP_PAGE_SIZE } from "../../shared/schemas/clips";
 
@@ -182,7 +186,13 @@ try {
     const status = await client.get(u, signal);
     return status === 200 || `status ${status}`;
   };
-  interface Scenario { name: string; rate: number; seconds: number; http: (i: number) => string; raw?: (i: number) => Promise<unknown> }
+  // A write to the team before each request of a scenario that says so: the team's change stamp
+  // moves, so no answer a web process kept can serve the read (decision 192).
+  const writer = new pg.Client({ connectionString: url });
+  await writer.connect();
+  const someClip = (await writer.query<{ id: string }>(`select id from clip where team_id = $1 limit 1`, [ids.teamId])).rows[0].id;
+  const touchTeam = () => writer.query(`update clip set frames_done = frames_done where id = $1`, [someClip]);
+  interface Scenario { name: string; rate: number; seconds: number; http: (i: number) => string; raw?: (i: number) => Promise<unknown>; writeFirst?: boolean }
   // What people do all day, at 200 requests/s with one and with two web processes.
   const busy: Scenario[] = [
     { name: "app /api/health (no database)", rate: RATE, seconds: SECONDS, http: () => `${base}/api/health` },
@@ -193,12 +203,24 @@ try {
       raw: (i) => clipRepo.clipPageText(coach, {}, "created", "desc", (i % 4) + 1, CLIP_PAGE_SIZE),
     },
     {
+      // What a read costs when the team changed since the page was kept: the Clips page's reads,
+      // each after a write (a one-row update through the bench's own connection, not the app's).
+      name: `clip list as above, each request after a write to the team (no kept page can serve it)`, rate: RATE, seconds: SECONDS, writeFirst: true,
+      http: (i) => `${team}/clips?page=${(i % 4) + 1}&pageSize=${CLIP_PAGE_SIZE}`,
+    },
+    {
+      // Each of 2,000 shots is asked for about once: the first read of a shot, which no kept answer serves.
       name: "shot results (one shot's readout, random shot)", rate: RATE, seconds: SECONDS,
       http: (i) => `${team}/readout/shots/${shotIds[i % shotIds.length]}`,
       raw: async (i) => {
         const row = await readoutRepo.shotById(ids.teamId, shotIds[i % shotIds.length]);
         return readoutRepo.sharesOf(ids.teamId, [row!.id]);
       },
+    },
+    {
+      // A shot's page read again (its query refetched, another tab) while nothing changed.
+      name: "shot results, the same 4 shots again and again", rate: RATE, seconds: SECONDS,
+      http: (i) => `${team}/readout/shots/${shotIds[i % 4]}`,
     },
     {
       name: "Shots list as the Shots page opens it (the team's newest 50, count, filter choices)", rate: RATE, seconds: SECONDS,
@@ -270,13 +292,13 @@ try {
   async function run(s: Scenario, procs: number) {
     step(`${s.name}: ${s.rate} requests/s for ${s.seconds} s, ${procs} web process${procs > 1 ? "es" : ""}`);
     await settle();
-    for (let i = 0; i < 20 * procs; i++) await get(s.http(i))(AbortSignal.timeout(30_000)); // warm-up
+    for (let i = 0; i < 20 * procs; i++) await get(s.http(i))(AbortSignal.timeout(30_000)); // warm-up (its pages are kept)
     if (s.raw && !rawOf.has(s.name)) rawOf.set(s.name, await sequential(Math.min(300, s.rate * s.seconds), s.raw));
     const raw = rawOf.get(s.name);
     const pids = webPids();
     const db0 = await dbCpu();
     const cpu0 = cpuMsOf(pids);
-    const api = await openLoop({ rate: s.rate, seconds: s.seconds, timeoutMs: 30_000, request: (i, signal) => get(s.http(i))(signal) });
+    const api = await openLoop({ rate: s.rate, seconds: s.seconds, timeoutMs: 30_000, request: async (i, signal) => (s.writeFirst && (await touchTeam()), get(s.http(i))(signal)) });
     const cpu = cpu0 >= 0 ? (cpuMsOf(pids) - cpu0) / api.n : -1;
     const dbMs = dbCpuSince(db0, await dbCpu()) / api.n;
     console.log(`  API  ${fmt(api)}`);
@@ -289,11 +311,37 @@ try {
   if (CPU_ONLY) {
     console.log(`\n  load average ${load()} at the end (${os.cpus().length} cores)`);
     client.close();
+    await writer.end();
     await (await import("../../server/db/client")).db().pool.end();
     await cleanup();
     process.exit(0);
   }
   for (const s of deep) await run(s, 1);
+
+  // What the change stamp's triggers (decision 192) cost a writer: saving marks writes the shot,
+  // then its stored results (each its own transaction, as the app does). Alternated in rounds with
+  // the two tables' update triggers disabled and enabled, on one connection, one write at a time.
+  step("Saving marks' two writes (the shot, then its ~80 kB stored results), without and with the change-stamp triggers");
+  const stampTriggers = (on: boolean) => writer.query(["shot", "shot_result"].map((t) => `alter table ${t} ${on ? "enable" : "disable"} trigger answer_change_update`).join("; "));
+  const backend = (await writer.query<{ pid: number }>("select pg_backend_pid() as pid")).rows[0].pid;
+  const saves = { without: [] as number[], with: [] as number[] };
+  const saveCpu = { without: 0, with: 0 };
+  for (let round = 0; round < 10; round++)
+    for (const mode of ["without", "with"] as const) {
+      await stampTriggers(mode === "with");
+      const c0 = cpuMsOf([backend]);
+      for (const id of shotIds.slice(0, 40)) {
+        const t = performance.now();
+        await writer.query(`update shot set marks = marks, updated_at = now() where id = $1`, [id]);
+        await writer.query(`update shot_result set results = results, computed_at = now() where shot_id = $1`, [id]);
+        saves[mode].push(performance.now() - t);
+      }
+      saveCpu[mode] += cpuMsOf([backend]) - c0;
+    }
+  await stampTriggers(true);
+  const saveFigs = { without: figures(saves.without), with: figures(saves.with) };
+  for (const mode of ["without", "with"] as const)
+    console.log(`  ${mode} the triggers: p50 ${saveFigs[mode].p50.toFixed(2)} / p95 ${saveFigs[mode].p95.toFixed(2)} ms a save (both writes); PostgreSQL CPU ${(saveCpu[mode] / saves[mode].length).toFixed(2)} ms a save`);
 
   // Ten PDF reports in flight all the time (each client asks for the next when one arrives) while
   // /api/health is asked 200 times a second: the reports render in worker threads.
@@ -326,9 +374,11 @@ try {
   console.log(`  bare Express @ ${RATE}/s: p50 ${bareFig.p50.toFixed(1)} / p95 ${bareFig.p95.toFixed(1)} / p99 ${bareFig.p99.toFixed(1)} ms, CPU ${bareCpu.toFixed(2)} ms a request`);
   for (const t of table)
     console.log(`  ${t.name} @ ${t.rate}/s, ${t.procs} process${t.procs > 1 ? "es" : ""}: p50 ${t.api.p50.toFixed(1)} / p95 ${t.api.p95.toFixed(1)} / p99 ${t.api.p99.toFixed(1)} ms; CPU ${t.cpu.toFixed(2)} ms a request (×${(t.cpu / bareCpu).toFixed(1)} bare), PostgreSQL ${t.dbMs.toFixed(2)} ms${t.raw ? `; SQL alone p50 ${t.raw.p50.toFixed(1)} / p95 ${t.raw.p95.toFixed(1)} ms` : ""}${t.api.errors ? `; ${t.api.errors} errors (${Object.entries(t.api.errorKinds).map(([k, n]) => `${n}× ${k}`).join(", ")})` : ""}`);
+  console.log(`  saving marks' two writes, without → with the change-stamp triggers: p50 ${saveFigs.without.p50.toFixed(2)} → ${saveFigs.with.p50.toFixed(2)} ms, PostgreSQL CPU ${(saveCpu.without / saves.without.length).toFixed(2)} → ${(saveCpu.with / saves.with.length).toFixed(2)} ms a save`);
   console.log(`  /api/health while 10 PDFs render: p50 ${underPdf.p50.toFixed(1)} / p95 ${underPdf.p95.toFixed(1)} / p99 ${underPdf.p99.toFixed(1)} ms (${pdfs} reports)`);
   console.log(`  total ${((Date.now() - t0) / 1000).toFixed(0)} s; load average ${load()} at the end (${os.cpus().length} cores)`);
   client.close();
+  await writer.end();
   await (await import("../../server/db/client")).db().pool.end();
   await cleanup();
   clearTimeout(hardStop);

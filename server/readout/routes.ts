@@ -25,7 +25,8 @@ export const shotReadoutRoute: RequestHandler = async (req, res) => {
 
 /** The Shots page's list, a hot read (decision 195): a bad query is refused only once membership is known. */
 export const shotListRoute: RequestHandler = async (req, res) => {
-  res.json(await readQueryAsTeamMember(req, ShotListPageQuery, svc.listShots));
+  const { text, tag } = await readQueryAsTeamMember(req, ShotListPageQuery, svc.listShots);
+  sendJsonText(res, text, tag);
 };
 
 function sendFile(res: Response, f: FileAnswer) {

@@ -16,7 +16,7 @@ import { mostCommonType, progressPoints, summarise } from "./progress";
 import * as memberRepo from "../entities/member/repository";
 import { isUuid } from "../http/ids";
 import { weakTagOf } from "../http/json-answer";
-import { answerCache, answerKey } from "../http/answer-cache";
+import { answerCache, answerKey, type KeptAnswer } from "../http/answer-cache";
 import * as repo from "../entities/shot/readout";
 import { shotListPage } from "../entities/shot/list-page";
 import { teamSettingsOf } from "../entities/team/repository";
@@ -104,24 +104,32 @@ const readouts = answerCache();
  * the filter choices (decisions 191, 195); the answer is made only once readAsTeamMember has held
  * that role to the one the statement ran as.
  */
-export async function listShots(a: Actor, q: z.output<typeof ShotListPageQuery>): Promise<ReadWithRole<ShotListResponse>> {
-  const staff = isStaff(a);
+export async function listShots(a: Actor, q: z.output<typeof ShotListPageQuery>): Promise<ReadWithRole<KeptAnswer>> {
   const filters = { playerId: q.playerId, stickId: q.stickId, shotType: q.shotType, review: q.review };
-  const page = await shotListPage(a, filters, { limit: q.pageSize, offset: (q.page - 1) * q.pageSize });
+  // The page this process sent last for exactly this ask, if any: the statement reads the page
+  // again only when the team's change stamp moved (decision 192).
+  const key = answerKey(a, q);
+  const known = shotPages.known(key);
+  const page = await shotListPage(a, filters, { limit: q.pageSize, offset: (q.page - 1) * q.pageSize }, known?.stamp);
   return {
     storedRole: page.storedRole,
-    answer: () => {
-      // The query already keeps to what the viewer may see; the policy is asked again for each row.
-      const visible = page.rows.filter((r) => policy.viewShot(a, shotAccess(r, r.shareIds)));
-      return {
-        shots: visible.map((r) => listItem(r, { viewerId: a.userId, viewerIsStaff: staff, sharedWithViewer: r.shareIds.includes(a.userId), shareCount: r.shareIds.length })),
-        total: page.total,
-        page: q.page,
-        pageSize: q.pageSize,
-        players: page.players,
-        sticks: page.sticks,
-      };
-    },
+    answer: () => (page.unchanged && known?.stamp === page.stamp ? known : shotPages.keep(key, page.stamp, JSON.stringify(shotListAnswer(a, q, page)))),
+  };
+}
+const shotPages = answerCache();
+
+/** The Shots page's answer from the page its statement read, for a role that statement confirmed. */
+export function shotListAnswer(a: Actor, q: z.output<typeof ShotListPageQuery>, page: Awaited<ReturnType<typeof shotListPage>>): ShotListResponse {
+  const staff = isStaff(a);
+  // The query already keeps to what the viewer may see; the policy is asked again for each row.
+  const visible = page.rows.filter((r) => policy.viewShot(a, shotAccess(r, r.shareIds)));
+  return {
+    shots: visible.map((r) => listItem(r, { viewerId: a.userId, viewerIsStaff: staff, sharedWithViewer: r.shareIds.includes(a.userId), shareCount: r.shareIds.length })),
+    total: page.total,
+    page: q.page,
+    pageSize: q.pageSize,
+    players: page.players,
+    sticks: page.sticks,
   };
 }
 

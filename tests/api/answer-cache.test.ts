@@ -12,7 +12,8 @@ import { db } from "../../server/db/client";
 import { benchTest, clip, member, shot, shotResult, stick, trainingSession, user } from "../../server/db/schema";
 import { clipPageStatementText, clipPageText } from "../../server/entities/clip/repository";
 import { readoutStatementText } from "../../server/entities/shot/readout";
-import { getReadout } from "../../server/readout/service";
+import { shotListPage, shotListStatementText } from "../../server/entities/shot/list-page";
+import { getReadout, shotListAnswer } from "../../server/readout/service";
 import { HttpError } from "../../server/http/problem";
 import { parseRole } from "../../server/entities/member/role";
 import { answerCache } from "../../server/http/answer-cache";
@@ -49,6 +50,14 @@ async function clipsTruth(email: string) {
   return { status: 200, items: JSON.parse(r.items!), total: r.total };
 }
 
+/** The Shots page's opening page as built without any cache: its statement with no stamp held. */
+async function shotsTruth(email: string) {
+  const role = await roleOf(email);
+  if (!role) return { status: 404 };
+  const a = { userId: uid(email), teamId: world.teamId, role };
+  return { status: 200, body: shotListAnswer(a, { page: 1, pageSize: 50 }, await shotListPage(a, {}, { limit: 50, offset: 0 })) };
+}
+
 /** One shot's readout as the service builds it without the text path or any cache. */
 async function readoutTruth(email: string, shotId: string) {
   const role = await roleOf(email);
@@ -70,6 +79,10 @@ async function allFresh(after: string) {
     const want = await clipsTruth(r.email);
     expect(list.status, `${after}: ${r.email} on ${r.proc}, clips`).toBe(want.status);
     if (want.status === 200) expect({ items: list.json.items, total: list.json.total }, `${after}: ${r.email} on ${r.proc}, clips`).toEqual({ items: want.items, total: want.total });
+    const page = await r.client.get(`${team()}/readout/shots?page=1&pageSize=50`);
+    const pageTruth = await shotsTruth(r.email);
+    expect(page.status, `${after}: ${r.email} on ${r.proc}, Shots list`).toBe(pageTruth.status);
+    if (pageTruth.status === 200) expect(page.json, `${after}: ${r.email} on ${r.proc}, Shots list`).toEqual(pageTruth.body);
     for (const s of shots) {
       const got = await r.client.get(`${team()}/readout/shots/${s}`);
       const truth = await readoutTruth(r.email, s);
@@ -88,9 +101,12 @@ async function tablesOf(text: string) {
 
 describe("the change stamp (decision 192)", () => {
   it("every table the hot reads' statements read has the triggers that move it", async () => {
-    const read = new Set([...(await tablesOf(clipPageStatementText())), ...(await tablesOf(readoutStatementText()))]);
-    // The stamp's own tables are what the statements read the stamp from.
-    for (const own of ["answer_change", "answer_stamp"]) expect(read.delete(own), own).toBe(true);
+    const read = new Set([...(await tablesOf(clipPageStatementText())), ...(await tablesOf(readoutStatementText())), ...(await tablesOf(shotListStatementText()))]);
+    // The stamp's own tables are what the statements read the stamp from; the shot tally changes
+    // only inside a statement that writes shots (decision 190), whose own triggers move the stamp;
+    // the Shots list reads the team's row of organization only as its one row (no column of it is
+    // shown), and a team deleted takes its members with it (whose triggers move the stamp).
+    for (const own of ["answer_change", "answer_stamp", "shot_tally", "organization"]) expect(read.delete(own), own).toBe(true);
     expect(read.size).toBeGreaterThanOrEqual(9);
     const { rows } = await db().execute<{ tbl: string; name: string; fn: string }>(
       sql`select c.relname as tbl, t.tgname as name, p.proname as fn from pg_trigger t join pg_class c on c.oid = t.tgrelid join pg_proc p on p.oid = t.tgfoid where not t.tgisinternal and t.tgenabled <> 'D'`,

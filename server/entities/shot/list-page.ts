@@ -11,6 +11,7 @@ import { organization } from "../../db/auth-schema";
 import { clip, shot, shotResult, shotShare, shotTally, stick, trainingSession, user } from "../../db/schema";
 import type { Actor, Role } from "../member/role";
 import { viewerStoredRole } from "../member/repository";
+import { knownStamp, teamStampSql } from "../../db/answer-stamp";
 import { newestShotFirst } from "./date";
 import { listWhere, orderedIdsQuery, pageIdsQuery, summaryResults } from "./readout";
 import { seesWholeTeam } from "./visibility";
@@ -29,6 +30,10 @@ export interface PageRow {
 export interface ListPage {
   /** The viewer's stored role in the team, read by the same statement (decision 195); null for a non-member. */
   storedRole: string | null;
+  /** The team's change stamp (decision 192). */
+  stamp: string;
+  /** The stamp is the one the caller passed: nothing the page shows changed, and the page was not read. */
+  unchanged: boolean;
   total: number;
   rows: PageRow[];
   players: { id: string; name: string }[];
@@ -132,34 +137,50 @@ function distinctVisible(a: Actor, col: typeof shot.playerId | typeof shot.stick
 const pageQuery = preparedBy("shot_list_page", (name, key: string) => {
   const { role, f, opening } = fromKey(key);
   const a = viewer(role);
+  // The team's change stamp comes along, and the page only when it differs from the one of the
+  // answer the caller holds (decision 192).
+  const changed = (v: SQL) => sql`case when now.stamp is distinct from ${knownStamp} then ${v} end`;
   return db()
     .select({
       // Membership in the same statement (decision 195): the answer is made only for this role.
       storedRole: viewerStoredRole,
-      total: totalOf(a, f).mapWith(Number),
-      rows: sql<string>`${rowsOf(a, f, opening)}`,
-      players: sql<string>`(select coalesce(json_agg(json_build_object('id', ${user.id}, 'name', ${user.name})), '[]')::text from ${user} where ${user.id} in (${distinctVisible(a, shot.playerId)}))`,
-      sticks: sql<string>`(select coalesce(json_agg(json_build_object('id', ${stick.id}, 'label', ${stick.label})), '[]')::text from ${stick} where ${stick.id} in (${distinctVisible(a, shot.stickId)}))`,
+      stamp: sql<string>`now.stamp`,
+      total: changed(totalOf(a, f)).mapWith(Number),
+      rows: sql<string | null>`${changed(rowsOf(a, f, opening))}`,
+      players: sql<string | null>`${changed(sql`(select coalesce(json_agg(json_build_object('id', ${user.id}, 'name', ${user.name})), '[]')::text from ${user} where ${user.id} in (${distinctVisible(a, shot.playerId)}))`)}`,
+      sticks: sql<string | null>`${changed(sql`(select coalesce(json_agg(json_build_object('id', ${stick.id}, 'label', ${stick.label})), '[]')::text from ${stick} where ${stick.id} in (${distinctVisible(a, shot.stickId)}))`)}`,
     })
     .from(organization)
+    .innerJoin(sql`(select ${teamStampSql} as stamp) now`, sql`true`)
     .where(eq(organization.id, sql.placeholder("teamId")))
     .prepare(name);
 });
 
-/** One page of the team's Shots list as the viewer may see it, its total and the filter choices. */
-export async function shotListPage(a: Actor, f: Filters, page: { limit: number; offset: number }): Promise<ListPage> {
+/** The SQL text of the Shots list's statements with every filter set, as staff and as a player (which tables they read, decision 192). */
+export const shotListStatementText = () =>
+  (["coach", "player"] as const).flatMap((role) => (["waiting", "published"] as const).map((review) => pageQuery(keyOf(role, { playerId: "p", stickId: "s", shotType: "slap", review }, false)).getQuery().sql)).join("\n");
+
+/**
+ * One page of the team's Shots list as the viewer may see it, its total and the filter choices,
+ * with the team's change `stamp`; `unchanged` (and no page) when the stamp is `knownStamp`, the
+ * stamp of the answer the caller holds (decision 192).
+ */
+export async function shotListPage(a: Actor, f: Filters, page: { limit: number; offset: number }, knownStamp = ""): Promise<ListPage> {
   const opening = isOpening(page);
   const [row] = await pageQuery(keyOf(a.role, f, opening)).execute({
-    teamId: a.teamId, viewerId: a.userId, ...(opening ? {} : { limit: page.limit, offset: page.offset }),
+    teamId: a.teamId, viewerId: a.userId, knownStamp, ...(opening ? {} : { limit: page.limit, offset: page.offset }),
     ...(f.playerId ? { playerId: f.playerId } : {}), ...(f.stickId ? { stickId: f.stickId } : {}), ...(f.shotType ? { shotType: f.shotType } : {}),
   });
-  if (!row) return { storedRole: null, total: 0, rows: [], players: [], sticks: [] };
+  if (!row) return { storedRole: null, stamp: "", unchanged: false, total: 0, rows: [], players: [], sticks: [] };
+  if (row.rows === null) return { storedRole: row.storedRole, stamp: row.stamp, unchanged: true, total: 0, rows: [], players: [], sticks: [] };
   const rows = (JSON.parse(row.rows) as (Omit<PageRow, "summary"> & { summary: unknown })[]).map((r) => ({ ...r, summary: summaryResults(r.summary) }));
   return {
     storedRole: row.storedRole,
+    stamp: row.stamp,
+    unchanged: false,
     total: row.total,
     rows,
-    players: (JSON.parse(row.players) as ListPage["players"]).sort((x, y) => x.name.localeCompare(y.name)),
-    sticks: (JSON.parse(row.sticks) as ListPage["sticks"]).sort((x, y) => x.label.localeCompare(y.label)),
+    players: (JSON.parse(row.players!) as ListPage["players"]).sort((x, y) => x.name.localeCompare(y.name)),
+    sticks: (JSON.parse(row.sticks!) as ListPage["sticks"]).sort((x, y) => x.label.localeCompare(y.label)),
   };
 }
