@@ -4,16 +4,17 @@ import express from "express";
 import { toNodeHandler } from "better-auth/node";
 import { auth } from "./auth/auth";
 import { env } from "./env";
-import { lazyRequestLoggers, requestLog } from "./log";
+import { lazyRequestLoggers } from "./log";
 import { problemHandler, sendProblem } from "./http/problem";
 import { leanJsonAnswers } from "./http/json-answer";
-import { refuseControlCharactersInUrl } from "./http/request-guards";
+import { everyRequest } from "./http/every-request";
 import { asProblemResponse } from "./http/better-auth-errors";
 import { authRouteGuard } from "./auth/http-routes";
 import { apiRouter, hotReadsRouter } from "./routes";
+import { mountHealthRoutes } from "./health/routes";
 import { mountRawRoutes } from "./raw-routes";
-import { applyRateLimits, signInFailureLimit } from "./security/rate-limits";
-import { sameOriginWrites } from "./security/same-origin";
+import { rateLimitFor, signInFailureLimit } from "./security/rate-limits";
+import { refuseCrossSiteWrite } from "./security/same-origin";
 import { helmetOptions, securityHeaders } from "./security/headers";
 import { trustedOrigins } from "./security/origins";
 import { refuseWritesWhenUnpaid } from "./billing/read-only-guard";
@@ -30,18 +31,22 @@ export function createApp() {
   lazyRequestLoggers(app.request);
   // Forwarded addresses count only when TRUST_PROXY names the proxy (decision 112).
   app.set("trust proxy", e.TRUST_PROXY ?? false);
-  app.use(requestLog);
-  // helmet's headers, computed once at start-up (decision 177).
-  app.use(securityHeaders(helmetOptions(e.PUBLIC_URL.startsWith("https://"))));
-
-  app.use("/api", refuseControlCharactersInUrl);
-  // Cross-site writes refused on every API route, better-auth's included.
-  app.use("/api", sameOriginWrites(() => trustedOrigins()));
-  applyRateLimits(app, e.RATE_LIMIT);
-  // A club whose payment is overdue past its grace: its teams take no writes (reads always work).
-  app.use(refuseWritesWhenUnpaid());
-  // The hot reads, once every check above (which applies to all of /api) has passed; what follows
-  // is for the auth library, uploads and request bodies, none of which they use (decision 195).
+  // The request id and log line, security headers, API guards, rate limits and the unpaid
+  // read-only state, in one layer with the order and answers of decisions 112, 177, 182, 183
+  // (decision 196). Cross-site writes are refused on every API route, better-auth's included.
+  app.use(
+    everyRequest({
+      // helmet's headers, computed once at start-up (decision 177).
+      setSecurityHeaders: securityHeaders(helmetOptions(e.PUBLIC_URL.startsWith("https://"))),
+      refuseCrossSiteWrite: refuseCrossSiteWrite(() => trustedOrigins()),
+      rateLimitFor: rateLimitFor(e.RATE_LIMIT),
+      // A club whose payment is overdue past its grace: its teams take no writes (reads always work).
+      refuseWritesWhenUnpaid: refuseWritesWhenUnpaid(),
+    }),
+  );
+  // Liveness and readiness, and the hot reads, once every check above has passed; what follows
+  // is for the auth library, uploads and request bodies, none of which they use (decisions 195, 196).
+  mountHealthRoutes(app);
   app.use("/api", hotReadsRouter());
 
   // better-auth: only the routes the product uses, with a small checked body (mounted before

@@ -1,5 +1,5 @@
 import { randomUUID } from "node:crypto";
-import type { RequestHandler } from "express";
+import type { Request, Response } from "express";
 import pino from "pino";
 
 // Reads LOG_LEVEL itself (not the whole validated env) so that importing a module that logs never
@@ -31,8 +31,11 @@ export function lazyRequestLoggers(proto: object) {
   });
 }
 
-/** A request id (taken from X-Request-Id when a proxy set one) on every log line and job. */
-export const requestLog: RequestHandler = (req, res, next) => {
+/**
+ * A request id (taken from X-Request-Id when a proxy set one) on every log line and job, and the
+ * request's closing log line. Called first by `everyRequest` (server/http/every-request.ts).
+ */
+export function startRequestLog(req: Request, res: Response) {
   const incoming = req.headers["x-request-id"];
   const kept = typeof incoming === "string" && /^[\w-]{1,64}$/.test(incoming);
   req.id = kept ? incoming : randomUUID();
@@ -45,11 +48,10 @@ export const requestLog: RequestHandler = (req, res, next) => {
     raw.push("X-Request-Id", req.id);
   }
   res.setHeader("X-Request-Id", req.id);
-  if (!log.isLevelEnabled("info")) return next();
+  if (!log.isLevelEnabled("info")) return;
   const t0 = performance.now();
   res.once("finish", () => {
     if (req.originalUrl.startsWith("/api"))
       log.info({ reqId: req.id, method: req.method, path: req.originalUrl.split("?", 1)[0], status: res.statusCode, ms: Math.round((performance.now() - t0) * 10) / 10 }, "request");
   });
-  next();
-};
+}

@@ -3,7 +3,6 @@ import { requireTeamMember } from "./auth/context";
 import { meRouter } from "./me/routes";
 import { invitationRouter, rosterRouter } from "./roster/routes";
 import { auditRouter } from "./audit/routes";
-import { healthRouter } from "./health/routes";
 import { clipListRoute, clipsRouter } from "./clips/routes";
 import { shotsRouter } from "./shots/routes";
 import { trackingRouter } from "./tracking/routes";
@@ -17,7 +16,6 @@ import { homeRouter } from "./home/routes";
 // role in req.actor (set by requireTeamMember: non-members get 404, so nothing leaks).
 export function apiRouter() {
   const api = Router();
-  api.use(healthRouter);
   api.use("/me", meRouter);
   api.use("/invitations", invitationRouter);
   api.use("/signup", signupRouter);

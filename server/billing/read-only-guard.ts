@@ -2,7 +2,7 @@
 // is enforced: every write to a team — its API under /api/teams/:teamId and new uploads — passes
 // through this middleware, mounted once in app.ts. Reads always pass; the team's billing routes pass
 // (paying must stay possible); nothing is ever deleted for non-payment.
-import type { Request, RequestHandler } from "express";
+import type { NextFunction, Request, Response } from "express";
 import { Metadata } from "@tus/server";
 import { readSession, roleIn } from "../auth/context";
 import { env } from "../env";
@@ -28,7 +28,8 @@ export function teamOfWrite(req: Pick<Request, "method" | "path" | "get">): stri
   return null;
 }
 
-export function refuseWritesWhenUnpaid(): RequestHandler {
+/** Answers 402 to a member's write to an unpaid club's team; everything else goes on (`next`). */
+export function refuseWritesWhenUnpaid(): (req: Request, res: Response, next: NextFunction) => Promise<void> {
   return async (req, res, next) => {
     const teamId = teamOfWrite(req);
     if (!teamId) return next();

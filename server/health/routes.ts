@@ -1,4 +1,4 @@
-import { Router, type Request } from "express";
+import type { Express, Request, RequestHandler } from "express";
 import { pingDatabase } from "../db/client";
 import { readinessChecks } from "./checks";
 import { isDraining } from "./draining";
@@ -15,11 +15,21 @@ async function mayReadDetails(req: Request) {
 
 const CHECK_TIMEOUT_MS = 3000;
 
-export const healthRouter = Router();
+/**
+ * Liveness and readiness as routes of the app itself, mounted before the hot reads: a router of
+ * their own would be entered and left (a turn of the event loop) by every other API request
+ * (decision 196).
+ */
+export function mountHealthRoutes(app: Express) {
+  app.get("/api/health", liveness);
+  app.get("/api/ready", readiness);
+}
+
 /** Liveness: the process answers. */
-healthRouter.get("/health", (_req, res) => void res.json({ ok: true }));
+const liveness: RequestHandler = (_req, res) => void res.json({ ok: true });
+
 /** Readiness: every dependency answers (database, queue, storage, ffmpeg); 503 names the one that does not. */
-healthRouter.get("/ready", async (req, res) => {
+const readiness: RequestHandler = async (req, res) => {
   const checks: Record<string, { ok: boolean; detail?: string }> = {};
   const run = async (name: string, fn: () => Promise<unknown>) => {
     let timer: NodeJS.Timeout | undefined;
@@ -46,4 +56,4 @@ healthRouter.get("/ready", async (req, res) => {
   // itself, or by a signed-in team admin. Everyone else (a load balancer too) gets ok per check.
   const shown = (await mayReadDetails(req)) ? checks : Object.fromEntries(Object.entries(checks).map(([k, c]) => [k, { ok: c.ok }]));
   res.status(ok ? 200 : 503).json({ ok, checks: shown });
-});
+};

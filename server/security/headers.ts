@@ -1,5 +1,4 @@
 import type { IncomingMessage, ServerResponse } from "node:http";
-import type { RequestHandler } from "express";
 import helmet, { type HelmetOptions } from "helmet";
 
 /**
@@ -60,10 +59,9 @@ export function helmetHeaders(options: HelmetOptions): [string, string][] {
  * (decision 177). Any helmet option that depended on the request would make the recorded set
  * wrong; `helmetHeaders` is held to helmet itself by a test.
  */
-export function securityHeaders(options: HelmetOptions): RequestHandler {
+export function securityHeaders(options: HelmetOptions): (res: ServerResponse) => void {
   const headers = helmetHeaders(options);
-  return (_req, res, next) => {
+  return (res) => {
     for (const [name, value] of headers) res.setHeader(name, value);
-    next();
   };
 }

@@ -2,7 +2,7 @@
 // starting uploads. Each answers 429 problem+json with a RateLimit header (IETF draft 8) that
 // says when to try again. Counted in PostgreSQL (rate-limit-store.ts), so several web processes
 // share one count per address.
-import type { Express, RequestHandler } from "express";
+import type { RequestHandler } from "express";
 import { ipKeyGenerator, rateLimit } from "express-rate-limit";
 import { sendProblem } from "../http/problem";
 import { PostgresRateLimitStore } from "./rate-limit-store";
@@ -23,7 +23,7 @@ export const RATE_LIMITS = {
   uploads: 60,
 } as const;
 
-function limiter(name: string, limit: number, what: string, enabled: boolean, o: Partial<Parameters<typeof rateLimit>[0]> = {}): RequestHandler {
+function limiter(name: string, limit: number, what: string, enabled = true, o: Partial<Parameters<typeof rateLimit>[0]> = {}): RequestHandler {
   return rateLimit({
     windowMs: 60_000,
     limit,
@@ -41,9 +41,6 @@ function limiter(name: string, limit: number, what: string, enabled: boolean, o:
   });
 }
 
-const writesOnly = (h: RequestHandler): RequestHandler => (req, res, next) => (req.method === "GET" || req.method === "HEAD" ? next() : h(req, res, next));
-const postsOnly = (h: RequestHandler): RequestHandler => (req, res, next) => (req.method === "POST" ? h(req, res, next) : next());
-
 /**
  * Failed sign-ins per (account, client address): mount after the auth route guard, which has
  * parsed and checked the body. A correct password does not count (skipSuccessfulRequests).
@@ -58,14 +55,57 @@ export function signInFailureLimit(enabled: boolean): RequestHandler {
   });
 }
 
-/** Mount before the routes they guard (before better-auth's handler and the upload endpoint). */
-export function applyRateLimits(app: Express, enabled: boolean) {
-  // Every limit keys on req.ip: the connecting address, or the forwarded one only when
-  // TRUST_PROXY names the proxy in front (decision 112).
-  app.use("/api/auth/sign-in", limiter("sign-in", RATE_LIMITS.signIn, "sign-in attempts", enabled));
-  app.use(["/api/auth/request-password-reset", "/api/auth/reset-password"], postsOnly(limiter("password-reset", RATE_LIMITS.passwordReset, "password-reset requests", enabled)));
-  app.use("/api/teams/:teamId/invitations", writesOnly(limiter("invitations", RATE_LIMITS.invitations, "invitation changes", enabled)));
-  app.use("/api/signup", postsOnly(limiter("signups", RATE_LIMITS.signups, "sign-up requests", enabled)));
+/** Which requests a limit counts: any method, writes (all but GET and HEAD), or POST only. */
+type Counted = "all" | "writes" | "posts";
+const counts: Record<Counted, (method: string) => boolean> = {
+  all: () => true,
+  writes: (m) => m !== "GET" && m !== "HEAD",
+  posts: (m) => m === "POST",
+};
+
+/**
+ * The limited routes, as Express paths (a limit covers the path and everything under it, like
+ * `app.use(path)`). Every limit keys on req.ip: the connecting address, or the forwarded one only
+ * when TRUST_PROXY names the proxy in front (decision 112).
+ */
+export const LIMITED_ROUTES = [
+  { paths: ["/api/auth/sign-in"], counted: "all", name: "sign-in", limit: RATE_LIMITS.signIn, what: "sign-in attempts" },
+  { paths: ["/api/auth/request-password-reset", "/api/auth/reset-password"], counted: "posts", name: "password-reset", limit: RATE_LIMITS.passwordReset, what: "password-reset requests" },
+  { paths: ["/api/teams/:teamId/invitations"], counted: "writes", name: "invitations", limit: RATE_LIMITS.invitations, what: "invitation changes" },
+  { paths: ["/api/signup"], counted: "posts", name: "signups", limit: RATE_LIMITS.signups, what: "sign-up requests" },
   // tus: POST creates an upload; its PATCH chunks and HEAD resumes are not counted.
-  app.use("/api/uploads", postsOnly(limiter("uploads", RATE_LIMITS.uploads, "uploads", enabled)));
+  { paths: ["/api/uploads"], counted: "posts", name: "uploads", limit: RATE_LIMITS.uploads, what: "uploads" },
+] as const satisfies readonly { paths: readonly string[]; counted: Counted; name: string; limit: number; what: string }[];
+
+/**
+ * An Express mount path as a test of a request's path, with Express's matching for `app.use(path)`:
+ * letters in any case, a `:param` one segment, and the path itself or anything under it.
+ * (tests/unit/security/rate-limit-routes.test.ts holds it to Express's own router.)
+ */
+export function mountPathTest(path: string): RegExp {
+  const pattern = path.split(/(:\w+)/).map((part) => (part.startsWith(":") ? "[^/]+" : part.replace(/[.*+?^${}()|[\]\\]/g, "\\$&"))).join("");
+  return new RegExp(`^${pattern}/?(?=/|$)`, "i");
+}
+
+const routeTests = LIMITED_ROUTES.map((r) => ({ route: r, counts: counts[r.counted], tests: r.paths.map(mountPathTest) }));
+
+/** The limited route that counts a request with this method and path (`req.path`), if any. */
+export function limitedRouteOf(method: string, path: string): (typeof LIMITED_ROUTES)[number] | undefined {
+  for (const r of routeTests) if (r.counts(method) && r.tests.some((t) => t.test(path))) return r.route;
+  return undefined;
+}
+
+/**
+ * The limiter, if any, that counts this request: found by its method and path in one pass instead
+ * of one router layer per limit on every request (decision 196). Call before the routes they guard
+ * (better-auth's handler, the upload endpoint); app.ts does so through `everyRequest`.
+ */
+export function rateLimitFor(enabled: boolean): (method: string, path: string) => RequestHandler | undefined {
+  // RATE_LIMIT=false: no limiter at all (each would skip the request anyway).
+  if (!enabled) return () => undefined;
+  const limiters = new Map(LIMITED_ROUTES.map((r) => [r, limiter(r.name, r.limit, r.what)]));
+  return (method, path) => {
+    const r = limitedRouteOf(method, path);
+    return r && limiters.get(r);
+  };
 }

@@ -10,7 +10,7 @@
 // ambient cookie risk worth refusing. The order of checks follows the Fetch Metadata guidance
 // (OWASP CSRF Prevention Cheat Sheet, "Fetch Metadata headers" and "Verifying origin with
 // standard headers") [M].
-import type { Request, RequestHandler } from "express";
+import type { Request, Response } from "express";
 import { sendProblem } from "../http/problem";
 
 const SAFE = new Set(["GET", "HEAD", "OPTIONS"]);
@@ -37,18 +37,22 @@ export function judgeWrite(h: { method: string; secFetchSite?: string; origin?: 
   return origin === `${h.protocol}://${h.host}` ? "allow" : "refuse";
 }
 
-/** Refuses cross-site writes with 403 problem+json `cross_site_request`. */
-export function sameOriginWrites(trustedOrigins: () => readonly string[]): RequestHandler {
+/**
+ * Refuses a cross-site write with 403 problem+json `cross_site_request`; true when it answered.
+ * Reads pass at once. Called for every /api request by `everyRequest` (decision 196).
+ */
+export function refuseCrossSiteWrite(trustedOrigins: () => readonly string[]): (req: Request, res: Response) => boolean {
   let trusted: Set<string> | undefined;
-  return (req: Request, res, next) => {
-    if (SAFE.has(req.method)) return next();
+  return (req, res) => {
+    if (SAFE.has(req.method)) return false;
     trusted ??= new Set(trustedOrigins().map(originOf).filter((o): o is string => o !== null));
     const verdict = judgeWrite(
       { method: req.method, secFetchSite: req.get("sec-fetch-site"), origin: req.get("origin"), host: req.get("host"), protocol: req.protocol },
       trusted,
     );
-    if (verdict === "allow") return next();
+    if (verdict === "allow") return false;
     req.log?.warn({ origin: req.get("origin"), secFetchSite: req.get("sec-fetch-site"), path: req.path }, "cross-site write refused");
     sendProblem(res, 403, "cross_site_request", "This request came from another website and was refused. Open Loadframe itself and try again.");
+    return true;
   };
 }
