@@ -21,8 +21,8 @@ export const clipsRouter = Router({ mergeParams: true });
  * (server/routes.ts), whose one statement checks membership and builds the page (decision 195).
  */
 export const clipListRoute: RequestHandler = async (req, res) => {
-  const { text, tag } = await readQueryAsTeamMember(req, ClipListQuerySchema, svc.listText);
-  sendJsonText(res, text, tag);
+  const { body, tag } = await readQueryAsTeamMember(req, ClipListQuerySchema, svc.listText);
+  sendJsonText(res, body, tag);
 };
 
 const FrameNumber = z.coerce.number({ message: "Frame numbers start at 1" }).int("Frame numbers are whole numbers").min(1, "Frame numbers start at 1");

@@ -51,11 +51,11 @@ export async function options(a: Actor): Promise<ClipOptions> {
  * caller (decision 195): PostgreSQL builds the rows' JSON, so this process neither parses nor
  * serialises them.
  */
-export async function listText(a: Actor, q: z.output<typeof ClipListQuerySchema>): Promise<ReadWithRole<{ text: string; tag?: string }>> {
+export async function listText(a: Actor, q: z.output<typeof ClipListQuerySchema>): Promise<ReadWithRole<{ body: string | Buffer; tag?: string }>> {
   const page = (items: string, total: number) => `{"items":${items},"total":${total},"page":${q.page},"pageSize":${q.pageSize}}`;
   // Players see only the clips of their own shots.
   const playerId = policy.listClips(a) ? q.playerId : a.userId;
-  if (!policy.listClips(a) && q.playerId && q.playerId !== a.userId) return { answer: () => ({ text: page("[]", 0) }) };
+  if (!policy.listClips(a) && q.playerId && q.playerId !== a.userId) return { answer: () => ({ body: page("[]", 0) }) };
   // The page this process sent last for exactly this ask, if any: the statement sends the page
   // again only when the team's change stamp moved (decision 192).
   const key = answerKey(a, q);

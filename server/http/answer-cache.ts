@@ -1,19 +1,22 @@
 // Each web process keeps the answers of the hot reads it made last, with the team's change stamp
 // each was made at (docs/decisions/192-answer-cache-with-a-change-stamp.md). The read's own
 // statement still checks membership and reads the current stamp every time; it sends the data only
-// when the stamp differs from the one held, so a repeated read answers with the kept text.
+// when the stamp differs from the one held, so a repeated read answers with the kept bytes.
 import { LRUCache } from "lru-cache";
 import { weakTag } from "./json-answer";
 import type { Actor } from "../auth/policy";
 
-/** An answer as sent: its JSON text and ETag, and the stamp of the team it was made at. */
+/**
+ * An answer as sent: its JSON text as UTF-8 bytes (encoded once, not on every send: one shot's
+ * readout is ~80 kB), its ETag, and the stamp of the team it was made at.
+ */
 export interface KeptAnswer {
   stamp: string;
-  text: string;
+  body: Buffer;
   tag: string;
 }
 
-/** Bytes one cache may hold (JavaScript strings, two bytes a character): a few hundred readouts. */
+/** Bytes one cache may hold: a few hundred readouts. */
 export const ANSWER_CACHE_BYTES = 32 * 1024 * 1024;
 
 /**
@@ -25,13 +28,13 @@ export const answerKey = (a: Actor, asked: unknown) => `${a.teamId}\u0000${a.use
 
 /** One hot read's kept answers, bounded by their size. */
 export function answerCache(maxBytes = ANSWER_CACHE_BYTES) {
-  const kept = new LRUCache<string, KeptAnswer>({ maxSize: maxBytes, sizeCalculation: (v, k) => 2 * (v.text.length + v.tag.length + v.stamp.length + k.length) + 64 });
+  const kept = new LRUCache<string, KeptAnswer>({ maxSize: maxBytes, sizeCalculation: (v, k) => v.body.length + 2 * (v.tag.length + v.stamp.length + k.length) + 64 });
   return {
     /** The answer kept under this key, if any; pass its stamp to the read's statement. */
     known: (key: string): KeptAnswer | undefined => kept.get(key),
     /** Keeps a fresh answer (made at `stamp`) and returns it. */
     keep(key: string, stamp: string, text: string, tag = weakTag(text)): KeptAnswer {
-      const a = { stamp, text, tag };
+      const a = { stamp, body: Buffer.from(text), tag };
       kept.set(key, a);
       return a;
     },

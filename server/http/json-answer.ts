@@ -21,14 +21,15 @@ export function weakTagOf(length: number, ...pieces: string[]): string {
  * (304 when the client's copy is current, RFC 9110 §13.1.2), and the header and body in one
  * socket write. Express's `res.send` turns every text over 1,000 characters into a Buffer (to hash
  * it for its ETag), and Node then writes the header and that Buffer as two chunks (decision 177).
- * `tag` is a validator the caller already has for exactly this text.
+ * `tag` is a validator the caller already has for exactly this text; `text` may be its UTF-8 bytes
+ * (a kept answer, decision 192), which then need the tag.
  */
-export function sendJsonText(res: Response, text: string, tag?: string): Response {
+export function sendJsonText(res: Response, text: string | Buffer, tag?: string): Response {
   const req = res.req;
   if (!res.hasHeader("Content-Type")) res.setHeader("Content-Type", "application/json; charset=utf-8");
   const s = res.statusCode;
   if (s >= 200 && s < 300 && (req.method === "GET" || req.method === "HEAD")) {
-    res.setHeader("ETag", tag ?? weakTag(text));
+    res.setHeader("ETag", tag ?? weakTag(String(text)));
     if (req.fresh) res.statusCode = 304;
   }
   if (res.statusCode === 204 || res.statusCode === 304) {
@@ -38,7 +39,7 @@ export function sendJsonText(res: Response, text: string, tag?: string): Respons
     res.end();
     return res;
   }
-  res.setHeader("Content-Length", Buffer.byteLength(text));
+  res.setHeader("Content-Length", typeof text === "string" ? Buffer.byteLength(text) : text.length);
   if (req.method === "HEAD") res.end();
   else res.end(text);
   return res;

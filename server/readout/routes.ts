@@ -19,14 +19,14 @@ const shotId = (req: Request) => String(req.params.shotId);
  * (decision 195).
  */
 export const shotReadoutRoute: RequestHandler = async (req, res) => {
-  const { text, tag } = await readAsTeamMember(req, (a) => svc.readoutJson(a, shotId(req)));
-  sendJsonText(res, text, tag);
+  const { body, tag } = await readAsTeamMember(req, (a) => svc.readoutJson(a, shotId(req)));
+  sendJsonText(res, body, tag);
 };
 
 /** The Shots page's list, a hot read (decision 195): a bad query is refused only once membership is known. */
 export const shotListRoute: RequestHandler = async (req, res) => {
-  const { text, tag } = await readQueryAsTeamMember(req, ShotListPageQuery, svc.listShots);
-  sendJsonText(res, text, tag);
+  const { body, tag } = await readQueryAsTeamMember(req, ShotListPageQuery, svc.listShots);
+  sendJsonText(res, body, tag);
 };
 
 function sendFile(res: Response, f: FileAnswer) {

@@ -78,7 +78,7 @@ export async function getReadout(a: Actor, shotId: string): Promise<ShotReadout>
  * largest CPU cost (decision 175). Its statement also reads the caller's stored role, in place of
  * a membership query before it (decision 195).
  */
-export async function readoutJson(a: Actor, shotId: string): Promise<ReadWithRole<{ text: string; tag: string }>> {
+export async function readoutJson(a: Actor, shotId: string): Promise<ReadWithRole<KeptAnswer>> {
   // The readout this process sent last for this person, role and shot, if any: the statement
   // sends the shot again only when the team's change stamp moved (decision 192).
   const key = answerKey(a, shotId);

@@ -200,12 +200,27 @@ describe("kept answers stay with their reader", () => {
     expect(ours).not.toContain("Other team's");
   });
 
+  it("go out as the same bytes, with their length in bytes and their ETag (304 while current)", async () => {
+    await db().insert(clip).values({ teamId: world.teamId, captureFps: 240, originalName: "é.mp4", title: "Équipe – été, 1ʳᵉ prise", status: "ready" });
+    const coach = readers.find((r) => r.proc === "web-2" && r.email === EMAILS.coach)!.client;
+    const first = await coach.get(`${team()}/clips?pageSize=100`);
+    const again = await coach.get(`${team()}/clips?pageSize=100`);
+    expect(again.text).toBe(first.text);
+    expect(first.text).toContain("Équipe – été, 1ʳᵉ prise");
+    expect(Number(again.headers.get("content-length"))).toBe(Buffer.byteLength(again.text));
+    expect(again.headers.get("etag")).toBe(first.headers.get("etag"));
+    // As a browser revalidates (fetch given If-None-Match alone adds "Cache-Control: no-cache", WHATWG Fetch).
+    const current = await coach.request("GET", `${team()}/clips?pageSize=100`, undefined, { headers: { "if-none-match": again.headers.get("etag")!, "cache-control": "max-age=0" } });
+    expect(current.status).toBe(304);
+    expect(current.text).toBe("");
+  });
+
   it("are bounded by their size", () => {
     const c = answerCache(100_000);
     for (let i = 0; i < 1000; i++) c.keep(`k${i}`, "1", "x".repeat(1000));
     expect(c.size().bytes).toBeLessThanOrEqual(100_000);
     expect(c.size().entries).toBeGreaterThan(10);
-    expect(c.known("k999")?.text).toHaveLength(1000);
+    expect(c.known("k999")?.body).toHaveLength(1000);
     expect(c.known("k0")).toBeUndefined();
   });
 });

@@ -161,7 +161,7 @@ describe("the Shots list", () => {
     }
     // Membership is read in the same statement (decision 195).
     expect(read.storedRole).toBe("coach");
-    expect(JSON.parse((await read.answer()).text).total).toBe((await expected(coachActor(), {})).length);
+    expect(JSON.parse((await read.answer()).body.toString()).total).toBe((await expected(coachActor(), {})).length);
     expect(texts).toHaveLength(1);
     expect(texts[0]).toMatch(/from "shot_tally"/);
   });
