@@ -6,8 +6,11 @@
 // `ffmpeg -i clip -f rawvideo -pix_fmt gray -` (read and thrown away), plus the tracker's own
 // matchTemplate calls (recorded from one tracking of the same frames, replayed alone). Prints
 // figures; asserts nothing. Needs the private cluster (PG_ADMIN_URL, from scripts/with-db).
+// Each round also prints the worker's own breakdown of its CPU (its "tracking run done" log line,
+// decision 156). To profile the worker: BENCH_WORKER_FLAGS="--cpu-prof --cpu-prof-dir=…" or
+// "--trace-gc" (node flags for the worker process), BENCH_WORKER_LOG=file for its non-log output.
 import { spawn, type ChildProcess } from "node:child_process";
-import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { appendFileSync, mkdtempSync, readFileSync, rmSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { createInterface } from "node:readline";
@@ -22,12 +25,28 @@ import { trackShot } from "../../shared/tracking/shot-tracker";
 import type { Landmark } from "../../shared/schemas/shot-document";
 import type { Vec2 } from "../../shared/tracking/regions";
 import type { GrayFrame } from "../../shared/tracking/types";
+import type { RunCost } from "../../server/tracking/run-cost";
 
 const fmt = (n: number, d = 0) => n.toLocaleString("en-GB", { maximumFractionDigits: d, minimumFractionDigits: d });
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 const load = () => os.loadavg().map((l) => l.toFixed(2)).join(" ");
 /** The 480-frame shot: ice strike on frame 200 so the puck is in the picture for most of it. */
 export const JOB_SCENE = { ...TRACK_SHOTS[3200], frames: 480, iceStrikeFrame: 200 };
+
+/** One round's worker CPU as the worker's own log of the run breaks it down. */
+function describeCost(own: number, c: RunCost | undefined) {
+  if (!c) return `worker ${fmt(own, 2)} CPU-s (no breakdown logged)`;
+  const major = (c.gc.incremental?.count ?? 0) + (c.gc.major?.count ?? 0);
+  const gcPause = Object.values(c.gc).reduce((s, g) => s + g.seconds, 0);
+  const run = c.phases.find((p) => p.phase === "decode and track");
+  return [
+    `worker ${fmt(own, 2)} CPU-s`,
+    c.threads ? ` (JavaScript thread ${fmt(c.threads.main, 2)}, other threads ${fmt(c.threads.other, 2)})` : "",
+    run ? `, decode and track ${fmt(run.user, 2)} user + ${fmt(run.system, 2)} system` : "",
+    `, full collections ${major}, young ${c.gc.minor?.count ?? 0}, pauses ${fmt(gcPause, 2)} s`,
+    c.minorFaults !== null ? `, ${fmt(c.minorFaults)} page faults` : "",
+  ].join("");
+}
 
 /** CPU seconds of a process itself and of its waited-for children (ffmpeg), from /proc. */
 function cpuParts(pid: number) {
@@ -107,9 +126,18 @@ export async function benchTrackJob(rounds: number, scene: SceneOptions = JOB_SC
     close = srv.close;
     const world = await seedWorld();
     await jobs.startJobs({ work: false });
-    worker = spawn(process.execPath, ["--import", "tsx", "server/worker.ts"], { env: { ...process.env, LOG_LEVEL: "info", LF_PROCESS: "bench-worker" }, stdio: ["ignore", "pipe", "inherit"] });
+    worker = spawn(process.execPath, [...(process.env.BENCH_WORKER_FLAGS?.split(" ").filter(Boolean) ?? []), "--import", "tsx", "server/worker.ts"], { env: { ...process.env, LOG_LEVEL: "info", LF_PROCESS: "bench-worker" }, stdio: ["ignore", "pipe", "inherit"] });
+    const costs: RunCost[] = [];
+    let costSeen = () => {};
     const ready = new Promise<void>((resolve, reject) => {
-      createInterface({ input: worker!.stdout! }).on("line", (l) => l.includes('"worker ready"') && resolve());
+      createInterface({ input: worker!.stdout! }).on("line", (l) => {
+        if (l.includes('"worker ready"')) resolve();
+        if (l.includes('"tracking run done"')) {
+          costs.push(JSON.parse(l).cost);
+          costSeen();
+        }
+        if (process.env.BENCH_WORKER_LOG && (!l.startsWith("{") || l.includes('"job started"'))) appendFileSync(process.env.BENCH_WORKER_LOG, `${l}\n`);
+      });
       worker!.once("exit", (c) => reject(new Error(`the worker stopped (exit ${c})`)));
     });
     await ready;
@@ -136,6 +164,8 @@ export async function benchTrackJob(rounds: number, scene: SceneOptions = JOB_SC
       const decode = await decodeAlone(baselineClip, truth.width * truth.height * truth.frameCount);
       const matching = replay();
       const cpu0 = cpuParts(worker.pid!);
+      const costAt = costs.length;
+      const costArrived = new Promise<void>((res) => (costSeen = res));
       const t0 = performance.now();
       const started = await analyst.post(`${team}/shots/${shotId}/tracking`, { seedFrame: 1, seeds });
       if (started.status !== 202) throw new Error(`tracking not started: ${started.status} ${started.text}`);
@@ -150,6 +180,8 @@ export async function benchTrackJob(rounds: number, scene: SceneOptions = JOB_SC
       stored = Object.values(run.proposals.tracks as Record<string, { marks: unknown[] }>).reduce((n, t) => n + t.marks.length, 0);
       walls.push(wall);
       const cpu1 = cpuParts(worker.pid!);
+      await Promise.race([costArrived, new Promise((r) => setTimeout(r, 2000))]);
+      console.log(`  round ${r + 1}: ${describeCost(cpu1.own - cpu0.own, costs[costAt])}; load ${load()}`);
       owns.push(cpu1.own - cpu0.own);
       cpus.push(cpu1.own - cpu0.own + cpu1.children - cpu0.children);
       decodes.push(decode);

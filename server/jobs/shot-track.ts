@@ -15,6 +15,7 @@ import { clipKeys } from "../storage";
 import { mediaConfig, storage } from "../clips/deps";
 import { FrameStore } from "../tracking/frame-store";
 import { buildProposals } from "../tracking/proposals";
+import { startRunCost, type RunCostMeter } from "../tracking/run-cost";
 import * as repo from "../entities/tracking-run/repository";
 import { isTrackInputError } from "../../shared/tracking/errors";
 import { trackShot } from "../../shared/tracking/shot-tracker";
@@ -36,6 +37,15 @@ export type TrackOutcome = "done" | "failed" | "skipped";
 class RunGone extends Error {}
 
 export async function runTracking(runId: string, job: TrackRun): Promise<TrackOutcome> {
+  const cost = startRunCost();
+  try {
+    return await track(runId, job, cost);
+  } finally {
+    cost.stop();
+  }
+}
+
+async function track(runId: string, job: TrackRun, cost: RunCostMeter): Promise<TrackOutcome> {
   const run = await repo.claimRun(runId, job.jobId, trackStaleMs());
   if (!run) {
     job.log.info({ runId }, "tracking run not waiting (cancelled, deleted or taken); skipped");
@@ -63,6 +73,7 @@ export async function runTracking(runId: string, job: TrackRun): Promise<TrackOu
       if (!(await repo.setProgress(runId, job.jobId, { phase, done, total }))) abort.abort(new RunGone("the run was cancelled or deleted"));
     });
   };
+  cost.phase("claim");
   let last$ = { phase: "decoding" as "decoding" | "tracking" | "events", done: 0, total: 0 };
   const beat = setInterval(() => progress(last$.phase, last$.done, last$.total, true), HEARTBEAT_MS);
   progress("decoding", 0, 0, true);
@@ -97,6 +108,7 @@ export async function runTracking(runId: string, job: TrackRun): Promise<TrackOu
             progress("tracking", p.done, p.total);
           },
         );
+        cost.phase("decode and track");
         return tracked;
       } finally {
         abort.abort(new RunGone("finished"));
@@ -105,11 +117,14 @@ export async function runTracking(runId: string, job: TrackRun): Promise<TrackOu
       }
     });
     await writes;
+    cost.phase("decoder's end, progress writes");
     if (abort.signal.reason instanceof RunGone && abort.signal.reason.message !== "finished") return "skipped";
     last$ = { phase: "events", done: result.work, total: result.work };
     const proposals = buildProposals(run.seedFrame, run.seeds as Partial<Record<Landmark, [number, number]>>, result, { calibrated: !!work.calibration });
+    cost.phase("events");
     if (!(await repo.finishRun(runId, job.jobId, proposals, result.work))) return "skipped";
-    job.log.info({ runId, landmarkFrames: result.work }, "tracking run done");
+    cost.phase("store");
+    job.log.info({ runId, landmarkFrames: result.work, cost: cost.end() }, "tracking run done");
     return "done";
   } catch (err) {
     await writes.catch(() => undefined);
