@@ -8,6 +8,7 @@ import { execa } from "execa";
 import { classifyFailure, formatCommand, withNice } from "./command";
 import { FfmpegError } from "./errors";
 import { ProgressParser, type FfmpegProgress } from "./progress";
+import { readStdoutInto, type SinkReading, type StdoutSink } from "./stdout-socket";
 
 /** pino's call shape, so the server's logger can be passed straight in. */
 export interface MediaLogger {
@@ -50,11 +51,12 @@ export interface RunOptions {
   /** Keep stdout (ffprobe JSON / CSV), up to maxStdoutBytes. */
   captureStdout?: boolean;
   /**
-   * Binary stdout (raw frames), chunk by chunk, instead of text. A returned promise pauses the
-   * pipe until it settles (ffmpeg then blocks on the full pipe); a rejection stops the run and is
-   * what runTool throws. Each chunk counts as progress for the watchdog.
+   * Binary stdout (raw frames) read straight into memory the sink names, through a local socket
+   * (stdout-socket.ts, decision 148) instead of a pipe read in 64 KB chunks. Each read counts as
+   * progress for the watchdog; a held read pauses the tool, a failed one stops the run and is what
+   * runTool throws.
    */
-  onStdoutData?: (chunk: Buffer) => void | Promise<void>;
+  stdoutInto?: StdoutSink;
   maxStdoutBytes?: number;
   stderrTailChars?: number;
   /** Log level for a failed run; "warn" where failure is an expected answer (probing uploads). */
@@ -144,13 +146,31 @@ export async function runTool(config: MediaConfig, o: RunOptions): Promise<RunRe
   const maxStdout = o.maxStdoutBytes ?? 256 * 1024 * 1024;
   const started = Date.now();
 
-  if (o.signal?.aborted) {
+  // The socket is read before the tool starts; its hooks reach the watchdog and the kill once it runs.
+  // A sink's failure before then (its first memory) stops the run here.
+  let consumerError: unknown;
+  const onRead = { progress: () => {}, stop: () => {} };
+  let sink: SinkReading | undefined;
+  if (o.stdoutInto && !o.signal?.aborted) {
+    sink = await readStdoutInto(o.stdoutInto, {
+      progress: () => onRead.progress(),
+      failed: (err) => {
+        consumerError ??= err;
+        onRead.stop();
+      },
+    });
+  }
+  if (o.signal?.aborted || consumerError) {
+    sink?.childEnd.destroy();
+    sink?.destroy();
+    if (consumerError) throw consumerError;
     throw new FfmpegError("aborted", `${o.tool} was cancelled`, { command, stderrTail: "", durationMs: 0 });
   }
 
   const sub = execa(file, args, {
     cwd: o.cwd,
     stdin: "ignore",
+    stdout: sink?.childEnd ?? "pipe",
     buffer: false,
     reject: false,
     detached: true,
@@ -171,13 +191,16 @@ export async function runTool(config: MediaConfig, o: RunOptions): Promise<RunRe
 
   const timer = setTimeout(() => stop("timeout"), o.timeoutMs);
   let stallTimer: NodeJS.Timeout | undefined;
+  // Re-armed on every read of raw frames (thousands a run): refresh() keeps the one timer.
   const armStall = () => {
     if (!o.stallTimeoutMs) return;
-    clearTimeout(stallTimer);
-    stallTimer = setTimeout(() => stop("stalled"), o.stallTimeoutMs);
+    if (stallTimer) stallTimer.refresh();
+    else stallTimer = setTimeout(() => stop("stalled"), o.stallTimeoutMs);
   };
   armStall();
   o.heartbeat?.(armStall);
+  onRead.progress = armStall;
+  onRead.stop = () => stop("aborted");
   const onAbort = () => stop("aborted");
   o.signal?.addEventListener("abort", onAbort, { once: true });
 
@@ -186,38 +209,9 @@ export async function runTool(config: MediaConfig, o: RunOptions): Promise<RunRe
   let stderrTail = "";
   const parser = o.onProgress ? new ProgressParser() : undefined;
   let lastKey = "";
-  let consumerError: unknown;
-  let consuming = Promise.resolve();
-  let stdoutEnded = Promise.resolve();
-  if (o.onStdoutData) {
-    const consume = o.onStdoutData;
-    const out = sub.stdout;
-    stdoutEnded = new Promise((r) => {
-      out?.once("end", r);
-      out?.once("close", r);
-    });
-    // Chunks are handed over one at a time, in order, each after the previous one's promise; the
-    // pipe is paused while a few wait (a hint: the chain keeps the order even if it flows on).
-    let waiting = 0;
-    out?.on("data", (chunk: Buffer) => {
-      armStall();
-      if (consumerError) return;
-      waiting++;
-      if (waiting > 4) out.pause();
-      consuming = consuming
-        .then(() => (consumerError ? undefined : consume(chunk)))
-        .catch((err) => {
-          consumerError ??= err;
-          stop("aborted");
-        })
-        .finally(() => {
-          waiting--;
-          if (waiting <= 1 && out.isPaused()) out.resume();
-        });
-    });
-  } else sub.stdout?.setEncoding("utf8");
+  sub.stdout?.setEncoding("utf8");
   sub.stderr?.setEncoding("utf8");
-  if (!o.onStdoutData) sub.stdout?.on("data", (chunk: string) => {
+  sub.stdout?.on("data", (chunk: string) => {
     if (o.captureStdout && !stdoutOverflow) {
       stdout += chunk;
       if (stdout.length > maxStdout) stdoutOverflow = true;
@@ -239,21 +233,22 @@ export async function runTool(config: MediaConfig, o: RunOptions): Promise<RunRe
   sub.stderr?.on("data", (chunk: string) => {
     stderrTail = (stderrTail + chunk).slice(-tailChars);
   });
-  // A grandchild that inherited the pipes would keep them open after the tool exits.
-  // A paused binary stdout still holds the last frames: read them all before giving up on the pipe.
+  // A grandchild that inherited the pipes would keep them open after the tool exits. A held raw
+  // stdout still has the last frames to read: it ends once nothing more comes while nothing is held.
   sub.on("exit", () => {
-    void consuming.finally(() =>
-      setTimeout(() => {
-        sub.stdout?.destroy();
-        sub.stderr?.destroy();
-      }, 1000).unref(),
-    );
+    setTimeout(() => {
+      sub.stdout?.destroy();
+      sub.stderr?.destroy();
+    }, 1000).unref();
+    sink?.endWhenQuiet(1000);
   });
 
   const result = await sub;
-  // The pipe may still hold the last frames while the consumer works: read to its end.
-  await stdoutEnded;
-  for (let seen: Promise<void> | null = null; seen !== consuming; ) await (seen = consuming);
+  // Our copy of the child's end of the socket stays open until the child is gone (execa watches it
+  // until then); closed, the reader sees the end once it has read the last frames.
+  sink?.childEnd.destroy();
+  await sink?.done();
+  sink?.destroy();
   clearTimeout(timer);
   clearTimeout(stallTimer);
   clearTimeout(escalation);

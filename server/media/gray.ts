@@ -104,6 +104,7 @@ export async function decodeGrayFrames(config: MediaConfig, o: GrayDecodeOptions
   let beat = () => {};
   let filled = 0;
   let next = o.first;
+  // ffmpeg's bytes land straight in the frame being filled (decision 148); a full frame is handed over.
   await runTool(config, {
     tool: "ffmpeg",
     args,
@@ -111,30 +112,20 @@ export async function decodeGrayFrames(config: MediaConfig, o: GrayDecodeOptions
     stallTimeoutMs: 30_000,
     signal: o.signal,
     heartbeat: (b) => (beat = b),
-    onStdoutData: async (chunk) => {
-      let at = 0;
-      while (at < chunk.length) {
-        const n = Math.min(bytes - filled, chunk.length - at);
-        frame ??= new Uint8Array(bytes);
-        frame.set(chunk.subarray(at, at + n), filled);
+    stdoutInto: {
+      next: () => (frame ??= new Uint8Array(bytes)).subarray(filled),
+      read: (n) => {
         filled += n;
-        at += n;
-        if (filled === bytes) {
-          const done = frame;
-          frame = null;
-          filled = 0;
-          if (next > o.last) throw new FfmpegError("failed", `ffmpeg gave more frames than the ${o.last - o.first + 1} asked for`, { command: "", stderrTail: "", durationMs: 0 });
-          const held = o.onFrame(next++, done);
-          if (held) {
-            const beating = setInterval(beat, HELD_BEAT_MS);
-            try {
-              await held;
-            } finally {
-              clearInterval(beating);
-            }
-          }
-        }
-      }
+        if (filled < bytes) return;
+        const done = frame!;
+        frame = null;
+        filled = 0;
+        if (next > o.last) throw new FfmpegError("failed", `ffmpeg gave more frames than the ${o.last - o.first + 1} asked for`, { command: "", stderrTail: "", durationMs: 0 });
+        const held = o.onFrame(next++, done);
+        if (!held) return;
+        const beating = setInterval(beat, HELD_BEAT_MS);
+        return Promise.resolve(held).finally(() => clearInterval(beating));
+      },
     },
   });
   if (filled !== 0) throw new FfmpegError("failed", `ffmpeg ended inside frame ${next} (${filled} of ${bytes} bytes): the frame size is not ${o.width}×${o.height}`, { command: "", stderrTail: "", durationMs: 0 });

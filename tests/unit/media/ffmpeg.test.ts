@@ -161,6 +161,89 @@ describe("a worker stopped by SIGTERM", () => {
   }, 20_000);
 });
 
+// Raw output read straight into the caller's memory through a local socket (decision 148). The
+// stand-ins write a known byte pattern: byte i is i mod 251, so a lost, doubled or shifted read shows.
+describe("runTool with stdoutInto", () => {
+  const pattern = (n: number) => Uint8Array.from({ length: n }, (_, i) => i % 251);
+  // The pattern written in writes of 1 byte to 70 KB, so reads end anywhere inside a piece.
+  const patternScript = (size: number) => `node -e 'const b=Buffer.alloc(${size});for(let i=0;i<${size};i++)b[i]=i%251;let at=0;const w=()=>{while(at<b.length){const n=Math.min(b.length-at,1+(at%70000));if(!process.stdout.write(b.subarray(at,at+n))){at+=n;return process.stdout.once("drain",w)}at+=n}};w()'`;
+  /** A sink of fixed-size pieces, like frames; `hold` delays some reads. */
+  const pieces = (size: number, hold?: (piece: number) => Promise<void> | undefined) => {
+    const got: Uint8Array[] = [];
+    let piece: Uint8Array | null = null;
+    let filled = 0;
+    let reads = 0;
+    return {
+      got,
+      reads: () => reads,
+      sink: {
+        next: () => (piece ??= new Uint8Array(size)).subarray(filled),
+        read: (n: number) => {
+          reads++;
+          filled += n;
+          if (filled < size) return;
+          got.push(piece!);
+          piece = null;
+          filled = 0;
+          return hold?.(got.length);
+        },
+      },
+    };
+  };
+
+  it("the tool's stdout is a socket, and every byte lands in the sink's memory in order", async () => {
+    const size = 300_000, count = 7;
+    const tool = await standIn(dir, "writer.sh", `readlink /proc/$$/fd/1 >&2
+${patternScript(size * count)}`);
+    const p = pieces(size);
+    const r = await runTool(testMedia({ ffmpegPath: tool }), { tool: "ffmpeg", args: [], timeoutMs: 20_000, stdoutInto: p.sink });
+    expect(r.stderrTail).toMatch(/^socket:/);
+    expect(p.got).toHaveLength(count);
+    expect(Buffer.concat(p.got).equals(Buffer.from(pattern(size * count)))).toBe(true);
+    // Reads fill the pieces' memory as it comes: at most one read per write, never 64 KB copies.
+    expect(p.reads()).toBeGreaterThanOrEqual(count);
+  });
+
+  it("a held read pauses the tool and loses nothing", async () => {
+    const size = 200_000, count = 6;
+    const tool = await standIn(dir, "writer-held.sh", patternScript(size * count));
+    const p = pieces(size, (n) => (n % 2 ? new Promise((r) => setTimeout(r, 150)) : undefined));
+    await runTool(testMedia({ ffmpegPath: tool }), { tool: "ffmpeg", args: [], timeoutMs: 20_000, stallTimeoutMs: 10_000, stdoutInto: p.sink });
+    expect(Buffer.concat(p.got).equals(Buffer.from(pattern(size * count)))).toBe(true);
+  });
+
+  it("a sink that throws, or rejects, stops the tool, and runTool throws its error", async () => {
+    const tool = await standIn(dir, "writer-endless.sh", "cat /dev/zero");
+    const throwing = pieces(100_000, (n) => {
+      if (n === 3) throw new Error("the third piece is refused");
+      return undefined;
+    });
+    await expect(runTool(testMedia({ ffmpegPath: tool, killGraceMs: 300 }), { tool: "ffmpeg", args: [], timeoutMs: 20_000, stdoutInto: throwing.sink })).rejects.toThrow(
+      "the third piece is refused",
+    );
+    expect(throwing.got).toHaveLength(3);
+    const rejecting = pieces(100_000, (n) => (n === 2 ? Promise.reject(new Error("no room for the second piece")) : undefined));
+    await expect(runTool(testMedia({ ffmpegPath: tool, killGraceMs: 300 }), { tool: "ffmpeg", args: [], timeoutMs: 20_000, stdoutInto: rejecting.sink })).rejects.toThrow(
+      "no room for the second piece",
+    );
+    const empty = { next: () => new Uint8Array(0), read: () => {} };
+    await expect(runTool(testMedia({ ffmpegPath: tool }), { tool: "ffmpeg", args: [], timeoutMs: 20_000, stdoutInto: empty })).rejects.toThrow(/no memory to read into/);
+  });
+
+  it("ends when the tool exits even if a grandchild keeps its stdout open", async () => {
+    const pidFile = path.join(dir, "holder.pid");
+    const tool = await standIn(dir, "writer-grandchild.sh", `${patternScript(50_000)}\nsleep 30 &\necho $! > ${pidFile}`);
+    const p = pieces(50_000);
+    await runTool(testMedia({ ffmpegPath: tool }), { tool: "ffmpeg", args: [], timeoutMs: 20_000, stdoutInto: p.sink });
+    expect(p.got).toHaveLength(1);
+    // Still alive: the run did not wait for its time limit, which kills the whole group.
+    const holder = Number((await readFile(pidFile, "utf8")).trim());
+    const stat = await readFile(`/proc/${holder}/stat`, "utf8").catch(() => "");
+    expect(stat.split(") ")[1]?.[0], "the holder's state in /proc/<pid>/stat (proc(5)): running or sleeping, not gone or a zombie").toMatch(/[RS]/);
+    process.kill(holder, "SIGKILL");
+  });
+});
+
 describe("job folders", () => {
   it("are removed after the job, also when it throws", async () => {
     const media = testMedia({ tmpRoot: path.join(dir, "jobs") });
