@@ -16,7 +16,8 @@
 // --cpu: only bare Express, the app's health route (the path every request shares), the clip list,
 // one shot's results and the Shots list at 100 requests/s
 // with one web process, for their CPU per request (a short run for profiling with BENCH_CPU_PROF, when the
-// whole bench is too long for a shared machine).
+// whole bench is too long for a shared machine). BENCH_LOG_LEVEL=info: the web process logs a line
+// per request, as at the default level of server/env.ts (error otherwise; stdout goes to /dev/null).
 import { execFileSync, spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { createHash, randomBytes } from "node:crypto";
 import { mkdtempSync, readFileSync, rmSync } from "node:fs";
@@ -109,7 +110,7 @@ try {
     }
     // BENCH_CPU_PROF=<folder> writes a V8 CPU profile of the server (open it in Chromium's DevTools).
     const prof = process.env.BENCH_CPU_PROF ? ["--cpu-prof", "--cpu-prof-dir", path.resolve(process.env.BENCH_CPU_PROF)] : [];
-    server = spawn(process.execPath, [...prof, "--import", "tsx", "server/index.ts"], { env: { ...process.env, PORT: String(port), PUBLIC_URL: base, LOG_LEVEL: "error", WEB_PROCESSES: String(procs) }, stdio: ["ignore", "ignore", "inherit"] });
+    server = spawn(process.execPath, [...prof, "--import", "tsx", "server/index.ts"], { env: { ...process.env, PORT: String(port), PUBLIC_URL: base, LOG_LEVEL: process.env.BENCH_LOG_LEVEL ?? "error", WEB_PROCESSES: String(procs) }, stdio: ["ignore", "ignore", "inherit"] });
     for (let i = 0; i < 300 && !(await fetch(`${base}/api/health`).then((r) => r.ok, () => false)); i++) await new Promise((r) => setTimeout(r, 200));
     // With a supervisor, wait until every web process is up (each answers on its own connection).
     for (let i = 0; i < 300 && procs > 1 && webPids().length < procs + 1; i++) await new Promise((r) => setTimeout(r, 200));
