@@ -4,9 +4,12 @@ import { startRunCost } from "../../../server/tracking/run-cost";
 // What a tracking run cost its worker, as logged with the run's end and printed by bench:track
 // (decision 156): CPU and event-loop use per phase, CPU per thread group, collections, page faults.
 
+/** Spins until this process has spent `ms` of CPU (not wall time: on a loaded machine 120 ms of
+ * wall time may hold only a few ms of CPU, and the busy phase must be told from the idle one). */
 const burn = (ms: number) => {
   let x = 0;
-  for (const end = performance.now() + ms; performance.now() < end; ) x += Math.sqrt(x + 1);
+  const cpu = () => { const u = process.cpuUsage(); return (u.user + u.system) / 1000; };
+  for (const end = cpu() + ms; cpu() < end; ) for (let i = 0; i < 1e4; i++) x += Math.sqrt(x + 1);
   return x;
 };
 
