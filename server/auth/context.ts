@@ -3,6 +3,7 @@ import { fromNodeHeaders } from "better-auth/node";
 import { auth } from "./auth";
 import type { z } from "zod";
 import { HttpError, notFound, unauthenticated, zodToHttp } from "../http/problem";
+import { SAFE_METHODS } from "../http/safe-methods";
 import { LRUCache } from "lru-cache";
 import { roleIn } from "../entities/member/repository";
 import { parseRole, type Role } from "../entities/member/role";
@@ -26,8 +27,6 @@ declare global {
     }
   }
 }
-
-const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
 
 /**
  * The signed-in person, or null. Reads trust better-auth's signed 60 s cookie copy of the session

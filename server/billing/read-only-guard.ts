@@ -7,15 +7,15 @@ import { Metadata } from "@tus/server";
 import { readSession, roleIn } from "../auth/context";
 import { env } from "../env";
 import { sendProblem } from "../http/problem";
+import { SAFE_METHODS } from "../http/safe-methods";
 import { accessOf } from "./access";
 import { clubOfTeam } from "../entities/club/repository";
 
-const SAFE = new Set(["GET", "HEAD", "OPTIONS"]);
 const TEAM_PATH = /^\/api\/teams\/([^/]+)(\/.*)?$/;
 
 /** The team a write goes to, or null when it goes to no team (or to the team's billing). */
 export function teamOfWrite(req: Pick<Request, "method" | "path" | "get">): string | null {
-  if (SAFE.has(req.method)) return null;
+  if (SAFE_METHODS.has(req.method)) return null;
   const m = TEAM_PATH.exec(req.path);
   if (m) return (m[2] ?? "").startsWith("/billing") ? null : decodeURIComponent(m[1]!);
   if (req.path === "/api/uploads" && req.method === "POST") {

@@ -5,10 +5,10 @@
 import type { NextFunction, Request, RequestHandler, Response } from "express";
 import { startRequestLog } from "../log";
 import { refuseControlCharactersInUrl } from "./request-guards";
+import { SAFE_METHODS } from "./safe-methods";
 
 /** The path Express would mount `/api` on: `/api` itself or below, letters in any case. */
 const API = /^\/api(?:\/|$)/i;
-const SAFE = new Set(["GET", "HEAD", "OPTIONS"]);
 
 export interface EveryRequestChecks {
   /** The protective headers every answer carries (server/security/headers.ts). */
@@ -32,7 +32,7 @@ export function everyRequest(c: EveryRequestChecks): RequestHandler {
     startRequestLog(req, res);
     c.setSecurityHeaders(res);
     const path = req.path;
-    const write = !SAFE.has(req.method);
+    const write = !SAFE_METHODS.has(req.method);
     if (API.test(path) && (refuseControlCharactersInUrl(req, res) || (write && c.refuseCrossSiteWrite(req, res)))) return;
     const afterLimit: NextFunction = write ? () => void c.refuseWritesWhenUnpaid(req, res, next).catch(next) : next;
     const limiter = c.rateLimitFor(req.method, path);

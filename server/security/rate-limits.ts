@@ -4,6 +4,7 @@
 // share one count per address.
 import type { RequestHandler } from "express";
 import { ipKeyGenerator, rateLimit } from "express-rate-limit";
+import { match } from "path-to-regexp";
 import { sendProblem } from "../http/problem";
 import { PostgresRateLimitStore } from "./rate-limit-store";
 
@@ -78,20 +79,17 @@ export const LIMITED_ROUTES = [
 ] as const satisfies readonly { paths: readonly string[]; counted: Counted; name: string; limit: number; what: string }[];
 
 /**
- * An Express mount path as a test of a request's path, with Express's matching for `app.use(path)`:
- * letters in any case, a `:param` one segment, and the path itself or anything under it.
+ * An Express mount path as a test of a request's path, by path-to-regexp, the matcher Express's
+ * router itself uses for `app.use(path)`: letters in any case, a `:param` one segment, the path
+ * itself or anything under it. Not decoded: a path Express cannot decode is still counted.
  * (tests/unit/security/rate-limit-routes.test.ts holds it to Express's own router.)
  */
-export function mountPathTest(path: string): RegExp {
-  const pattern = path.split(/(:\w+)/).map((part) => (part.startsWith(":") ? "[^/]+" : part.replace(/[.*+?^${}()|[\]\\]/g, "\\$&"))).join("");
-  return new RegExp(`^${pattern}/?(?=/|$)`, "i");
-}
-
+const mountPathTest = (path: string) => match(path, { end: false, sensitive: false, decode: false });
 const routeTests = LIMITED_ROUTES.map((r) => ({ route: r, counts: counts[r.counted], tests: r.paths.map(mountPathTest) }));
 
 /** The limited route that counts a request with this method and path (`req.path`), if any. */
 export function limitedRouteOf(method: string, path: string): (typeof LIMITED_ROUTES)[number] | undefined {
-  for (const r of routeTests) if (r.counts(method) && r.tests.some((t) => t.test(path))) return r.route;
+  for (const r of routeTests) if (r.counts(method) && r.tests.some((t) => t(path) !== false)) return r.route;
   return undefined;
 }
 

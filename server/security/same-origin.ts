@@ -12,8 +12,8 @@
 // standard headers") [M].
 import type { Request, Response } from "express";
 import { sendProblem } from "../http/problem";
+import { SAFE_METHODS } from "../http/safe-methods";
 
-const SAFE = new Set(["GET", "HEAD", "OPTIONS"]);
 
 const originOf = (url: string) => {
   try {
@@ -27,7 +27,7 @@ export type OriginVerdict = "allow" | "refuse";
 
 /** The decision alone (pure), for the table test. */
 export function judgeWrite(h: { method: string; secFetchSite?: string; origin?: string; host?: string; protocol: string }, trusted: ReadonlySet<string>): OriginVerdict {
-  if (SAFE.has(h.method.toUpperCase())) return "allow";
+  if (SAFE_METHODS.has(h.method.toUpperCase())) return "allow";
   const origin = h.origin && h.origin !== "null" ? originOf(h.origin) : h.origin === "null" ? "null" : undefined;
   if (origin && origin !== "null" && trusted.has(origin)) return "allow";
   const site = h.secFetchSite?.toLowerCase();
@@ -44,7 +44,7 @@ export function judgeWrite(h: { method: string; secFetchSite?: string; origin?: 
 export function refuseCrossSiteWrite(trustedOrigins: () => readonly string[]): (req: Request, res: Response) => boolean {
   let trusted: Set<string> | undefined;
   return (req, res) => {
-    if (SAFE.has(req.method)) return false;
+    if (SAFE_METHODS.has(req.method)) return false;
     trusted ??= new Set(trustedOrigins().map(originOf).filter((o): o is string => o !== null));
     const verdict = judgeWrite(
       { method: req.method, secFetchSite: req.get("sec-fetch-site"), origin: req.get("origin"), host: req.get("host"), protocol: req.protocol },
