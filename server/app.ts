@@ -62,7 +62,8 @@ export function createApp() {
   app.use("/api", (_req, res) => sendProblem(res, 404, "not_found", "No such API route."));
 
   const dist = path.resolve("dist");
-  if (fs.existsSync(path.join(dist, "index.html"))) {
+  const built = fs.existsSync(path.join(dist, "index.html"));
+  if (built) {
     // The tracking worker runs opencv.js, whose build evaluates generated code. A worker obeys the
     // policy sent with its own script, so only that one file gets 'unsafe-eval'; pages keep theirs.
     app.use("/assets", (req, res, next) => {
@@ -73,6 +74,11 @@ export function createApp() {
     app.use(express.static(dist, { index: false, maxAge: "1h" }));
     app.get("/{*splat}", (_req, res) => res.sendFile(path.join(dist, "index.html")));
   }
+  // Whatever is left (no page build yet, or a method pages don't take) gets our 404, so it keeps
+  // the headers set above: Express's own final handler would replace the page policy with its own.
+  app.use((_req, res) =>
+    sendProblem(res, 404, "not_found", built ? "No such page." : "The web app is not built yet: run `npx vite build`."),
+  );
   app.use(problemHandler);
   return app;
 }
