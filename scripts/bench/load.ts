@@ -18,6 +18,8 @@
 // with one web process, for their CPU per request (a short run for profiling with BENCH_CPU_PROF, when the
 // whole bench is too long for a shared machine). BENCH_LOG_LEVEL=info: the web process logs a line
 // per request, as at the default level of server/env.ts (error otherwise; stdout goes to /dev/null).
+// --only <words>: with --cpu, only the scenarios whose name holds these words (bare Express always
+// runs: it is the yardstick), e.g. `-- --cpu --only "random shot"` to profile one route.
 import { execFileSync, spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { createHash, randomBytes } from "node:crypto";
 import { mkdtempSync, readFileSync, rmSync } from "node:fs";
@@ -36,6 +38,7 @@ if (!process.env.PG_ADMIN_URL) {
 }
 
 const CPU_ONLY = process.argv.includes("--cpu");
+const ONLY = process.argv.includes("--only") ? process.argv[process.argv.indexOf("--only") + 1] : undefined;
 const RATE = CPU_ONLY ? 100 : 200;
 const SECONDS = 5;
 const UPLOADS = 20;
@@ -316,7 +319,7 @@ try {
     console.log(`  goal p95 < 50 ms: ${api.p95 < 50 ? "met" : "NOT met"}`);
     table.push({ name: s.name, procs, api, raw, rate: s.rate, cpu, dbMs });
   }
-  for (const s of busy) await run(s, 1);
+  for (const s of busy) if (!CPU_ONLY || !ONLY || s.name.includes(ONLY)) await run(s, 1);
   if (CPU_ONLY) {
     console.log(`\n  load average ${load()} at the end (${os.cpus().length} cores)`);
     client.close();

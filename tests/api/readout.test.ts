@@ -1,6 +1,8 @@
 // Shot readout, list, side by side and progress on real PostgreSQL: the numbers are the engine's,
 // a player sees own and shared shots only, comparing across teams or reading a deleted shot gives a
 // clear message and nothing of the other shot.
+import { createHash } from "node:crypto";
+import { sql } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { Client, EMAILS, seedWorld, startServer, type TestServer } from "./helpers";
 import { insertReadyClip } from "./routes/shots";
@@ -191,6 +193,62 @@ describe("one shot's readout answered from the stored text", () => {
     const built = await getReadout({ userId: uid(EMAILS.coach), teamId: world.teamId, role: "coach" }, s.shotId);
     expect(r.json).toEqual(JSON.parse(JSON.stringify(built)));
     expect(r.json.results).toEqual(JSON.parse(JSON.stringify(s.results)));
+  });
+});
+
+describe("one shot's readout, its bytes (decision 193)", () => {
+  // The answer's bytes are written piece by piece (the head, then the stored results): they must
+  // be exactly what joining the text and encoding it made before, for every kind of reader.
+  const sha1 = (t: string) => createHash("sha1").update(t).digest("base64");
+  async function oldBytes(email: string, role: "coach" | "player", shotId: string) {
+    const { getReadout } = await import("../../server/readout/service");
+    const { weakTagOf } = await import("../../server/http/json-answer");
+    const { db } = await import("../../server/db/client");
+    const { results, ...rest } = await getReadout({ userId: uid(email), teamId: world.teamId, role }, shotId);
+    const stored = results === null ? "null" : (await db().execute<{ t: string }>(sql`select results::text as t from shot_result where shot_id = ${shotId}`)).rows[0].t;
+    const head = JSON.stringify(rest).slice(0, -1);
+    const text = `${head},"results":${stored}}`;
+    return { bytes: Buffer.from(text), tag: weakTagOf(text.length, head, results === null ? "" : sha1(stored)) };
+  }
+  async function expectOldBytes(c: Client, email: string, role: "coach" | "player", shotId: string) {
+    const want = await oldBytes(email, role, shotId);
+    // A first read, then the kept answer (decision 192).
+    for (const read of ["first", "kept"]) {
+      const r = await c.get(`${R()}/shots/${shotId}`);
+      expect(r.status, `${email} ${read}: ${r.text.slice(0, 200)}`).toBe(200);
+      expect(Buffer.from(r.text).equals(want.bytes), `${email} ${read}: same bytes`).toBe(true);
+      expect(r.headers.get("content-length")).toBe(String(want.bytes.length));
+      expect(r.headers.get("etag"), `${email} ${read}`).toBe(want.tag);
+    }
+    return want.bytes;
+  }
+
+  it("staff and players, shared and not, with and without results: the bytes the joined text made", async () => {
+    const { db } = await import("../../server/db/client");
+    // Beyond Latin-1 in the head (the label) and in the stored results (a note with an astral
+    // character, two UTF-16 units): the pieces' encodings and the ETag's length in UTF-16 units.
+    const withResults = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Bytes — slap 𝛉" });
+    await db().execute(sql`update shot_result set results = jsonb_set(results, '{notes}', results->'notes' || '[{"code":"bytes","message":"± 2° — 𝛉 near the heel"}]') where shot_id = ${withResults.shotId}`);
+    const noResults = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Bytes — no results", uncalibrated: true });
+    const sharedOne = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Bytes — shared" });
+    const unshaped = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Bytes — not the engine's shape" });
+    await db().execute(sql`update shot_result set results = '{"puckExitSpeed": "fast"}' where shot_id = ${unshaped.shotId}`);
+    const shared = await coach.post(`${R()}/shots/${sharedOne.shotId}/shares`, { player: true, teammates: [uid(EMAILS.player2)], staff: true });
+    expect(shared.status, shared.text).toBe(201);
+
+    const sent = await expectOldBytes(coach, EMAILS.coach, "coach", withResults.shotId);
+    expect(sent.toString()).toContain("± 2° — 𝛉 near the heel");
+    await expectOldBytes(player, EMAILS.player, "player", withResults.shotId);
+    const none = await expectOldBytes(coach, EMAILS.coach, "coach", noResults.shotId);
+    expect(none.toString()).toMatch(/,"results":null}$/);
+    await expectOldBytes(player, EMAILS.player, "player", noResults.shotId);
+    expect((await expectOldBytes(coach, EMAILS.coach, "coach", unshaped.shotId)).toString()).toMatch(/,"results":null}$/);
+    const staffView = await expectOldBytes(coach, EMAILS.coach, "coach", sharedOne.shotId);
+    const ownerView = await expectOldBytes(player, EMAILS.player, "player", sharedOne.shotId);
+    const sharedView = await expectOldBytes(player2, EMAILS.player2, "player", sharedOne.shotId);
+    // Each reader's own answer: staff see every share, a player only their own.
+    expect(JSON.parse(staffView.toString()).shares.length).toBeGreaterThan(JSON.parse(sharedView.toString()).shares.length);
+    expect(ownerView.equals(sharedView)).toBe(false);
   });
 });
 
