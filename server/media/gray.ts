@@ -26,10 +26,12 @@ export interface GraySpecInput {
 // (extractplanes) instead of through swscale's conversion to `gray`, which for 1280×720 costs a
 // third as much CPU as decoding H.264. Limited-range luma (16–235) is stretched to 0–255 by a
 // lookup table with the formula swscale uses: the same bytes as `-pix_fmt gray` for every level
-// (tests/unit/media/gray.test.ts compares them). Anything else (RGB, more than 8 bits, packed or
-// semi-planar layouts) keeps the general conversion.
+// (tests/unit/media/gray.test.ts compares them). The rarer subsamplings too: 4:1:1 is NTSC DV's, a
+// format of older lab camcorders, whose decode costs ~17 % less ffmpeg CPU this way (decision 149).
+// Anything else (RGB, more than 8 bits, packed or semi-planar layouts, a JPEG decoder's 4:1:1 and
+// 4:4:0, which no test file here can hold) keeps the general conversion.
 const LIMITED_LUMA_TO_FULL = "lut=c0='clip(round((val-16)*255/219),0,255)'";
-const PLANAR_YUV_8BIT = /^yuvj?(420|422|444)p$/;
+const PLANAR_YUV_8BIT = /^(yuvj?(420|422|444)p|yuv(411|410|440)p)$/;
 
 /** The filters that turn the decoded picture into 8-bit grey cheaply, or none (swscale converts). */
 export function lumaFilters(s: Pick<GraySpecInput, "pixelFormat" | "colorRange">): string[] {

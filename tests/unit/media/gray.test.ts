@@ -40,7 +40,8 @@ describe("buildGraySpec", () => {
     expect(vf("yuv420p", null)).toContain("extractplanes=y,lut=");
     expect(vf("yuvj420p", "pc")).toBe("trim=start_frame=0:end_frame=9,extractplanes=y");
     expect(vf("yuv444p", "pc")).toBe("trim=start_frame=0:end_frame=9,extractplanes=y");
-    for (const f of ["yuv420p10le", "rgb24", "nv12", "gray16le", "yuva420p"]) expect(vf(f, "tv")).toBe("trim=start_frame=0:end_frame=9");
+    expect(vf("yuv411p", "tv")).toContain("extractplanes=y,lut=");
+    for (const f of ["yuv420p10le", "rgb24", "nv12", "gray16le", "yuva420p", "yuvj411p", "yuvj440p", "uyvy422"]) expect(vf(f, "tv")).toBe("trim=start_frame=0:end_frame=9");
   });
 });
 
@@ -59,8 +60,13 @@ describe("grayFfmpegArgs", () => {
 
 // Each source encoded from the same test picture; the grey frames the job gets must be the bytes
 // plain `-pix_fmt gray` gives (swscale's conversion), whichever way they are made.
-const SOURCES: { name: string; codec: string[]; luma: boolean }[] = [
+const SOURCES: { name: string; codec: string[]; luma: boolean; size?: [number, number] }[] = [
   { name: "h264-yuv420p-limited.mp4", codec: ["-c:v", "libx264", "-preset", "ultrafast", "-pix_fmt", "yuv420p"], luma: true },
+  // NTSC DV (4:1:1) as older lab camcorders write it: DV has fixed frame sizes and rates.
+  { name: "dv-ntsc-yuv411p.avi", codec: ["-vf", "scale=720:480,setsar=1", "-r", "30000/1001", "-c:v", "dvvideo", "-pix_fmt", "yuv411p"], luma: true, size: [720, 480] },
+  { name: "ffv1-yuv411p-tagged-full.mkv", codec: ["-c:v", "ffv1", "-pix_fmt", "yuv411p", "-color_range", "pc"], luma: true },
+  { name: "ffv1-yuv410p-limited.mkv", codec: ["-c:v", "ffv1", "-pix_fmt", "yuv410p"], luma: true },
+  { name: "ffv1-yuv440p-limited.mkv", codec: ["-c:v", "ffv1", "-pix_fmt", "yuv440p"], luma: true },
   { name: "h264-yuv422p-limited.mkv", codec: ["-c:v", "libx264", "-preset", "ultrafast", "-pix_fmt", "yuv422p"], luma: true },
   { name: "h264-yuv444p-limited.mkv", codec: ["-c:v", "libx264", "-preset", "ultrafast", "-pix_fmt", "yuv444p"], luma: true },
   { name: "h264-full-range.mp4", codec: ["-c:v", "libx264", "-preset", "ultrafast", "-pix_fmt", "yuv420p", "-color_range", "pc"], luma: true },
@@ -71,7 +77,7 @@ const SOURCES: { name: string; codec: string[]; luma: boolean }[] = [
 ];
 
 describe("decodeGrayFrames on other sources", () => {
-  it.each(SOURCES)("$name: frame n is plain ffmpeg's grey frame n, byte for byte", async ({ name, codec, luma }) => {
+  it.each(SOURCES)("$name: frame n is plain ffmpeg's grey frame n, byte for byte", async ({ name, codec, luma, size: [width, height] = [256, 128] }) => {
     const file = path.join(dir, name);
     // A ramp across every grey level beside the moving test picture, so each level's mapping is compared.
     await ffmpeg(["-f", "lavfi", "-i", "testsrc2=size=256x96:rate=30[a];gradients=size=256x32:rate=30:c0=black:c1=white:x0=0:y0=0:x1=255:y1=0[b];[a][b]vstack", "-frames:v", "12", ...codec, file]);
@@ -79,16 +85,17 @@ describe("decodeGrayFrames on other sources", () => {
     const spec = buildGraySpec({ input: file, videoStreamIndex: facts.videoStreamIndex, first: 3, last: 12, pixelFormat: facts.pixelFormat, colorRange: facts.colorRange });
     expect(spec.outputs[0].options!.join(" ").includes("extractplanes"), `luma plane taken as it is for ${facts.pixelFormat}`).toBe(luma);
     const all = await plainFfmpeg(file);
-    const size = 256 * 128;
+    const size = width * height;
     const got = new Map<number, Uint8Array>();
     const n = await decodeGrayFrames(testMedia(), {
       input: file, videoStreamIndex: facts.videoStreamIndex, pixelFormat: facts.pixelFormat, colorRange: facts.colorRange,
-      first: 3, last: 12, width: 256, height: 128, onFrame: (f, d) => void got.set(f, d),
+      first: 3, last: 12, width, height, onFrame: (f, d) => void got.set(f, d),
     });
     expect(n).toBe(10);
     for (const [f, d] of got) expect(Buffer.from(d).equals(all.subarray((f - 1) * size, f * size)), `frame ${f}`).toBe(true);
     // The ramp's row holds many levels, so the comparison covers the range mapping, not one grey.
-    expect(new Set(got.get(3)!.subarray(100 * 256, 101 * 256)).size).toBeGreaterThan(64);
+    const ramp = Math.round((height * 100) / 128);
+    expect(new Set(got.get(3)!.subarray(ramp * width, (ramp + 1) * width)).size).toBeGreaterThan(64);
   });
 });
 
