@@ -28,17 +28,28 @@ export interface GraySpecInput {
 // lookup table with the formula swscale uses: the same bytes as `-pix_fmt gray` for every level
 // (tests/unit/media/gray.test.ts compares them). The rarer subsamplings too: 4:1:1 is NTSC DV's, a
 // format of older lab camcorders, whose decode costs ~17 % less ffmpeg CPU this way (decision 149).
-// Anything else (RGB, more than 8 bits, packed or semi-planar layouts, a JPEG decoder's 4:1:1 and
-// 4:4:0, which no test file here can hold) keeps the general conversion.
+// Anything else (RGB, more than 8 bits, a JPEG decoder's 4:1:1 and 4:4:0, which no test file here
+// can hold) keeps the general conversion.
 const LIMITED_LUMA_TO_FULL = "lut=c0='clip(round((val-16)*255/219),0,255)'";
 const PLANAR_YUV_8BIT = /^(yuvj?(420|422|444)p|yuv(411|410|440)p)$/;
+// Packed and semi-planar 8-bit YUV (uncompressed captures: UYVY/YUY2 from capture cards, NV12) are
+// first laid out as planes by swscale's exact reshuffle, 30–45 % less ffmpeg CPU than its conversion
+// to grey (decision 149). The full-range target is a `yuvj` format, or the reshuffle would squeeze the
+// levels. Only where the bytes are the same: ffmpeg turns packed frames grey before the deinterlacer
+// or the widening, both of which interpolate, so those clips keep the conversion.
+const PLANAR_LAYOUT_OF: Record<string, string> = { yuyv422: "422p", uyvy422: "422p", yvyu422: "422p", nv12: "420p", nv21: "420p" };
+
+const widened = (s: Pick<GraySpecInput, "pixelAspect">) => !!s.pixelAspect && Math.abs(s.pixelAspect - 1) > 1e-6;
 
 /** The filters that turn the decoded picture into 8-bit grey cheaply, or none (swscale converts). */
-export function lumaFilters(s: Pick<GraySpecInput, "pixelFormat" | "colorRange">): string[] {
+export function lumaFilters(s: Pick<GraySpecInput, "pixelFormat" | "colorRange" | "interlaced" | "pixelAspect">): string[] {
   const f = s.pixelFormat ?? "";
-  if (!PLANAR_YUV_8BIT.test(f)) return [];
   const full = f.startsWith("yuvj") || s.colorRange === "pc";
-  return full ? ["extractplanes=y"] : ["extractplanes=y", LIMITED_LUMA_TO_FULL];
+  const plane = full ? ["extractplanes=y"] : ["extractplanes=y", LIMITED_LUMA_TO_FULL];
+  if (PLANAR_YUV_8BIT.test(f)) return plane;
+  const layout = PLANAR_LAYOUT_OF[f];
+  if (!layout || s.interlaced || widened(s)) return [];
+  return [`format=${full ? "yuvj" : "yuv"}${layout}`, ...plane];
 }
 
 /** ffmpeg -i clip -map 0:v -vf trim[,luma] -fps_mode passthrough -f rawvideo -pix_fmt gray pipe:1 */
@@ -53,7 +64,7 @@ export function buildGraySpec(s: GraySpecInput): FfmpegSpec {
     `trim=start_frame=${s.first - 1}:end_frame=${s.last}`,
     ...(levels ? [levels] : []),
     ...lumaFilters(s),
-    ...(s.pixelAspect && Math.abs(s.pixelAspect - 1) > 1e-6 ? [squarePixels] : []),
+    ...(widened(s) ? [squarePixels] : []),
   ];
   // ffmpeg's own options were measured one by one and left out (decision 149): none makes the decode
   // cheaper with the same pixels, and `-fflags +nobuffer` drops the frames read while probing.

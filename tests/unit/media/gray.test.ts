@@ -41,7 +41,20 @@ describe("buildGraySpec", () => {
     expect(vf("yuvj420p", "pc")).toBe("trim=start_frame=0:end_frame=9,extractplanes=y");
     expect(vf("yuv444p", "pc")).toBe("trim=start_frame=0:end_frame=9,extractplanes=y");
     expect(vf("yuv411p", "tv")).toContain("extractplanes=y,lut=");
-    for (const f of ["yuv420p10le", "rgb24", "nv12", "gray16le", "yuva420p", "yuvj411p", "yuvj440p", "uyvy422"]) expect(vf(f, "tv")).toBe("trim=start_frame=0:end_frame=9");
+    for (const f of ["yuv420p10le", "rgb24", "gray16le", "yuva420p", "yuvj411p", "yuvj440p", "bgr24"]) expect(vf(f, "tv")).toBe("trim=start_frame=0:end_frame=9");
+  });
+
+  it("lays packed and semi-planar YUV out as planes first, unless a deinterlacer or the widening comes after", () => {
+    const vf = (pixelFormat: string, colorRange: string | null, more: { interlaced?: boolean; pixelAspect?: number } = {}) => {
+      const o = buildGraySpec({ input: "/clips/a.mov", videoStreamIndex: 0, first: 1, last: 9, pixelFormat, colorRange, ...more }).outputs[0].options!;
+      return o[o.indexOf("-vf") + 1];
+    };
+    expect(vf("uyvy422", "tv")).toBe("trim=start_frame=0:end_frame=9,format=yuv422p,extractplanes=y,lut=c0='clip(round((val-16)*255/219),0,255)'");
+    expect(vf("yuyv422", "pc")).toBe("trim=start_frame=0:end_frame=9,format=yuvj422p,extractplanes=y");
+    expect(vf("nv12", null)).toBe("trim=start_frame=0:end_frame=9,format=yuv420p,extractplanes=y,lut=c0='clip(round((val-16)*255/219),0,255)'");
+    expect(vf("uyvy422", "tv", { interlaced: true })).not.toContain("extractplanes");
+    expect(vf("uyvy422", "tv", { pixelAspect: 10 / 11 })).not.toContain("extractplanes");
+    expect(vf("uyvy422", "tv", { pixelAspect: 1 })).toContain("extractplanes");
   });
 });
 
@@ -67,6 +80,11 @@ const SOURCES: { name: string; codec: string[]; luma: boolean; size?: [number, n
   { name: "ffv1-yuv411p-tagged-full.mkv", codec: ["-c:v", "ffv1", "-pix_fmt", "yuv411p", "-color_range", "pc"], luma: true },
   { name: "ffv1-yuv410p-limited.mkv", codec: ["-c:v", "ffv1", "-pix_fmt", "yuv410p"], luma: true },
   { name: "ffv1-yuv440p-limited.mkv", codec: ["-c:v", "ffv1", "-pix_fmt", "yuv440p"], luma: true },
+  // Uncompressed captures, packed and semi-planar, in both ranges.
+  { name: "raw-uyvy422-limited.mkv", codec: ["-c:v", "rawvideo", "-pix_fmt", "uyvy422"], luma: true },
+  { name: "raw-yuyv422-full.mkv", codec: ["-c:v", "rawvideo", "-pix_fmt", "yuyv422", "-color_range", "pc"], luma: true },
+  { name: "raw-nv12-limited.mkv", codec: ["-c:v", "rawvideo", "-pix_fmt", "nv12"], luma: true },
+  { name: "raw-nv21-full.mkv", codec: ["-c:v", "rawvideo", "-pix_fmt", "nv21", "-color_range", "pc"], luma: true },
   { name: "h264-yuv422p-limited.mkv", codec: ["-c:v", "libx264", "-preset", "ultrafast", "-pix_fmt", "yuv422p"], luma: true },
   { name: "h264-yuv444p-limited.mkv", codec: ["-c:v", "libx264", "-preset", "ultrafast", "-pix_fmt", "yuv444p"], luma: true },
   { name: "h264-full-range.mp4", codec: ["-c:v", "libx264", "-preset", "ultrafast", "-pix_fmt", "yuv420p", "-color_range", "pc"], luma: true },
