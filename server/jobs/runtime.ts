@@ -25,10 +25,16 @@ function keepRunningWhenTheDatabaseDropsACompletion() {
   });
 }
 
-/** Start the queue (pg-boss on our PostgreSQL); with work=true this process also runs jobs. */
-export async function startJobs({ work }: { work: boolean }) {
+/**
+ * Start the queue (pg-boss on our PostgreSQL); with work=true this process also runs jobs.
+ * `timekeeper: false` (worker processes): pg-boss's cron check (every 30 s in every process that
+ * has it, the first to claim the tick evaluating each schedule with cron-parser) and the queue
+ * that turns schedules into jobs are left to the web processes, so a worker's CPU goes to its
+ * jobs; it still runs the jobs those schedules create.
+ */
+export async function startJobs({ work, timekeeper = true }: { work: boolean; timekeeper?: boolean }) {
   if (work) keepRunningWhenTheDatabaseDropsACompletion();
-  const boss = new PgBoss({ connectionString: env().DATABASE_URL, schema: "pgboss", max: 5 });
+  const boss = new PgBoss({ connectionString: env().DATABASE_URL, schema: "pgboss", max: 5, schedule: timekeeper });
   setQueue(boss);
   boss.on("error", (err) => log.error({ err }, "queue error"));
   // Processes starting at once on a fresh database (WEB_PROCESSES, workers) would race pg-boss's
