@@ -7,7 +7,8 @@
 // matchTemplate calls (recorded from one tracking of the same frames, replayed alone). Prints
 // figures; asserts nothing. Needs the private cluster (PG_ADMIN_URL, from scripts/with-db).
 // Each round also prints the worker's own breakdown of its CPU (its "tracking run done" log line,
-// decision 156). To profile the worker: BENCH_WORKER_FLAGS="--cpu-prof --cpu-prof-dir=…" or
+// decision 156), and the worker's CPU from its start to ready (its tracker's warm-up included,
+// decision 157), which no round includes. To profile the worker: BENCH_WORKER_FLAGS="--cpu-prof --cpu-prof-dir=…" or
 // "--trace-gc" (node flags for the worker process), BENCH_WORKER_LOG=file for its non-log output.
 import { spawn, type ChildProcess } from "node:child_process";
 import { appendFileSync, mkdtempSync, readFileSync, rmSync } from "node:fs";
@@ -128,9 +129,11 @@ export async function benchTrackJob(rounds: number, scene: SceneOptions = JOB_SC
     await jobs.startJobs({ work: false });
     worker = spawn(process.execPath, [...(process.env.BENCH_WORKER_FLAGS?.split(" ").filter(Boolean) ?? []), "--import", "tsx", "server/worker.ts"], { env: { ...process.env, LOG_LEVEL: "info", LF_PROCESS: "bench-worker" }, stdio: ["ignore", "pipe", "inherit"] });
     const costs: RunCost[] = [];
+    let warmUp: { seconds?: number; landmarkFrames?: number } | undefined;
     let costSeen = () => {};
     const ready = new Promise<void>((resolve, reject) => {
       createInterface({ input: worker!.stdout! }).on("line", (l) => {
+        if (l.includes('"tracker warmed up"')) warmUp = JSON.parse(l);
         if (l.includes('"worker ready"')) resolve();
         if (l.includes('"tracking run done"')) {
           costs.push(JSON.parse(l).cost);
@@ -141,6 +144,9 @@ export async function benchTrackJob(rounds: number, scene: SceneOptions = JOB_SC
       worker!.once("exit", (c) => reject(new Error(`the worker stopped (exit ${c})`)));
     });
     await ready;
+    // Paid once when a worker starts, before any job (decision 157); the rounds below do not include it.
+    const atReady = cpuParts(worker.pid!);
+    console.log(`  worker start: ${fmt(atReady.own, 2)} CPU-s to ready, the tracker's warm-up taking ${warmUp ? `${fmt(warmUp.seconds ?? 0, 2)} s (${warmUp.landmarkFrames} landmark-frames)` : "not logged"}`);
     const analyst = await new Client(srv.url).signIn(EMAILS.analyst);
     const team = `/api/teams/${world.teamId}`;
     const up = await tusUpload(srv.url, analyst, clip, {
