@@ -10,7 +10,7 @@ import { leanJsonAnswers } from "./http/json-answer";
 import { everyRequest } from "./http/every-request";
 import { asProblemResponse } from "./http/better-auth-errors";
 import { authRouteGuard } from "./auth/http-routes";
-import { apiRouter, hotReadsRouter } from "./routes";
+import { apiRouter, mountHotReads } from "./routes";
 import { mountHealthRoutes } from "./health/routes";
 import { mountRawRoutes } from "./raw-routes";
 import { rateLimitFor, signInFailureLimit } from "./security/rate-limits";
@@ -47,7 +47,7 @@ export function createApp() {
   // Liveness and readiness, and the hot reads, once every check above has passed; what follows
   // is for the auth library, uploads and request bodies, none of which they use (decisions 195, 196).
   mountHealthRoutes(app);
-  app.use("/api", hotReadsRouter());
+  mountHotReads(app);
 
   // better-auth: only the routes the product uses, with a small checked body (mounted before
   // express.json()); its error answers rewritten as problem+json.

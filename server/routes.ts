@@ -1,4 +1,4 @@
-import { Router } from "express";
+import { Router, type Express } from "express";
 import { requireTeamMember } from "./auth/context";
 import { meRouter } from "./me/routes";
 import { invitationRouter, rosterRouter } from "./roster/routes";
@@ -36,15 +36,16 @@ export function apiRouter() {
 }
 
 /**
- * The reads every page load repeats most (the clips table, one shot's readout, the Shots list), answered
- * before Express walks the other routers, mounted at /api in app.ts after the checks every API
- * request passes. Each checks the caller's membership in its own statement (decision 195) rather
- * than through requireTeamMember; every other team route goes through apiRouter().
+ * The reads every page load repeats most (the clips table, one shot's readout, the Shots list),
+ * answered before Express walks the other routers, as routes of the app itself mounted in app.ts
+ * after the checks every API request passes. Each checks the caller's membership in its own
+ * statement (decision 195) rather than through requireTeamMember; every other team route goes
+ * through apiRouter(). Not a router of their own (decision 198): entering a router mounted at /api
+ * meant trimming and restoring the URL and a second walk of layers for these reads, and every
+ * other API request entered it and left it again (a turn of the event loop in Express's router).
  */
-export function hotReadsRouter() {
-  const hot = Router();
-  hot.get("/teams/:teamId/clips", clipListRoute);
-  hot.get("/teams/:teamId/readout/shots/:shotId", shotReadoutRoute);
-  hot.get("/teams/:teamId/readout/shots", shotListRoute);
-  return hot;
+export function mountHotReads(app: Express) {
+  app.get("/api/teams/:teamId/clips", clipListRoute);
+  app.get("/api/teams/:teamId/readout/shots/:shotId", shotReadoutRoute);
+  app.get("/api/teams/:teamId/readout/shots", shotListRoute);
 }

@@ -20,9 +20,12 @@
 // per request, as at the default level of server/env.ts (error otherwise; stdout goes to /dev/null).
 // --only <words>: with --cpu, only the scenarios whose name holds these words (bare Express always
 // runs: it is the yardstick), e.g. `-- --cpu --only "random shot"` to profile one route.
+// With BENCH_CPU_PROF the bench prints each row's time window on the monotonic clock the
+// profile's sample times use, so a profile can be cut to that row (scripts/bench/profile-summary.ts).
+// --warmup <n>: requests each row sends each web process before it is measured (20 by default).
 import { execFileSync, spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { createHash, randomBytes } from "node:crypto";
-import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { mkdtempSync, readdirSync, readFileSync, rmSync } from "node:fs";
 import { createServer } from "node:net";
 import os from "node:os";
 import path from "node:path";
@@ -39,6 +42,9 @@ if (!process.env.PG_ADMIN_URL) {
 
 const CPU_ONLY = process.argv.includes("--cpu");
 const ONLY = process.argv.includes("--only") ? process.argv[process.argv.indexOf("--only") + 1] : undefined;
+// Requests each row sends a web process before its figures (bare Express gets 200): a young
+// process's first thousand requests of a route also pay V8's compilation of its code.
+const WARMUP = process.argv.includes("--warmup") ? Number(process.argv[process.argv.indexOf("--warmup") + 1]) : 20;
 const RATE = CPU_ONLY ? 100 : 200;
 const SECONDS = 5;
 const UPLOADS = 20;
@@ -112,7 +118,7 @@ try {
       await new Promise((r) => server!.once("exit", r));
     }
     // BENCH_CPU_PROF=<folder> writes a V8 CPU profile of the server (open it in Chromium's DevTools).
-    const prof = process.env.BENCH_CPU_PROF ? ["--cpu-prof", "--cpu-prof-dir", path.resolve(process.env.BENCH_CPU_PROF)] : [];
+    const prof = process.env.BENCH_CPU_PROF ? ["--cpu-prof", "--cpu-prof-interval", "200", "--cpu-prof-dir", path.resolve(process.env.BENCH_CPU_PROF)] : [];
     server = spawn(process.execPath, [...prof, "--import", "tsx", "server/index.ts"], { env: { ...process.env, PORT: String(port), PUBLIC_URL: base, LOG_LEVEL: process.env.BENCH_LOG_LEVEL ?? "error", WEB_PROCESSES: String(procs) }, stdio: ["ignore", "ignore", "inherit"] });
     for (let i = 0; i < 300 && !(await fetch(`${base}/api/health`).then((r) => r.ok, () => false)); i++) await new Promise((r) => setTimeout(r, 200));
     // With a supervisor, wait until every web process is up (each answers on its own connection).
@@ -258,6 +264,33 @@ try {
     }
   };
   /**
+   * With --cpu, a web process's CPU so far by thread name and user/system time (from /proc): how
+   * much of a request's CPU is the JavaScript thread's own, the kernel's for its socket calls, or
+   * V8's helper threads' (garbage collection), which a profile of the JavaScript thread omits.
+   */
+  const threadCpuOf = (pid: number) => {
+    const m = new Map<string, { user: number; system: number }>();
+    try {
+      for (const tid of readdirSync(`/proc/${pid}/task`)) {
+        const stat = readFileSync(`/proc/${pid}/task/${tid}/stat`, "utf8");
+        const name = tid === String(pid) ? "main thread" : stat.slice(stat.indexOf("(") + 1, stat.lastIndexOf(")"));
+        const f = stat.slice(stat.lastIndexOf(") ") + 2).split(" ");
+        const t = m.get(name) ?? { user: 0, system: 0 };
+        m.set(name, { user: t.user + Number(f[11]) * 10, system: t.system + Number(f[12]) * 10 });
+      }
+    } catch {
+      // a thread that ended meanwhile
+    }
+    return m;
+  };
+  const threadCpuSince = (before: Map<string, { user: number; system: number }>, after: Map<string, { user: number; system: number }>, n: number) =>
+    [...after]
+      .map(([name, t]) => ({ name, user: (t.user - (before.get(name)?.user ?? 0)) / n, system: (t.system - (before.get(name)?.system ?? 0)) / n }))
+      .filter((t) => t.user + t.system > 0)
+      .sort((a, b) => b.user + b.system - (a.user + a.system))
+      .map((t) => `${t.name} ${(t.user + t.system).toFixed(2)} (user ${t.user.toFixed(2)}, system ${t.system.toFixed(2)})`)
+      .join("; ");
+  /**
    * The PostgreSQL backends serving this database (the web processes' pooled connections) and
    * their CPU so far: the statements' share of a request, which JSON built by PostgreSQL moves
    * there from the web process (decision 195). Backends that start meanwhile count from zero.
@@ -289,14 +322,23 @@ try {
   // same client at the same rate. Its CPU per request is the yardstick for the app's.
   step(`Bare Express, empty answer: ${RATE} requests/s for ${SECONDS} s`);
   const barePort = await freePort();
-  const bare = spawn(process.execPath, ["-e", `require("express")().get("/", (q, r) => r.json({ ok: true })).listen(${barePort}, "127.0.0.1")`], { stdio: "ignore" });
+  // With BENCH_CPU_PROF it is profiled too (it then ends by exit on SIGTERM, so V8 writes the profile).
+  const bareProf = process.env.BENCH_CPU_PROF ? ["--cpu-prof", "--cpu-prof-interval", "200", "--cpu-prof-dir", path.resolve(process.env.BENCH_CPU_PROF), "--cpu-prof-name", "bare-express.cpuprofile"] : [];
+  const bareExit = bareProf.length ? `process.on("SIGTERM", () => process.exit(0)); ` : "";
+  const bare = spawn(process.execPath, [...bareProf, "-e", `${bareExit}require("express")().get("/", (q, r) => r.json({ ok: true })).listen(${barePort}, "127.0.0.1")`], { stdio: "ignore" });
   for (let i = 0; i < 50 && !(await fetch(`http://127.0.0.1:${barePort}/`).then((r) => r.ok, () => false)); i++) await new Promise((r) => setTimeout(r, 100));
   for (let i = 0; i < 200; i++) await get(`http://127.0.0.1:${barePort}/`)(AbortSignal.timeout(30_000)); // warm-up
   const bareCpu0 = cpuMsOf([bare.pid!]);
+  const bareThreads0 = CPU_ONLY ? threadCpuOf(bare.pid!) : undefined;
+  const bareFrom = process.hrtime.bigint() / 1000n;
   const bareFig = await openLoop({ rate: RATE, seconds: SECONDS, timeoutMs: 30_000, request: (_i, signal) => get(`http://127.0.0.1:${barePort}/`)(signal) });
   const bareCpu = (cpuMsOf([bare.pid!]) - bareCpu0) / bareFig.n;
+  const bareEnd = process.hrtime.bigint() / 1000n;
+  const bareThreads = bareThreads0 && threadCpuSince(bareThreads0, threadCpuOf(bare.pid!), bareFig.n);
   bare.kill();
   console.log(`  ${fmt(bareFig)}; CPU ${bareCpu.toFixed(2)} ms a request`);
+  if (bareThreads) console.log(`  by thread, ms a request: ${bareThreads}`);
+  if (process.env.BENCH_CPU_PROF) console.log(`  profile window ${bareFrom}-${bareEnd} µs (monotonic clock)`);
 
   type Row = { name: string; procs: number; api: Figures; raw?: Figures; rate: number; cpu: number; dbMs: number };
   const table: Row[] = [];
@@ -304,17 +346,21 @@ try {
   async function run(s: Scenario, procs: number) {
     step(`${s.name}: ${s.rate} requests/s for ${s.seconds} s, ${procs} web process${procs > 1 ? "es" : ""}`);
     await settle();
-    for (let i = 0; i < 20 * procs; i++) await get(s.http(i))(AbortSignal.timeout(30_000)); // warm-up (its pages are kept)
+    for (let i = 0; i < WARMUP * procs; i++) await get(s.http(i))(AbortSignal.timeout(30_000)); // warm-up (its pages are kept)
     if (s.raw && !rawOf.has(s.name)) rawOf.set(s.name, await sequential(Math.min(300, s.rate * s.seconds), s.raw));
     const raw = rawOf.get(s.name);
     const pids = webPids();
     const db0 = await dbCpu();
     const cpu0 = cpuMsOf(pids);
+    const threads0 = CPU_ONLY ? threadCpuOf(pids[0]) : undefined;
+    const from = process.hrtime.bigint() / 1000n;
     const api = await openLoop({ rate: s.rate, seconds: s.seconds, timeoutMs: 30_000, request: async (i, signal) => (s.writeFirst && (await touchTeam()), get(s.http(i))(signal)) });
     const cpu = cpu0 >= 0 ? (cpuMsOf(pids) - cpu0) / api.n : -1;
+    if (process.env.BENCH_CPU_PROF) console.log(`  profile window ${from}-${process.hrtime.bigint() / 1000n} µs (monotonic clock)`);
     const dbMs = dbCpuSince(db0, await dbCpu()) / api.n;
     console.log(`  API  ${fmt(api)}`);
     if (cpu >= 0) console.log(`  web process${procs > 1 ? "es" : ""} CPU ${cpu.toFixed(2)} ms a request (×${(cpu / bareCpu).toFixed(1)} bare Express; ${((cpu * s.rate) / 10).toFixed(0)} % of one core at ${s.rate}/s); PostgreSQL ${dbMs.toFixed(2)} ms a request`);
+    if (threads0) console.log(`  by thread, ms a request: ${threadCpuSince(threads0, threadCpuOf(pids[0]), api.n)}`);
     if (raw) console.log(`  SQL alone  ${fmt(raw)}   (the same repository queries, one at a time, no HTTP)`);
     console.log(`  goal p95 < 50 ms: ${api.p95 < 50 ? "met" : "NOT met"}`);
     table.push({ name: s.name, procs, api, raw, rate: s.rate, cpu, dbMs });

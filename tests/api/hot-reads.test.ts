@@ -123,3 +123,27 @@ describe("the hot reads check membership in their own statement (decision 195)",
     expect((await new Client(w.srv.url).get(`${team()}/clips`)).status).toBe(401);
   });
 });
+
+describe("the hot reads are routes of the app itself (decision 198)", () => {
+  it("answer the same paths as when they sat in a router mounted at /api: any letter case, a trailing slash; nothing else", async () => {
+    const clipId = await insertClip({ title: "Any case", status: "ready", framesDone: 30, frameCount: 30, width: 1280, height: 720 });
+    const shotId = await shotOn(clipId);
+    const t = w.world.teamId;
+    for (const path of [`/API/Teams/${t}/Clips?pageSize=100`, `/api/teams/${t}/clips/?pageSize=100`]) {
+      const r = await w.signedIn.get(path);
+      expect(r.status, path).toBe(200);
+      expect((r.json.items as { id: string }[]).map((x) => x.id), path).toContain(clipId);
+    }
+    for (const path of [`/Api/teams/${t}/Readout/Shots/${shotId}`, `/api/teams/${t}/readout/shots/${shotId}/`]) {
+      const r = await w.signedIn.get(path);
+      expect(r.status, path).toBe(200);
+      expect(r.json.shot.id, path).toBe(shotId);
+    }
+    const list = await w.signedIn.get(`/API/teams/${t}/readout/shots/?pageSize=50`);
+    expect(list.status).toBe(200);
+    expect((list.json.shots as { id: string }[]).map((x) => x.id)).toContain(shotId);
+    // Near misses are no hot read: a doubled slash, a path below the route.
+    expect((await w.signedIn.get(`/api//teams/${t}/clips`)).status).toBe(404);
+    expect((await w.signedIn.get(`/api/teams/${t}/clips/${clipId}/nothing-here`)).status).toBe(404);
+  });
+});
