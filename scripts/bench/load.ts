@@ -23,6 +23,10 @@
 // With BENCH_CPU_PROF the bench prints each row's time window on the monotonic clock the
 // profile's sample times use, so a profile can be cut to that row (scripts/bench/profile-summary.ts).
 // --warmup <n>: requests each row sends each web process before it is measured (20 by default).
+// --repeat <n>: with --cpu, each scenario n times in a row in the same web process (the random
+// shot's rows move on to shots not yet read), to see a figure settle or drift as the process ages.
+// BENCH_TRACE_GC=1: the web process runs with V8's --trace-gc, and each scenario prints its
+// collections (young-generation scavenges and full mark-compacts, their count and pause).
 import { execFileSync, spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { createHash, randomBytes } from "node:crypto";
 import { mkdtempSync, readdirSync, readFileSync, rmSync } from "node:fs";
@@ -41,6 +45,8 @@ if (!process.env.PG_ADMIN_URL) {
 }
 
 const CPU_ONLY = process.argv.includes("--cpu");
+const TRACE_GC = process.env.BENCH_TRACE_GC === "1";
+const REPEAT = process.argv.includes("--repeat") ? Math.max(1, Number(process.argv[process.argv.indexOf("--repeat") + 1]) || 1) : 1;
 const ONLY = process.argv.includes("--only") ? process.argv[process.argv.indexOf("--only") + 1] : undefined;
 // Requests each row sends a web process before its figures (bare Express gets 200): a young
 // process's first thousand requests of a route also pay V8's compilation of its code.
@@ -119,7 +125,8 @@ try {
     }
     // BENCH_CPU_PROF=<folder> writes a V8 CPU profile of the server (open it in Chromium's DevTools).
     const prof = process.env.BENCH_CPU_PROF ? ["--cpu-prof", "--cpu-prof-interval", "200", "--cpu-prof-dir", path.resolve(process.env.BENCH_CPU_PROF)] : [];
-    server = spawn(process.execPath, [...prof, "--import", "tsx", "server/index.ts"], { env: { ...process.env, PORT: String(port), PUBLIC_URL: base, LOG_LEVEL: process.env.BENCH_LOG_LEVEL ?? "error", WEB_PROCESSES: String(procs) }, stdio: ["ignore", "ignore", "inherit"] });
+    server = spawn(process.execPath, [...prof, ...(TRACE_GC ? ["--trace-gc"] : []), "--import", "tsx", "server/index.ts"], { env: { ...process.env, PORT: String(port), PUBLIC_URL: base, LOG_LEVEL: process.env.BENCH_LOG_LEVEL ?? "error", WEB_PROCESSES: String(procs) }, stdio: ["ignore", TRACE_GC ? "pipe" : "ignore", "inherit"] });
+    if (TRACE_GC) countCollections(server.stdout!);
     for (let i = 0; i < 300 && !(await fetch(`${base}/api/health`).then((r) => r.ok, () => false)); i++) await new Promise((r) => setTimeout(r, 200));
     // With a supervisor, wait until every web process is up (each answers on its own connection).
     for (let i = 0; i < 300 && procs > 1 && webPids().length < procs + 1; i++) await new Promise((r) => setTimeout(r, 200));
@@ -137,6 +144,22 @@ try {
       return [server.pid];
     }
   };
+  /** What --trace-gc reported since the last reset: each line is one collection and its pause. */
+  const gc = { scavenges: 0, scavengeMs: 0, marks: 0, markMs: 0 };
+  function countCollections(out: NodeJS.ReadableStream) {
+    let rest = "";
+    out.on("data", (d: Buffer) => {
+      const lines = (rest + d.toString()).split("\n");
+      rest = lines.pop()!;
+      for (const l of lines) {
+        const m = / (Scavenge|Mark-Compact|Mark-Compact \(reduce\))\b.*?, ([\d.]+) \/ [\d.]+ ms/.exec(l);
+        if (!m) continue;
+        const young = m[1] === "Scavenge";
+        gc[young ? "scavenges" : "marks"]++;
+        gc[young ? "scavengeMs" : "markMs"] += Number(m[2]);
+      }
+    });
+  }
   const cookie = await startWeb(1);
   const team = `${base}/api/teams/${ids.teamId}`;
   const coach = { userId: ids.users["coach@ravens.example"], teamId: ids.teamId, role: "coach" as const };
@@ -343,10 +366,12 @@ try {
   type Row = { name: string; procs: number; api: Figures; raw?: Figures; rate: number; cpu: number; dbMs: number };
   const table: Row[] = [];
   const rawOf = new Map<string, Figures>();
-  async function run(s: Scenario, procs: number) {
-    step(`${s.name}: ${s.rate} requests/s for ${s.seconds} s, ${procs} web process${procs > 1 ? "es" : ""}`);
+  async function run(s: Scenario, procs: number, round = 0) {
+    step(`${s.name}: ${s.rate} requests/s for ${s.seconds} s, ${procs} web process${procs > 1 ? "es" : ""}${round ? `, repeated (${round + 1})` : ""}`);
+    // A repeat asks for the requests after the ones the earlier rounds sent.
+    const at = (i: number) => s.http(i + round * s.rate * s.seconds);
     await settle();
-    for (let i = 0; i < WARMUP * procs; i++) await get(s.http(i))(AbortSignal.timeout(30_000)); // warm-up (its pages are kept)
+    for (let i = 0; i < WARMUP * procs; i++) await get(at(i))(AbortSignal.timeout(30_000)); // warm-up (its pages are kept)
     if (s.raw && !rawOf.has(s.name)) rawOf.set(s.name, await sequential(Math.min(300, s.rate * s.seconds), s.raw));
     const raw = rawOf.get(s.name);
     const pids = webPids();
@@ -354,18 +379,20 @@ try {
     const cpu0 = cpuMsOf(pids);
     const threads0 = CPU_ONLY ? threadCpuOf(pids[0]) : undefined;
     const from = process.hrtime.bigint() / 1000n;
-    const api = await openLoop({ rate: s.rate, seconds: s.seconds, timeoutMs: 30_000, request: async (i, signal) => (s.writeFirst && (await touchTeam()), get(s.http(i))(signal)) });
+    Object.assign(gc, { scavenges: 0, scavengeMs: 0, marks: 0, markMs: 0 });
+    const api = await openLoop({ rate: s.rate, seconds: s.seconds, timeoutMs: 30_000, request: async (i, signal) => (s.writeFirst && (await touchTeam()), get(at(i))(signal)) });
     const cpu = cpu0 >= 0 ? (cpuMsOf(pids) - cpu0) / api.n : -1;
     if (process.env.BENCH_CPU_PROF) console.log(`  profile window ${from}-${process.hrtime.bigint() / 1000n} µs (monotonic clock)`);
     const dbMs = dbCpuSince(db0, await dbCpu()) / api.n;
     console.log(`  API  ${fmt(api)}`);
     if (cpu >= 0) console.log(`  web process${procs > 1 ? "es" : ""} CPU ${cpu.toFixed(2)} ms a request (×${(cpu / bareCpu).toFixed(1)} bare Express; ${((cpu * s.rate) / 10).toFixed(0)} % of one core at ${s.rate}/s); PostgreSQL ${dbMs.toFixed(2)} ms a request`);
     if (threads0) console.log(`  by thread, ms a request: ${threadCpuSince(threads0, threadCpuOf(pids[0]), api.n)}`);
+    if (TRACE_GC) console.log(`  collections in the web process${procs > 1 ? "es" : ""}: ${gc.scavenges} scavenges (${gc.scavengeMs.toFixed(0)} ms paused), ${gc.marks} mark-compacts (${gc.markMs.toFixed(0)} ms paused)`);
     if (raw) console.log(`  SQL alone  ${fmt(raw)}   (the same repository queries, one at a time, no HTTP)`);
     console.log(`  goal p95 < 50 ms: ${api.p95 < 50 ? "met" : "NOT met"}`);
     table.push({ name: s.name, procs, api, raw, rate: s.rate, cpu, dbMs });
   }
-  for (const s of busy) if (!CPU_ONLY || !ONLY || s.name.includes(ONLY)) await run(s, 1);
+  for (const s of busy) if (!CPU_ONLY || !ONLY || s.name.includes(ONLY)) for (let k = 0; k < (CPU_ONLY ? REPEAT : 1); k++) await run(s, 1, k);
   if (CPU_ONLY) {
     console.log(`\n  load average ${load()} at the end (${os.cpus().length} cores)`);
     client.close();
