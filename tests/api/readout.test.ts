@@ -197,8 +197,9 @@ describe("one shot's readout answered from the stored text", () => {
 });
 
 describe("one shot's readout, its bytes (decision 193)", () => {
-  // The answer's bytes are written piece by piece (the head, then the stored results): they must
-  // be exactly what joining the text and encoding it made before, for every kind of reader.
+  // The answer's bytes, first read and kept, must be exactly the joined text of the readout the
+  // service builds and the stored results, for every kind of reader: a guard for any other way
+  // of making them (decision 193 tried one).
   const sha1 = (t: string) => createHash("sha1").update(t).digest("base64");
   async function oldBytes(email: string, role: "coach" | "player", shotId: string) {
     const { getReadout } = await import("../../server/readout/service");
