@@ -10,6 +10,7 @@ import { onShutdown } from "./shutdown";
 import { closeUploads } from "./clips/uploads";
 import { closeCpuPool, startCpuPool } from "./cpu/pool";
 import { superviseWebProcesses } from "./web-processes";
+import { tuneHeap } from "./heap";
 
 async function main() {
   let e;
@@ -20,6 +21,8 @@ async function main() {
     process.exit(2);
   }
   if (e.WEB_PROCESSES > 1 && cluster.isPrimary) return superviseWebProcesses(e.WEB_PROCESSES, e.EMBEDDED_WORKER);
+  // Each first read of a shot's readout leaves ~300 kB of buffers to collect (decision 193).
+  tuneHeap();
   const server = createWebServer(createApp());
   server.on("error", (err: NodeJS.ErrnoException) => {
     if (err.code === "EADDRINUSE") console.error(`Port ${e.PORT} on ${e.HOST} is already in use. Stop the other program or set PORT.`);

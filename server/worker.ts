@@ -1,8 +1,8 @@
 // A worker process: runs queued jobs only (no HTTP). Start any number, on any machine that
 // reaches the same PostgreSQL and storage.
 process.env.LF_PROCESS ??= "worker";
-const { tuneWorkerHeap } = await import("./jobs/worker-heap");
-tuneWorkerHeap();
+const { tuneHeap } = await import("./heap");
+tuneHeap();
 const { env } = await import("./env");
 const { log } = await import("./log");
 const { startJobs, stopJobs } = await import("./jobs/runtime");
