@@ -46,11 +46,13 @@ if (!process.env.PG_ADMIN_URL) {
 
 const CPU_ONLY = process.argv.includes("--cpu");
 const TRACE_GC = process.env.BENCH_TRACE_GC === "1";
-const REPEAT = process.argv.includes("--repeat") ? Math.max(1, Number(process.argv[process.argv.indexOf("--repeat") + 1]) || 1) : 1;
-const ONLY = process.argv.includes("--only") ? process.argv[process.argv.indexOf("--only") + 1] : undefined;
+/** The word after an option on the command line, if the option is there. */
+const argAfter = (option: string) => (process.argv.includes(option) ? process.argv[process.argv.indexOf(option) + 1] : undefined);
+const REPEAT = Math.max(1, Number(argAfter("--repeat")) || 1);
+const ONLY = argAfter("--only");
 // Requests each row sends a web process before its figures (bare Express gets 200): a young
 // process's first thousand requests of a route also pay V8's compilation of its code.
-const WARMUP = process.argv.includes("--warmup") ? Number(process.argv[process.argv.indexOf("--warmup") + 1]) : 20;
+const WARMUP = Math.max(0, Number(argAfter("--warmup") ?? 20) || 0);
 const RATE = CPU_ONLY ? 100 : 200;
 const SECONDS = 5;
 const UPLOADS = 20;

@@ -1,9 +1,9 @@
 // A tracking process's first shot paid for loading OpenCV's WebAssembly (compiled on V8's helper
 // threads) and for running the tracker's code before V8 had optimised it, in all about 0.7 CPU-s
 // more than any later shot (decisions 156, 157). A worker does that once when it starts instead:
-// OpenCV loaded and a small made-up shot tracked, so every path of the tracker has run (the turning
-// search, masks, sub-pixel refinement, events are not part of it) before a job waits on them.
-import { LANDMARKS, type Landmark } from "../schemas/shot-document";
+// OpenCV loaded and a small made-up shot tracked, so the tracker's paths (the turning search, the
+// puck's mask, sub-pixel refinement) have run before a job waits on them.
+import type { Landmark } from "../schemas/shot-document";
 import type { Vec2 } from "./regions";
 import { trackShot } from "./shot-tracker";
 import type { FrameSource, GrayFrame } from "./types";
@@ -42,9 +42,8 @@ export async function warmUpTracker(): Promise<{ seconds: number; landmarkFrames
   const t0 = performance.now();
   const frameAt = scene();
   const frames: FrameSource = { length: FRAMES + 1, frame: async (n) => frameAt(n) };
-  const seeds = Object.fromEntries(LANDMARKS.filter((k) => SEEDS[k]).map((k) => [k, SEEDS[k]]));
   try {
-    const r = await trackShot({ frames, first: 1, last: FRAMES, seedFrame: FRAMES / 2, seeds });
+    const r = await trackShot({ frames, first: 1, last: FRAMES, seedFrame: FRAMES / 2, seeds: SEEDS });
     const landmarkFrames = Object.values(r.tracks).reduce((n, t) => n + t!.proposals.length, 0);
     return { seconds: (performance.now() - t0) / 1000, landmarkFrames };
   } catch (err) {
