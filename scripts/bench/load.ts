@@ -27,6 +27,9 @@
 // shot's rows move on to shots not yet read), to see a figure settle or drift as the process ages.
 // BENCH_TRACE_GC=1: the web process runs with V8's --trace-gc, and each scenario prints its
 // collections (young-generation scavenges and full mark-compacts, their count and pause).
+// BENCH_WEB_FLAGS="--flag …": extra node flags for the app's (first) web process, to try V8 settings.
+// With --cpu each row also prints the web process's minor page faults a request: each is the
+// kernel handing it a fresh page, system time its socket calls do not explain.
 import { execFileSync, spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { createHash, randomBytes } from "node:crypto";
 import { mkdtempSync, readdirSync, readFileSync, rmSync } from "node:fs";
@@ -127,7 +130,7 @@ try {
     }
     // BENCH_CPU_PROF=<folder> writes a V8 CPU profile of the server (open it in Chromium's DevTools).
     const prof = process.env.BENCH_CPU_PROF ? ["--cpu-prof", "--cpu-prof-interval", "200", "--cpu-prof-dir", path.resolve(process.env.BENCH_CPU_PROF)] : [];
-    server = spawn(process.execPath, [...prof, ...(TRACE_GC ? ["--trace-gc"] : []), "--import", "tsx", "server/index.ts"], { env: { ...process.env, PORT: String(port), PUBLIC_URL: base, LOG_LEVEL: process.env.BENCH_LOG_LEVEL ?? "error", WEB_PROCESSES: String(procs) }, stdio: ["ignore", TRACE_GC ? "pipe" : "ignore", "inherit"] });
+    server = spawn(process.execPath, [...prof, ...(TRACE_GC ? ["--trace-gc"] : []), ...(process.env.BENCH_WEB_FLAGS ? process.env.BENCH_WEB_FLAGS.split(" ") : []), "--import", "tsx", "server/index.ts"], { env: { ...process.env, PORT: String(port), PUBLIC_URL: base, LOG_LEVEL: process.env.BENCH_LOG_LEVEL ?? "error", WEB_PROCESSES: String(procs) }, stdio: ["ignore", TRACE_GC ? "pipe" : "ignore", "inherit"] });
     if (TRACE_GC) countCollections(server.stdout!);
     for (let i = 0; i < 300 && !(await fetch(`${base}/api/health`).then((r) => r.ok, () => false)); i++) await new Promise((r) => setTimeout(r, 200));
     // With a supervisor, wait until every web process is up (each answers on its own connection).
@@ -308,6 +311,14 @@ try {
     }
     return m;
   };
+  /** Minor page faults of a process so far: each is the kernel handing it a fresh page (system time). */
+  const faultsOf = (pid: number) => {
+    try {
+      return Number(readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1].split(" ")[7]);
+    } catch {
+      return 0;
+    }
+  };
   const threadCpuSince = (before: Map<string, { user: number; system: number }>, after: Map<string, { user: number; system: number }>, n: number) =>
     [...after]
       .map(([name, t]) => ({ name, user: (t.user - (before.get(name)?.user ?? 0)) / n, system: (t.system - (before.get(name)?.system ?? 0)) / n }))
@@ -357,12 +368,13 @@ try {
   const measureBare = async () => {
     const cpu0 = cpuMsOf([bare.pid!]);
     const threads0 = CPU_ONLY ? threadCpuOf(bare.pid!) : undefined;
+    const faults0 = faultsOf(bare.pid!);
     const from = process.hrtime.bigint() / 1000n;
     const fig = await openLoop({ rate: RATE, seconds: SECONDS, timeoutMs: 30_000, request: (_i, signal) => get(`http://127.0.0.1:${barePort}/`)(signal) });
     const cpu = (cpuMsOf([bare.pid!]) - cpu0) / fig.n;
     const end = process.hrtime.bigint() / 1000n;
     console.log(`  ${fmt(fig)}; CPU ${cpu.toFixed(2)} ms a request`);
-    if (threads0) console.log(`  by thread, ms a request: ${threadCpuSince(threads0, threadCpuOf(bare.pid!), fig.n)}`);
+    if (threads0) console.log(`  by thread, ms a request: ${threadCpuSince(threads0, threadCpuOf(bare.pid!), fig.n)}; minor page faults ${((faultsOf(bare.pid!) - faults0) / fig.n).toFixed(1)} a request`);
     if (process.env.BENCH_CPU_PROF) console.log(`  profile window ${from}-${end} µs (monotonic clock)`);
     return { fig, cpu };
   };
@@ -383,6 +395,7 @@ try {
     const db0 = await dbCpu();
     const cpu0 = cpuMsOf(pids);
     const threads0 = CPU_ONLY ? threadCpuOf(pids[0]) : undefined;
+    const faults0 = faultsOf(pids[0]);
     const from = process.hrtime.bigint() / 1000n;
     Object.assign(gc, { scavenges: 0, scavengeMs: 0, marks: 0, markMs: 0 });
     const api = await openLoop({ rate: s.rate, seconds: s.seconds, timeoutMs: 30_000, request: async (i, signal) => (s.writeFirst && (await touchTeam()), get(at(i))(signal)) });
@@ -391,7 +404,7 @@ try {
     const dbMs = dbCpuSince(db0, await dbCpu()) / api.n;
     console.log(`  API  ${fmt(api)}`);
     if (cpu >= 0) console.log(`  web process${procs > 1 ? "es" : ""} CPU ${cpu.toFixed(2)} ms a request (×${(cpu / bareCpu).toFixed(1)} bare Express; ${((cpu * s.rate) / 10).toFixed(0)} % of one core at ${s.rate}/s); PostgreSQL ${dbMs.toFixed(2)} ms a request`);
-    if (threads0) console.log(`  by thread, ms a request: ${threadCpuSince(threads0, threadCpuOf(pids[0]), api.n)}`);
+    if (threads0) console.log(`  by thread, ms a request: ${threadCpuSince(threads0, threadCpuOf(pids[0]), api.n)}; minor page faults ${((faultsOf(pids[0]) - faults0) / api.n).toFixed(1)} a request`);
     if (TRACE_GC) console.log(`  collections in the web process${procs > 1 ? "es" : ""}: ${gc.scavenges} scavenges (${gc.scavengeMs.toFixed(0)} ms paused), ${gc.marks} mark-compacts (${gc.markMs.toFixed(0)} ms paused)`);
     if (raw) console.log(`  SQL alone  ${fmt(raw)}   (the same repository queries, one at a time, no HTTP)`);
     console.log(`  goal p95 < 50 ms: ${api.p95 < 50 ? "met" : "NOT met"}`);
