@@ -3,12 +3,14 @@ import { drizzle } from "drizzle-orm/node-postgres";
 import pg from "pg";
 import * as schema from "./schema";
 import { env } from "../env";
+import { clientWithDeadline } from "./query-deadline";
 
 export type Db = ReturnType<typeof makeDb>;
 
 export function makeDb(url: string) {
-  // Bounded waits: a request must never hang forever on a dead database.
-  const pool = new pg.Pool({ connectionString: url, max: 10, connectionTimeoutMillis: 5_000, idleTimeoutMillis: 30_000, query_timeout: 30_000 });
+  // Bounded waits: a request must never hang forever on a dead database. A query's 30 s are kept
+  // by one watchdog, not node-postgres's timer per query (decision 199).
+  const pool = new pg.Pool({ connectionString: url, max: 10, connectionTimeoutMillis: 5_000, idleTimeoutMillis: 30_000, Client: clientWithDeadline(30_000) });
   pool.on("error", () => {
     /* a dropped idle client is replaced on next use */
   });
