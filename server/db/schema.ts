@@ -250,6 +250,12 @@ export const shotResult = pgTable("shot_result", {
    * (a few hundred bytes) instead of decompressing every stored result (docs/decisions/107-results-summary-column.md).
    */
   summary: jsonb("summary").generatedAlwaysAs(sql`case when jsonb_typeof(results) = 'object' then results - 'series' end`),
+  /**
+   * The MD5 of the results' text as PostgreSQL sends it, kept beside them: one shot's readout keys
+   * its shape check and ETag by it instead of hashing ~80 kB in the web process on every first read
+   * (docs/decisions/199-readout-bytes-and-stored-results-hash.md).
+   */
+  resultsMd5: text("results_md5").generatedAlwaysAs(sql`md5(results::text)`),
   error: text("error"),
   shotVersion: integer("shot_version").notNull(),
   computedAt: timestamp("computed_at", { withTimezone: true }).defaultNow().notNull(),

@@ -29,15 +29,18 @@ export const answerKey = (a: Actor, asked: unknown) => `${a.teamId}\u0000${a.use
 /** One hot read's kept answers, bounded by their size. */
 export function answerCache(maxBytes = ANSWER_CACHE_BYTES) {
   const kept = new LRUCache<string, KeptAnswer>({ maxSize: maxBytes, sizeCalculation: (v, k) => v.body.length + 2 * (v.tag.length + v.stamp.length + k.length) + 64 });
+  function keepBytes(key: string, stamp: string, body: Buffer, tag: string): KeptAnswer {
+    const a = { stamp, body, tag };
+    kept.set(key, a);
+    return a;
+  }
   return {
     /** The answer kept under this key, if any; pass its stamp to the read's statement. */
     known: (key: string): KeptAnswer | undefined => kept.get(key),
     /** Keeps a fresh answer (made at `stamp`) and returns it. */
-    keep(key: string, stamp: string, text: string, tag = weakTag(text)): KeptAnswer {
-      const a = { stamp, body: Buffer.from(text), tag };
-      kept.set(key, a);
-      return a;
-    },
+    keep: (key: string, stamp: string, text: string, tag = weakTag(text)): KeptAnswer => keepBytes(key, stamp, Buffer.from(text), tag),
+    /** The same for an answer already in its UTF-8 bytes, with the ETag of its text. */
+    keepBytes,
     /** What the cache holds: entries and bytes (for the tests and the bench). */
     size: () => ({ entries: kept.size, bytes: kept.calculatedSize }),
   };

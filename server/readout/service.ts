@@ -91,15 +91,31 @@ export async function readoutJson(a: Actor, shotId: string): Promise<ReadWithRol
       const v = await seenAs(a, found?.row ?? null, shotId, "That shot");
       const { results: _none, ...rest } = await toReadout(a, v);
       const head = JSON.stringify(rest).slice(0, -1);
-      // One joined text, then its bytes: writing the pieces straight into one buffer saved a copy
-      // but left the web process in a full collection every ~30 first reads (decision 193).
-      const text = `${head},"results":${v.row.resultsText ?? "null"}}`;
-      // Its validator from the head and the results' hash, which the shape check already took.
-      return readouts.keep(key, found!.stamp, text, weakTagOf(text.length, head, v.row.resultsHash ?? ""));
+      const { body, length } = readoutBytes(head, v.row.resultsText ?? "null");
+      // Its validator from the head and the results' stored hash (decision 199).
+      return readouts.keepBytes(key, found!.stamp, body, weakTagOf(length, head, v.row.resultsHash ?? ""));
     },
   };
 }
 const readouts = answerCache();
+
+const RESULTS_KEY = `,"results":`;
+/**
+ * The readout's UTF-8 bytes, `${head},"results":${results}}`, each piece encoded straight into one
+ * buffer of the exact size, and the text's length in UTF-16 units (for the ETag). The joined text
+ * is never made: whenever the head holds a character beyond Latin-1 (an en dash in a stick's
+ * label), V8 would make it one string of two-byte characters, copying the ~80 kB of stored results
+ * into a ~160 kB string, a fresh large object whose pages the kernel must hand over (decision 199).
+ */
+export function readoutBytes(head: string, results: string) {
+  const headBytes = Buffer.byteLength(head);
+  const resultsAt = headBytes + RESULTS_KEY.length;
+  const body = Buffer.allocUnsafe(resultsAt + Buffer.byteLength(results) + 1);
+  body.write(head, 0, "utf8");
+  body.write(RESULTS_KEY, headBytes, "latin1");
+  body[body.write(results, resultsAt, "utf8") + resultsAt] = 0x7d; // "}"
+  return { body, length: head.length + RESULTS_KEY.length + results.length + 1 };
+}
 
 /**
  * The Shots page's request: one statement reads the caller's stored role, the page, its total and

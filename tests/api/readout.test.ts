@@ -196,11 +196,12 @@ describe("one shot's readout answered from the stored text", () => {
   });
 });
 
-describe("one shot's readout, its bytes (decision 193)", () => {
+describe("one shot's readout, its bytes (decisions 193, 199)", () => {
   // The answer's bytes, first read and kept, must be exactly the joined text of the readout the
-  // service builds and the stored results, for every kind of reader: a guard for any other way
-  // of making them (decision 193 tried one).
-  const sha1 = (t: string) => createHash("sha1").update(t).digest("base64");
+  // service builds and the stored results, for every kind of reader: the service writes the
+  // pieces straight into one buffer instead (decision 199). The ETag's hash of the results is the
+  // MD5 PostgreSQL keeps: it must be the MD5 of the very text it sends.
+  const md5 = (t: string) => createHash("md5").update(t).digest("hex");
   async function oldBytes(email: string, role: "coach" | "player", shotId: string) {
     const { getReadout } = await import("../../server/readout/service");
     const { weakTagOf } = await import("../../server/http/json-answer");
@@ -209,7 +210,7 @@ describe("one shot's readout, its bytes (decision 193)", () => {
     const stored = results === null ? "null" : (await db().execute<{ t: string }>(sql`select results::text as t from shot_result where shot_id = ${shotId}`)).rows[0].t;
     const head = JSON.stringify(rest).slice(0, -1);
     const text = `${head},"results":${stored}}`;
-    return { bytes: Buffer.from(text), tag: weakTagOf(text.length, head, results === null ? "" : sha1(stored)) };
+    return { bytes: Buffer.from(text), tag: weakTagOf(text.length, head, results === null ? "" : md5(stored)) };
   }
   async function expectOldBytes(c: Client, email: string, role: "coach" | "player", shotId: string) {
     const want = await oldBytes(email, role, shotId);

@@ -1,4 +1,3 @@
-import { createHash } from "node:crypto";
 import { and, asc, desc, eq, gt, isNotNull, isNull, sql, type SQL } from "drizzle-orm";
 import { alias } from "drizzle-orm/pg-core";
 import type { SelectResultFields } from "drizzle-orm/query-builders/select.types";
@@ -107,7 +106,7 @@ const sharesJson = sql<string>`(select coalesce(json_agg(json_build_object('shot
   left join ${user} b on b.id = s.shared_by
   where s.team_id = ${shot.teamId} and s.shot_id = ${shot.id})`;
 
-const textColumns = { ...withEverything, summary: sql<null>`null`, marks: marksWhenNoResults, results: sql<string | null>`${shotResult.results}::text`, shares: sharesJson };
+const textColumns = { ...withEverything, summary: sql<null>`null`, marks: marksWhenNoResults, results: sql<string | null>`${shotResult.results}::text`, resultsMd5: shotResult.resultsMd5, shares: sharesJson };
 const shotTextQuery = prepared("readout_shot_text", (name) =>
   // One row always: the caller's stored role (decision 195) and the team's change stamp (decision
   // 192), with the shot's columns only for a member, when the shot is there and when the stamp
@@ -127,8 +126,8 @@ const shotTextQuery = prepared("readout_shot_text", (name) =>
 type TextRow = SelectResultFields<typeof textColumns>;
 /** The SQL text of one shot's readout statement (which tables it reads, decision 192). */
 export const readoutStatementText = () => shotTextQuery().getQuery().sql;
-// Whether a stored result has the engine's shape, by a hash of its exact text: the same text is
-// checked once per process, not parsed again on every read (hashing is a small part of parsing).
+// Whether a stored result has the engine's shape, by the MD5 of its exact text that PostgreSQL keeps
+// beside it (decision 199): the same text is checked once per process, not parsed on every read.
 const shapeChecked = new LRUCache<string, boolean>({ max: 20_000 });
 
 /**
@@ -147,10 +146,10 @@ export async function shotTextById(viewer: Pick<Actor, "userId" | "teamId">, sho
 
 function textRow(row: TextRow) {
   const text = row.results as string | null;
-  const key = text === null ? "" : createHash("sha1").update(text).digest("base64");
+  const key = row.resultsMd5 ?? "";
   let ok = text === null ? false : shapeChecked.get(key);
   if (ok === undefined) shapeChecked.set(key, (ok = fullResults(JSON.parse(text!)) !== null));
-  const { shares: sharesText, ...rest } = row;
+  const { shares: sharesText, resultsMd5: _hash, ...rest } = row;
   const shares = sharesText === "[]" ? [] : (JSON.parse(sharesText) as (Omit<ShareDbRow, "sharedAt"> & { sharedAt: string })[]).map((x) => ({ ...x, sharedAt: new Date(x.sharedAt) }));
   return { ...typed(rest), results: null, resultsText: ok ? text : null, resultsHash: ok ? key : "", marks: row.marks as ShotMarks | null, shares: shares as ShareDbRow[] };
 }

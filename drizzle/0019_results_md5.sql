@@ -1,0 +1,1 @@
+ALTER TABLE "shot_result" ADD COLUMN "results_md5" text GENERATED ALWAYS AS (md5(results::text)) STORED;
