@@ -22,17 +22,20 @@
 // runs: it is the yardstick), e.g. `-- --cpu --only "random shot"` to profile one route.
 // With BENCH_CPU_PROF the bench prints each row's time window on the monotonic clock the
 // profile's sample times use, so a profile can be cut to that row (scripts/bench/profile-summary.ts).
-// --warmup <n>: requests each row sends each web process before it is measured (20 by default).
+// --warmup <n>: requests each row sends each web process before it is measured, and bare Express
+// before its figure (200 by default).
 // --repeat <n>: with --cpu, each scenario n times in a row in the same web process (the random
 // shot's rows move on to shots not yet read), to see a figure settle or drift as the process ages.
 // BENCH_TRACE_GC=1: the web process runs with V8's --trace-gc, and each scenario prints its
 // collections (young-generation scavenges and full mark-compacts, their count and pause).
 // BENCH_WEB_FLAGS="--flag …": extra node flags for the app's (first) web process, to try V8 settings.
+// BENCH_GC_LOG=<file>: with BENCH_TRACE_GC=1, the web process's collection lines are also appended
+// there (with BENCH_WEB_FLAGS=--trace-gc-nvp, each scavenge's bytes allocated, survived, promoted).
 // With --cpu each row also prints the web process's minor page faults a request: each is the
 // kernel handing it a fresh page, system time its socket calls do not explain.
 import { execFileSync, spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { createHash, randomBytes } from "node:crypto";
-import { mkdtempSync, readdirSync, readFileSync, rmSync } from "node:fs";
+import { appendFileSync, mkdtempSync, readdirSync, readFileSync, rmSync } from "node:fs";
 import { createServer } from "node:net";
 import os from "node:os";
 import path from "node:path";
@@ -53,9 +56,10 @@ const TRACE_GC = process.env.BENCH_TRACE_GC === "1";
 const argAfter = (option: string) => (process.argv.includes(option) ? process.argv[process.argv.indexOf(option) + 1] : undefined);
 const REPEAT = Math.max(1, Number(argAfter("--repeat")) || 1);
 const ONLY = argAfter("--only");
-// Requests each row sends a web process before its figures (bare Express gets 200): a young
-// process's first thousand requests of a route also pay V8's compilation of its code.
-const WARMUP = Math.max(0, Number(argAfter("--warmup") ?? 20) || 0);
+// Requests each row sends a web process before its figures, bare Express's included, the same for
+// the yardstick and every row: a young process's first requests of a route also pay V8's
+// compilation of its code (rows got 20 and bare Express 200 until 4 Dec, see the README).
+const WARMUP = Math.max(0, Number(argAfter("--warmup") ?? 200) || 0);
 const RATE = CPU_ONLY ? 100 : 200;
 const SECONDS = 5;
 const UPLOADS = 20;
@@ -156,6 +160,7 @@ try {
     out.on("data", (d: Buffer) => {
       const lines = (rest + d.toString()).split("\n");
       rest = lines.pop()!;
+      if (process.env.BENCH_GC_LOG) appendFileSync(process.env.BENCH_GC_LOG, lines.join("\n") + "\n");
       for (const l of lines) {
         const m = / (Scavenge|Mark-Compact|Mark-Compact \(reduce\))\b.*?, ([\d.]+) \/ [\d.]+ ms/.exec(l);
         if (!m) continue;
@@ -215,9 +220,13 @@ try {
   const clipRepo = await import("../../server/entities/clip/repository");
   const readoutRepo = await import("../../server/entities/shot/readout");
   const { shotListPage } = await import("../../server/entities/shot/list-page");
-  const shotIds = (await (await import("../../server/db/client")).db().execute<{ id: string }>(
-    (await import("drizzle-orm")).sql`select id from shot where team_id = ${ids.teamId} order by random() limit 2000`,
+  const picked = (await (await import("../../server/db/client")).db().execute<{ id: string }>(
+    (await import("drizzle-orm")).sql`select id from shot where team_id = ${ids.teamId} order by random() limit 2400`,
   )).rows.map((r) => r.id);
+  // 2,000 shots for the measured reads, and 400 others for the warm-up, so no measured read of a
+  // random shot finds an answer the warm-up left kept.
+  const shotIds = picked.slice(0, 2000);
+  const warmShotIds = picked.slice(2000);
   const player = seeded.players[0];
   const sorts = ["created", "title", "player", "status"] as const;
   let client = httpClient(cookie);
@@ -231,7 +240,8 @@ try {
   await writer.connect();
   const someClip = (await writer.query<{ id: string }>(`select id from clip where team_id = $1 limit 1`, [ids.teamId])).rows[0].id;
   const touchTeam = () => writer.query(`update clip set frames_done = frames_done where id = $1`, [someClip]);
-  interface Scenario { name: string; rate: number; seconds: number; http: (i: number) => string; raw?: (i: number) => Promise<unknown>; writeFirst?: boolean }
+  // `warm`: the warm-up's requests, where the measured ones must not find them kept (else `http`'s).
+  interface Scenario { name: string; rate: number; seconds: number; http: (i: number) => string; warm?: (i: number) => string; raw?: (i: number) => Promise<unknown>; writeFirst?: boolean }
   // What people do all day, at 200 requests/s with one and with two web processes.
   const busy: Scenario[] = [
     { name: "app /api/health (no database)", rate: RATE, seconds: SECONDS, http: () => `${base}/api/health` },
@@ -251,6 +261,7 @@ try {
       // Each of 2,000 shots is asked for about once: the first read of a shot, which no kept answer serves.
       name: "shot results (one shot's readout, random shot)", rate: RATE, seconds: SECONDS,
       http: (i) => `${team}/readout/shots/${shotIds[i % shotIds.length]}`,
+      warm: (i) => `${team}/readout/shots/${warmShotIds[i % warmShotIds.length]}`,
       raw: async (i) => {
         const row = await readoutRepo.shotById(ids.teamId, shotIds[i % shotIds.length]);
         return readoutRepo.sharesOf(ids.teamId, [row!.id]);
@@ -363,7 +374,7 @@ try {
   const bareExit = bareProf.length ? `process.on("SIGTERM", () => process.exit(0)); ` : "";
   const bare = spawn(process.execPath, [...bareProf, "-e", `${bareExit}require("express")().get("/", (q, r) => r.json({ ok: true })).listen(${barePort}, "127.0.0.1")`], { stdio: "ignore" });
   for (let i = 0; i < 50 && !(await fetch(`http://127.0.0.1:${barePort}/`).then((r) => r.ok, () => false)); i++) await new Promise((r) => setTimeout(r, 100));
-  for (let i = 0; i < 200; i++) await get(`http://127.0.0.1:${barePort}/`)(AbortSignal.timeout(30_000)); // warm-up
+  for (let i = 0; i < WARMUP; i++) await get(`http://127.0.0.1:${barePort}/`)(AbortSignal.timeout(30_000)); // warm-up, as every row gets
   /** Bare Express's CPU a request over one window at the bench's rate (printed with its figures). */
   const measureBare = async () => {
     const cpu0 = cpuMsOf([bare.pid!]);
@@ -388,7 +399,7 @@ try {
     // A repeat asks for the requests after the ones the earlier rounds sent.
     const at = (i: number) => s.http(i + round * s.rate * s.seconds);
     await settle();
-    for (let i = 0; i < WARMUP * procs; i++) await get(at(i))(AbortSignal.timeout(30_000)); // warm-up (its pages are kept)
+    for (let i = 0; i < WARMUP * procs; i++) await get(s.warm?.(i) ?? at(i))(AbortSignal.timeout(30_000)); // warm-up (its pages are kept)
     if (s.raw && !rawOf.has(s.name)) rawOf.set(s.name, await sequential(Math.min(300, s.rate * s.seconds), s.raw));
     const raw = rawOf.get(s.name);
     const pids = webPids();
