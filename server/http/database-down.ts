@@ -1,7 +1,8 @@
 // Errors that mean "PostgreSQL cannot be reached right now" rather than "this request is wrong":
 // the API answers them 503 with Retry-After, so clients and load balancers wait and retry.
 // SQLSTATE class 08 (connection exception) and 57P01–57P03 (shutting down, starting up) are from
-// the PostgreSQL manual, appendix A "PostgreSQL Error Codes"; the rest are node-postgres messages.
+// the PostgreSQL manual, appendix A "PostgreSQL Error Codes"; the rest are node-postgres messages
+// ("Query read timeout" also from the pool's own deadline, server/db/query-deadline.ts).
 const NODE_CODES = new Set(["ECONNREFUSED", "ECONNRESET", "EPIPE", "ETIMEDOUT", "EHOSTUNREACH"]);
 const PG_MESSAGES = /Connection terminated|timeout exceeded when trying to connect|Query read timeout|Client has encountered a connection error/i;
 
