@@ -12,6 +12,7 @@ import { createHash } from "node:crypto";
 import pg from "pg";
 import { ERRORS, type Lock, type Locker, type RequestRelease } from "@tus/utils";
 import { log } from "../log";
+import { inTurn } from "../db/in-turn";
 
 const CHANNEL = "tus_upload_release";
 /** First key of the two-key advisory lock space (PostgreSQL keeps it apart from one-key locks). */
@@ -44,6 +45,8 @@ const sleep = (ms: number, signal: AbortSignal) =>
   });
 
 const isTusError = (err: unknown) => !!err && typeof err === "object" && "status_code" in err;
+
+// Every upload in progress shares the lock connection: its queries take their turn (inTurn).
 
 export class PgUploadLocker implements Locker {
   private holders = new Map<string, Holder>();
@@ -92,7 +95,7 @@ export class PgUploadLocker implements Locker {
         if (h?.heldOn) void h.requestRelease();
       });
       await c.connect();
-      await c.query(`listen ${CHANNEL}`);
+      await inTurn(c, `listen ${CHANNEL}`);
       return c;
     })());
     mine.catch(() => {
@@ -121,14 +124,14 @@ export class PgUploadLocker implements Locker {
     try {
       for (;;) {
         const c = await this.client();
-        const r = await c.query<{ ok: boolean }>("select pg_try_advisory_lock($1, $2) as ok", [LOCK_SPACE, key]);
+        const r = await inTurn<{ ok: boolean }>(c, "select pg_try_advisory_lock($1, $2) as ok", [LOCK_SPACE, key]);
         if (r.rows[0].ok) {
           mine.heldOn = c;
           if (signal.aborted) throw ERRORS.ABORTED;
           return mine;
         }
         if (!asked) {
-          await c.query("select pg_notify($1, $2)", [CHANNEL, id]);
+          await inTurn(c, "select pg_notify($1, $2)", [CHANNEL, id]);
           asked = true;
         }
         if (gaveUp()) throw signal.aborted ? ERRORS.ABORTED : ERRORS.ERR_LOCK_TIMEOUT;
@@ -145,7 +148,7 @@ export class PgUploadLocker implements Locker {
     if (this.holders.get(id) === h) this.holders.delete(id);
     try {
       // Only the session that took it can free it; a lost connection already did.
-      if (h.heldOn && this.conn && (await this.conn) === h.heldOn) await h.heldOn.query("select pg_advisory_unlock($1, $2)", [LOCK_SPACE, lockKey(id)]);
+      if (h.heldOn && this.conn && (await this.conn) === h.heldOn) await inTurn(h.heldOn, "select pg_advisory_unlock($1, $2)", [LOCK_SPACE, lockKey(id)]);
     } catch (err) {
       log.warn({ err, uploadId: id }, "upload lock: unlock failed (the connection's locks are gone with it)");
     } finally {

@@ -10,6 +10,7 @@ import { ERRORS } from "@tus/utils";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { Client, EMAILS, seedWorld } from "./helpers";
 import { startWebProcess, type WebProcess } from "./web-process";
+import pg from "pg";
 import { PgUploadLocker } from "../../server/clips/upload-lock";
 
 let a: WebProcess;
@@ -107,6 +108,32 @@ describe("one upload, two web processes", () => {
 
 describe("the PostgreSQL upload locker", () => {
   const url = () => process.env.DATABASE_URL!;
+
+  it("many uploads at once: the lock connection runs one query at a time (node-postgres's own queue is deprecated)", async () => {
+    // Counts each client's queries in flight, on the method every client inherits.
+    const send = pg.Client.prototype.query as (...args: unknown[]) => unknown;
+    const inFlight = new Map<pg.Client, number>();
+    let most = 0;
+    pg.Client.prototype.query = function (this: pg.Client, ...args: unknown[]) {
+      inFlight.set(this, (inFlight.get(this) ?? 0) + 1);
+      most = Math.max(most, inFlight.get(this)!);
+      const done = () => void inFlight.set(this, inFlight.get(this)! - 1);
+      const r = send.apply(this, args);
+      if (r instanceof Promise) void r.then(done, done);
+      else done();
+      return r;
+    } as typeof pg.Client.prototype.query;
+    const one = new PgUploadLocker(url(), 5_000);
+    try {
+      const locks = Array.from({ length: 12 }, (_, i) => one.newLock(`upload-many-${i}`));
+      await Promise.all(locks.map((l) => l.lock(never(), () => {})));
+      await Promise.all(locks.map((l) => l.unlock()));
+    } finally {
+      pg.Client.prototype.query = send as typeof pg.Client.prototype.query;
+      await one.close();
+    }
+    expect(most).toBe(1);
+  });
 
   it("two sessions exclude each other; the holder is asked to let go; the waiter gets the lock once it does", async () => {
     const one = new PgUploadLocker(url(), 5_000);
