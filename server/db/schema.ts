@@ -253,7 +253,7 @@ export const shotResult = pgTable("shot_result", {
   /**
    * The MD5 of the results' text as PostgreSQL sends it, kept beside them: one shot's readout keys
    * its shape check and ETag by it instead of hashing ~80 kB in the web process on every first read
-   * (docs/decisions/199-readout-bytes-and-stored-results-hash.md).
+   * (docs/decisions/199-first-read-bytes-and-one-query-watchdog.md).
    */
   resultsMd5: text("results_md5").generatedAlwaysAs(sql`md5(results::text)`),
   error: text("error"),

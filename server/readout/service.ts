@@ -107,7 +107,7 @@ const RESULTS_KEY = `,"results":`;
  * label), V8 would make it one string of two-byte characters, copying the ~80 kB of stored results
  * into a ~160 kB string, a fresh large object whose pages the kernel must hand over (decision 199).
  */
-export function readoutBytes(head: string, results: string) {
+function readoutBytes(head: string, results: string) {
   const headBytes = Buffer.byteLength(head);
   const resultsAt = headBytes + RESULTS_KEY.length;
   const body = Buffer.allocUnsafe(resultsAt + Buffer.byteLength(results) + 1);
