@@ -12,6 +12,8 @@ import { quantileSorted } from "simple-statistics";
  */
 export function httpClient(cookie = "") {
   const agent = new http.Agent({ keepAlive: true, maxSockets: 512 });
+  // Bytes of the answers' bodies, so each row can say how much it sends a request.
+  const received = { bodies: 0, bytes: 0 };
   const jar = new Map(cookie.split("; ").filter(Boolean).map((c) => [c.slice(0, c.indexOf("=")), c.slice(c.indexOf("=") + 1)] as const));
   const take = (setCookie: string[] | undefined) => {
     for (const c of setCookie ?? []) {
@@ -26,15 +28,15 @@ export function httpClient(cookie = "") {
       const headers = jar.size ? { cookie: [...jar].map(([k, v]) => `${k}=${v}`).join("; ") } : {};
       const q = http.get(url, { agent, headers, signal }, (res) => {
         take(res.headers["set-cookie"]);
-        res.on("data", () => {});
-        res.on("end", () => resolve(res.statusCode ?? 0));
+        res.on("data", (chunk: Buffer) => (received.bytes += chunk.length));
+        res.on("end", () => (received.bodies++, resolve(res.statusCode ?? 0)));
         res.on("error", reject);
       });
       // Say whether a failed request went out on a kept-alive socket (the race with the server
       // closing an idle one) or a new one.
       q.on("error", (err: NodeJS.ErrnoException) => reject(Object.assign(new Error(`${err.code ?? err.message}${q.reusedSocket ? " on a reused socket" : ""}`), { cause: err })));
     });
-  return { get, close: () => agent.destroy() };
+  return { get, received, close: () => agent.destroy() };
 }
 
 export interface Figures { n: number; errors: number; errorKinds: Record<string, number>; p50: number; p95: number; p99: number; max: number; achievedRps: number }

@@ -33,6 +33,7 @@
 // there (with BENCH_WEB_FLAGS=--trace-gc-nvp, each scavenge's bytes allocated, survived, promoted).
 // With --cpu each row also prints the web process's minor page faults a request: each is the
 // kernel handing it a fresh page, system time its socket calls do not explain.
+// Each row prints its answers' mean size: the bytes a request sends cost the web process's CPU too.
 import { execFileSync, spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { createHash, randomBytes } from "node:crypto";
 import { appendFileSync, mkdtempSync, readdirSync, readFileSync, rmSync } from "node:fs";
@@ -410,12 +411,14 @@ try {
     const threads0 = CPU_ONLY ? threadCpuOf(pids[0]) : undefined;
     const faults0 = faultsOf(pids[0]);
     const from = process.hrtime.bigint() / 1000n;
+    const got0 = { ...client.received };
     Object.assign(gc, { scavenges: 0, scavengeMs: 0, marks: 0, markMs: 0 });
     const api = await openLoop({ rate: s.rate, seconds: s.seconds, timeoutMs: 30_000, request: async (i, signal) => (s.writeFirst && (await touchTeam()), get(at(i))(signal)) });
     const cpu = cpu0 >= 0 ? (cpuMsOf(pids) - cpu0) / api.n : -1;
     if (process.env.BENCH_CPU_PROF) console.log(`  profile window ${from}-${process.hrtime.bigint() / 1000n} µs (monotonic clock)`);
     const dbMs = dbCpuSince(db0, await dbCpu()) / api.n;
-    console.log(`  API  ${fmt(api)}`);
+    const answerKb = (client.received.bytes - got0.bytes) / Math.max(1, client.received.bodies - got0.bodies) / 1024;
+    console.log(`  API  ${fmt(api)}; answers ${answerKb.toFixed(1)} kB on average`);
     if (cpu >= 0) console.log(`  web process${procs > 1 ? "es" : ""} CPU ${cpu.toFixed(2)} ms a request (×${(cpu / bareCpu).toFixed(1)} bare Express; ${((cpu * s.rate) / 10).toFixed(0)} % of one core at ${s.rate}/s); PostgreSQL ${dbMs.toFixed(2)} ms a request`);
     if (threads0) console.log(`  by thread, ms a request: ${threadCpuSince(threads0, threadCpuOf(pids[0]), api.n)}; minor page faults ${((faultsOf(pids[0]) - faults0) / api.n).toFixed(1)} a request`);
     if (TRACE_GC) console.log(`  collections in the web process${procs > 1 ? "es" : ""}: ${gc.scavenges} scavenges (${gc.scavengeMs.toFixed(0)} ms paused), ${gc.marks} mark-compacts (${gc.markMs.toFixed(0)} ms paused)`);

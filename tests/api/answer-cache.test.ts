@@ -166,6 +166,8 @@ describe("the change stamp (decision 192)", () => {
     await db().insert(clip).values({ teamId: world.teamId, captureFps: 240, originalName: "c.mp4", title: "Cached", status: "ready", playerId: uid(EMAILS.player), sessionId: s.id });
     const coach = readers.find((r) => r.proc === "web-1" && r.email === EMAILS.coach)!.client;
     const venue = async () => (await coach.get(`${team()}/clips?pageSize=100`)).json.items.find((x: { title: string }) => x.title === "Cached").session.venue;
+    // Read twice: an answer is kept from its ask's second read (decision 200).
+    expect(await venue()).toBe("Old rink");
     expect(await venue()).toBe("Old rink");
     await db().execute(sql`alter table training_session disable trigger answer_change_update`);
     try {
@@ -203,7 +205,9 @@ describe("kept answers stay with their reader", () => {
   it("go out as the same bytes, with their length in bytes and their ETag (304 while current)", async () => {
     await db().insert(clip).values({ teamId: world.teamId, captureFps: 240, originalName: "é.mp4", title: "Équipe – été, 1ʳᵉ prise", status: "ready" });
     const coach = readers.find((r) => r.proc === "web-2" && r.email === EMAILS.coach)!.client;
+    // The first two reads are built (an answer is kept from the second, decision 200), the third is the kept one.
     const first = await coach.get(`${team()}/clips?pageSize=100`);
+    await coach.get(`${team()}/clips?pageSize=100`);
     const again = await coach.get(`${team()}/clips?pageSize=100`);
     expect(again.text).toBe(first.text);
     expect(first.text).toContain("Équipe – été, 1ʳᵉ prise");
@@ -215,9 +219,19 @@ describe("kept answers stay with their reader", () => {
     expect(current.text).toBe("");
   });
 
-  it("are bounded by their size", () => {
-    const c = answerCache(100_000);
-    for (let i = 0; i < 1000; i++) c.keep(`k${i}`, "1", "x".repeat(1000));
+  it("are kept from their ask's second read, and bounded by their size", () => {
+    const c = answerCache(100_000, 50);
+    c.keep("once", "1", "x");
+    expect(c.known("once")).toBeUndefined();
+    expect(c.keep("once", "1", "y").body.toString()).toBe("y");
+    expect(c.known("once")?.body.toString()).toBe("y");
+    // An ask read once is forgotten after 50 other asks: its next read is a first one again.
+    const d = answerCache(100_000, 50);
+    d.keep("old", "1", "x");
+    for (let i = 0; i < 50; i++) d.keep(`other${i}`, "1", "x");
+    d.keep("old", "1", "x");
+    expect(d.known("old")).toBeUndefined();
+    for (let i = 0; i < 1000; i++) for (let read = 0; read < 2; read++) c.keep(`k${i}`, "1", "x".repeat(1000));
     expect(c.size().bytes).toBeLessThanOrEqual(100_000);
     expect(c.size().entries).toBeGreaterThan(10);
     expect(c.known("k999")?.body).toHaveLength(1000);

@@ -214,8 +214,8 @@ describe("one shot's readout, its bytes (decisions 193, 199)", () => {
   }
   async function expectOldBytes(c: Client, email: string, role: "coach" | "player", shotId: string) {
     const want = await oldBytes(email, role, shotId);
-    // A first read, then the kept answer (decision 192).
-    for (const read of ["first", "kept"]) {
+    // A first read, a second (kept from there, decision 200), then the kept answer (decision 192).
+    for (const read of ["first", "second", "kept"]) {
       const r = await c.get(`${R()}/shots/${shotId}`);
       expect(r.status, `${email} ${read}: ${r.text.slice(0, 200)}`).toBe(200);
       expect(Buffer.from(r.text).equals(want.bytes), `${email} ${read}: same bytes`).toBe(true);
