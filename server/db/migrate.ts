@@ -1,9 +1,10 @@
-// Apply the generated migrations in drizzle/ (never hand-edited) to DATABASE_URL.
+// Apply the generated migrations in drizzle/ (generated, then ordered by hand where a type change needs it, e.g. 0020) to DATABASE_URL.
 import { migrate } from "drizzle-orm/node-postgres/migrator";
 import { makeDb } from "./client";
 
 export async function runMigrations(url: string) {
-  const d = makeDb(url);
+  // No request deadline: a migration may rewrite a large table (0020 on 50,000 stored results).
+  const d = makeDb(url, { queryDeadline: false });
   try {
     await migrate(d, { migrationsFolder: "drizzle" });
   } finally {

@@ -2,7 +2,7 @@
 // organization = team, member, invitation) are generated into auth-schema.ts; ours follow.
 // Every domain row carries its team id so that a single `where team_id = $active` keeps teams apart.
 import { sql } from "drizzle-orm";
-import { bigint, boolean, date, doublePrecision, index, integer, jsonb, pgTable, primaryKey, text, timestamp, unique, uniqueIndex, uuid } from "drizzle-orm/pg-core";
+import { bigint, boolean, date, doublePrecision, index, integer, json, jsonb, pgTable, primaryKey, text, timestamp, unique, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { organization, user } from "./auth-schema";
 import type { ClipTiming } from "../../shared/schemas/clips";
 import { PLAN_IDS } from "../../shared/billing/plans";
@@ -243,13 +243,18 @@ export const shotResult = pgTable("shot_result", {
   shotId: uuid("shot_id").primaryKey().references(() => shot.id, { onDelete: "cascade" }),
   teamId: teamRef(),
   engineVersion: text("engine_version").notNull(),
-  /** Null with `error` set when the marks are not yet enough to compute. */
-  results: jsonb("results"),
+  /**
+   * Null with `error` set when the marks are not yet enough to compute. Kept as the JSON text the
+   * engine's answer was written as (json, not jsonb): one shot's readout sends this text as it is,
+   * and PostgreSQL turning ~80 kB of jsonb back into text was most of a first read's database time
+   * (docs/decisions/201-results-stored-as-json-text.md).
+   */
+  results: json("results"),
   /**
    * The results without their time series, kept by PostgreSQL itself: lists and trends read this
    * (a few hundred bytes) instead of decompressing every stored result (docs/decisions/107-results-summary-column.md).
    */
-  summary: jsonb("summary").generatedAlwaysAs(sql`case when jsonb_typeof(results) = 'object' then results - 'series' end`),
+  summary: jsonb("summary").generatedAlwaysAs(sql`case when json_typeof(results) = 'object' then results::jsonb - 'series' end`),
   /**
    * The MD5 of the results' text as PostgreSQL sends it, kept beside them: one shot's readout keys
    * its shape check and ETag by it instead of hashing ~80 kB in the web process on every first read

@@ -230,7 +230,7 @@ describe("one shot's readout, its bytes (decisions 193, 199)", () => {
     // Beyond Latin-1 in the head (the label) and in the stored results (a note with an astral
     // character, two UTF-16 units): the pieces' encodings and the ETag's length in UTF-16 units.
     const withResults = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Bytes — slap 𝛉" });
-    await db().execute(sql`update shot_result set results = jsonb_set(results, '{notes}', results->'notes' || '[{"code":"bytes","message":"± 2° — 𝛉 near the heel"}]') where shot_id = ${withResults.shotId}`);
+    await db().execute(sql`update shot_result set results = jsonb_set(results::jsonb, '{notes}', (results->'notes')::jsonb || '[{"code":"bytes","message":"± 2° — 𝛉 near the heel"}]') where shot_id = ${withResults.shotId}`);
     const noResults = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Bytes — no results", uncalibrated: true });
     const sharedOne = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Bytes — shared" });
     const unshaped = await insertShotWithResults({ teamId: world.teamId, playerId: uid(EMAILS.player), label: "Bytes — not the engine's shape" });

@@ -79,7 +79,7 @@ function typed<R extends { events: unknown; calibration: unknown }>(r: R) {
 
 // The readout needs a shot's marks (tens of kB) only to say what is missing while it has no
 // results; reading them for every readout would double what each request parses.
-const marksWhenNoResults = sql<unknown>`case when jsonb_typeof(${shotResult.results}) = 'object' then null else ${shot.marks} end`;
+const marksWhenNoResults = sql<unknown>`case when json_typeof(${shotResult.results}) = 'object' then null else ${shot.marks} end`;
 
 const shotQuery = preparedBy("readout_shot", (name, marks: "always" | "without results") =>
   joined({ ...withEverything, marks: marks === "always" ? withEverything.marks : marksWhenNoResults })

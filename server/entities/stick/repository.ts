@@ -109,7 +109,7 @@ export async function shotsWithStick(a: Actor, stickId: string, limit = 50) {
       date: shotDay,
       playerId: shot.playerId,
       playerName: user.name,
-      hasDeflection: sql<boolean>`coalesce(jsonb_typeof(${shotResult.results} -> 'shaftDeflection') = 'object', false)`,
+      hasDeflection: sql<boolean>`coalesce(json_typeof(${shotResult.results} -> 'shaftDeflection') = 'object', false)`,
     })
     .from(shot)
     .leftJoin(user, eq(user.id, shot.playerId))
