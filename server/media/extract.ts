@@ -100,7 +100,8 @@ const isBt709 = (p: ExtractProbe) => p.colorSpace === "bt709" || ((!p.colorSpace
 // HLG and PQ (BT.2100, phones' default video on many models) to BT.709 SDR: linear light with
 // 100 cd/m² as 1.0, Möbius curve (linear up to 0.8, then a roll-off so highlights keep detail),
 // back to BT.709 gamma in JPEG's full-range BT.601 YCbCr. Reference white comes out at 244/255
-// (tests/api/clips-pictures.test.ts); without this it was 130–161.
+// for HLG and 239/255 for PQ with Debian's ffmpeg 5.1.9 (244 for both before it;
+// tests/api/clips-pictures.test.ts); without this it was 130–161.
 const hdrTransfers = new Set(["arib-std-b67", "smpte2084"]);
 export const isHdr = (transfer: string | null | undefined) => hdrTransfers.has(transfer ?? "");
 export const hdrToSdr =

@@ -41,10 +41,12 @@ function hdrClip(name: string, transfer: "arib-std-b67" | "smpte2084") {
 
 describe("pictures as the camera saw them", () => {
   for (const [label, transfer] of [["HLG", "arib-std-b67"], ["PQ", "smpte2084"]] as const) {
-    it(`${label} (BT.2020) is tone-mapped to SDR: the white patch reads ≥ 240 of 255 in frames and strip`, async () => {
+    it(`${label} (BT.2020) is tone-mapped to SDR: the white patch reads ≥ 235 of 255 in frames and strip`, async () => {
       const c = await ready(hdrClip(`phone-${label}.mp4`, transfer));
       const [r, g, b] = await meanRgb(c.id, 1, { left: 120, top: 95, width: 80, height: 50 });
-      expect(Math.min(r, g, b)).toBeGreaterThanOrEqual(240);
+      // Read 244 for both until 4 Dec; with Debian's ffmpeg 5.1.9-0+deb12u1 PQ reads 239.2 (HLG
+      // still 244). Without the tone mapping it read 130–161, so 235 still tells the two apart.
+      expect(Math.min(r, g, b)).toBeGreaterThanOrEqual(235);
       // The grey background of the pattern is not blown out.
       const dark = await meanRgb(c.id, 1, { left: 4, top: 4, width: 20, height: 20 });
       expect(Math.max(...dark)).toBeLessThan(200);
