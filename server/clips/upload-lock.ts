@@ -46,10 +46,9 @@ const sleep = (ms: number, signal: AbortSignal) =>
 
 const isTusError = (err: unknown) => !!err && typeof err === "object" && "status_code" in err;
 
-// Every upload in progress shares the lock connection: its queries take their turn (inTurn).
-
 export class PgUploadLocker implements Locker {
   private holders = new Map<string, Holder>();
+  /** The one lock connection every upload in progress shares: its queries take their turn (inTurn). */
   private conn: Promise<pg.Client> | undefined;
 
   constructor(
