@@ -1,9 +1,9 @@
-import type { ResultNote, SegmentLabel, SeriesPoint, ShotResults, SmoothedLandmark } from "../schemas/shot-results";
+import type { ResultNote, SegmentLabel, Series, ShotResults, SmoothedLandmark } from "../schemas/shot-results";
 import type { ShotDocument } from "../schemas/shot-document";
 import type { ChordGeometry } from "./bend";
 import type { Vec2 } from "./homography";
 import { bladeAtStrike } from "./blade-at-strike";
-import { ChartPoint } from "./chart-point";
+import { SeriesColumns } from "./series-columns";
 import { planeMap, scaleBarMap, type CalibrationMap } from "./calibration";
 import { eventTiming } from "./event-timing";
 import { flightTrials } from "./flight-trials";
@@ -215,18 +215,19 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
   const firstFrame = clip ? clip[0] : (doc.frameTimes?.firstFrame ?? 0);
   if (iceStrike !== undefined) timingNote(notes, time, "load time", iceStrike, strike);
   timingNote(notes, time, "contact time", strike, release);
-  const point = (frame: number, label: SegmentLabel, value: number): SeriesPoint => new ChartPoint(frame, ms(firstFrame, frame), ms(strike, frame), value, label);
   const side = (frame: number): SegmentLabel => (frame <= strike ? "beforeStrike" : "afterStrike");
-  const speedSeries = (s: SmoothedSource | undefined): SeriesPoint[] => {
-    const out: SeriesPoint[] = [];
-    if (!s || opts.series === false) return out;
+  const speedSeries = (s: SmoothedSource | undefined): Series => {
+    const out = new SeriesColumns("m/s");
+    if (!s || opts.series === false) return out.done();
     for (const g of s.segments)
       for (let i = 0; i < g.frames.length; i++) {
         const v = speedAt(g, i);
-        if (g.marked[i] && Number.isFinite(v)) out.push(point(g.frames[i], g.label === "whole" ? side(g.frames[i]) : g.label, v));
+        if (g.marked[i] && Number.isFinite(v)) out.push(g.frames[i], ms(strike, g.frames[i]), v, g.label === "whole" ? side(g.frames[i]) : g.label);
       }
-    return out;
+    return out.done();
   };
+  const bendAngle = new SeriesColumns("deg");
+  if (bend) bend.frames.forEach((f, k) => bendAngle.push(f, ms(strike, f), bend.angles[k], side(f)));
 
   const cutoffHz: Partial<Record<SmoothedLandmark, number | null>> = {};
   for (const [k, s] of smoothed) cutoffHz[k] = s.cutoffHz;
@@ -291,9 +292,9 @@ export function computeShot(input: unknown, opts: ComputeShotOptions = {}): Shot
         : null,
     series: {
       firstFrame,
-      puckSpeed: { unit: "m/s", points: speedSeries(smoothed.get("puck")) },
-      bladeSpeed: { unit: "m/s", points: speedSeries(bladeSm) },
-      bendAngle: { unit: "deg", points: bend ? bend.frames.map((f, k) => point(f, side(f), bend.angles[k])) : [] },
+      puckSpeed: speedSeries(smoothed.get("puck")),
+      bladeSpeed: speedSeries(bladeSm),
+      bendAngle: bendAngle.done(),
     },
     smoothing: {
       mode: mode === "raw" ? "raw" : mode === "auto" ? "residualAnalysis" : "analyst",

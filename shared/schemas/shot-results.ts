@@ -13,18 +13,33 @@ const interval = z.tuple([z.number(), z.number()]).nullable();
 
 export const SEGMENT_LABELS = ["beforeStrike", "afterStrike", "contact", "afterRelease"] as const;
 
-export const SeriesPoint = z.object({
-  frame: z.number().int(),
-  /** From the clip's first frame (frameRange[0], else frame 0). */
-  tMs: z.number(),
-  /** From the puck-strike frame (negative before it). */
-  tFromStrikeMs: z.number(),
-  value: z.number(),
-  /** Which separately smoothed piece of the track the point comes from. */
-  segment: z.enum(SEGMENT_LABELS),
-});
+const Segment = z.enum(SEGMENT_LABELS);
 
-export const Series = z.object({ unit: z.string(), points: z.array(SeriesPoint) });
+/**
+ * One readout chart's samples as columns: sample i is frame[i], tFromStrikeMs[i] (from the
+ * puck-strike frame, negative before it) and value[i]; `segments` runs over them in order, each
+ * [which separately smoothed piece of the track, how many samples in a row]. Columns rather than
+ * an object a sample: a shot's answer is a quarter of the size (decision 202).
+ */
+export const Series = z
+  .object({
+    unit: z.string(),
+    frame: z.array(z.number().int()),
+    tFromStrikeMs: z.array(z.number()),
+    value: z.array(z.number()),
+    segments: z.array(z.tuple([Segment, z.number().int().positive()])),
+  })
+  .refine((s) => s.tFromStrikeMs.length === s.frame.length && s.value.length === s.frame.length && s.segments.reduce((n, r) => n + r[1], 0) === s.frame.length, {
+    error: "a series has one frame, time and value a sample, and segments that cover them",
+  });
+
+/** One sample of a series as an object (seriesPoints in shared/mechanics/series-columns.ts). */
+export interface SeriesPoint {
+  frame: number;
+  tFromStrikeMs: number;
+  value: number;
+  segment: SegmentLabel;
+}
 
 export const ResultNote = z.object({ code: z.string(), message: z.string() });
 
@@ -123,7 +138,7 @@ export const ShotResults = z.object({
 });
 
 export type ShotResults = z.infer<typeof ShotResults>;
-export type SeriesPoint = z.infer<typeof SeriesPoint>;
+export type Series = z.infer<typeof Series>;
 export type ResultNote = z.infer<typeof ResultNote>;
 export type SegmentLabel = (typeof SEGMENT_LABELS)[number];
 export type SmoothedLandmark = (typeof SMOOTHED_LANDMARKS)[number];

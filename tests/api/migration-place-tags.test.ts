@@ -1,9 +1,9 @@
 // The migration that takes place tags out of clips stored before uploads dropped them
 // (drizzle/0003_strip_place_tags_from_probes.sql), run again over rows that carry them.
-import { readFileSync } from "node:fs";
 import { beforeAll, describe, expect, it } from "vitest";
 import { seedWorld } from "./helpers";
 import { insertReadyClip } from "./routes/shots";
+import { rerunMigration } from "./rerun-migration";
 
 let world: Awaited<ReturnType<typeof seedWorld>>;
 beforeAll(async () => {
@@ -26,13 +26,7 @@ describe("migration 0003: place tags out of stored probes", () => {
     const [other] = await db().insert(clip).values({ teamId: world.teamId, captureFps: 240, probe: { raw: { streams: [] } } }).returning({ id: clip.id });
     await db().update(clip).set({ probe }).where(eq(clip.id, id));
 
-    const statements = readFileSync("drizzle/0003_strip_place_tags_from_probes.sql", "utf8").split("--> statement-breakpoint");
-    const c = await db().pool.connect(); // pg_temp lives as long as this one session
-    try {
-      for (const s of statements) await c.query(s);
-    } finally {
-      c.release(true);
-    }
+    await rerunMigration("drizzle/0003_strip_place_tags_from_probes.sql");
 
     const [row] = await db().select({ probe: clip.probe }).from(clip).where(eq(clip.id, id));
     expect(JSON.stringify(row.probe)).not.toContain("45.5017");

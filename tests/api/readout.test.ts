@@ -54,7 +54,7 @@ describe("shot readout", () => {
     expect(ev.release.tFromStrikeMs).toBeCloseTo(((s.events.release - s.events.puckStrike) / 3200) * 1000, 9);
     expect(ev.release.tFromStrikeMs).toBeCloseTo(r.json.results.contactTimeMs, 9);
     expect(ev.iceStrike.tMs).toBeCloseTo(((s.events.iceStrike - 1) / 3200) * 1000, 9);
-    expect(r.json.results.series.puckSpeed.points.length).toBeGreaterThan(100);
+    expect(r.json.results.series.puckSpeed.frame.length).toBeGreaterThan(100);
     expect(r.json.can).toEqual({ edit: false, share: false, publish: false });
     expect((await coach.get(`${R()}/shots/${shot.id}`)).json.can).toEqual({ edit: true, share: true, publish: true });
   });

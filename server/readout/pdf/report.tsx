@@ -1,4 +1,5 @@
 import { FLIGHT_WINDOW_MS } from "../../../shared/mechanics/compute-shot";
+import { seriesPoints } from "../../../shared/mechanics/series-columns";
 import { Document, Image, Page, StyleSheet, Text, View } from "@react-pdf/renderer";
 import { eventLabels, type ShotEventKey } from "../../../shared/schemas/shots";
 import { METRICS, convert, eventTimingText, formatValue, metricText, noteMetric, shotTitle, shotTypeLabels, unitOf, type ShotReadout } from "../../../shared/schemas/readout";
@@ -115,11 +116,11 @@ export function ShotReport({ readout: r, units, teamName, url, generatedAt, thum
             yLabel={`speed (${unitOf("speed", units)})`}
             events={strikeEvents}
             lines={[
-              { label: "puck", color: C.puck, points: res.series.puckSpeed.points, convert: speed },
-              { label: "blade", color: C.blade, points: res.series.bladeSpeed.points, convert: speed },
+              { label: "puck", color: C.puck, points: seriesPoints(res.series.puckSpeed), convert: speed },
+              { label: "blade", color: C.blade, points: seriesPoints(res.series.bladeSpeed), convert: speed },
             ]}
           />
-          <ReportChart width={258} height={215} yLabel="bend angle (°)" events={strikeEvents} lines={[{ label: "bend", color: C.bend, points: res.series.bendAngle.points, convert: (v) => v }]}
+          <ReportChart width={258} height={215} yLabel="bend angle (°)" events={strikeEvents} lines={[{ label: "bend", color: C.bend, points: seriesPoints(res.series.bendAngle), convert: (v) => v }]}
             emptyText="No bend marks on this shot." />
         </View>
 

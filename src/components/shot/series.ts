@@ -12,15 +12,13 @@ export interface ChartPoint {
 
 /** Every point, or an even thinning to at most `max` (a 3,200 fps shot has thousands). */
 export function chartPoints(s: Series | undefined, convert: (si: number) => number, max = 600): ChartPoint[] {
-  const pts = s?.points ?? [];
-  const step = pts.length > max ? pts.length / max : 1;
+  const n = s?.frame.length ?? 0;
+  if (!s || n === 0) return [];
+  const at = (i: number): ChartPoint => ({ t: s.tFromStrikeMs[i], v: convert(s.value[i]), frame: s.frame[i] });
+  const step = n > max ? n / max : 1;
   const out: ChartPoint[] = [];
-  for (let i = 0; i < pts.length; i += step) {
-    const p = pts[Math.floor(i)];
-    out.push({ t: p.tFromStrikeMs, v: convert(p.value), frame: p.frame });
-  }
-  const last = pts[pts.length - 1];
-  if (last && out[out.length - 1]?.frame !== last.frame) out.push({ t: last.tFromStrikeMs, v: convert(last.value), frame: last.frame });
+  for (let i = 0; i < n; i += step) out.push(at(Math.floor(i)));
+  if (out[out.length - 1].frame !== s.frame[n - 1]) out.push(at(n - 1));
   return out;
 }
 

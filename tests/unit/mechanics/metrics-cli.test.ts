@@ -48,14 +48,14 @@ describe.concurrent("metrics command", { timeout: 120_000 }, () => {
     const out = ShotResults.parse(JSON.parse(r.stdout));
     expect(out.puckExitSpeed.valueMps).toBeCloseTo(truth.exitSpeedMps, 6);
     expect(out.contactTimeMs).toBe(30);
-    expect(out.series.puckSpeed.points.length).toBeGreaterThan(0);
+    expect(out.series.puckSpeed.frame.length).toBeGreaterThan(0);
   });
 
   it("reads stdin with -, and leaves the series out with --no-series", async () => {
     const r = await run(["-", "--no-series", "--trials", "50"], JSON.stringify(doc));
     expect(r.code).toBe(0);
     const out = JSON.parse(r.stdout);
-    expect(out.series.puckSpeed.points).toEqual([]);
+    expect(out.series.puckSpeed.frame).toEqual([]);
     expect(out.uncertainty.trials).toBe(50);
   });
 

@@ -25,7 +25,7 @@ export function OverlaidCharts({ shots, names, colors, units, cursorT, onPickTim
   const bendLines: TimeLine[] = sides
     .map((s) => ({ key: `bend-${s}`, label: `Bend ${names[s].replace("Shot ", "")}`, color: colors[s], points: chartPoints(shots[s].results!.series.bendAngle, (v) => v, 400) }))
     .filter((l) => l.points.length > 0);
-  const noBend = sides.filter((s) => !shots[s].results!.series.bendAngle.points.length).map((s) => names[s]);
+  const noBend = sides.filter((s) => !shots[s].results!.series.bendAngle.frame.length).map((s) => names[s]);
   const events: TimeEvent[] = [
     { key: "strike", label: "Puck strike", t: 0 },
     ...sides.flatMap((s) =>
