@@ -223,10 +223,10 @@ try {
   const readoutRepo = await import("../../server/entities/shot/readout");
   const { shotListPage } = await import("../../server/entities/shot/list-page");
   const picked = (await (await import("../../server/db/client")).db().execute<{ id: string }>(
-    (await import("drizzle-orm")).sql`select id from shot where team_id = ${ids.teamId} order by random() limit 2400`,
+    (await import("drizzle-orm")).sql`select id from shot where team_id = ${ids.teamId} order by random() limit ${2000 + Math.max(400, WARMUP)}`,
   )).rows.map((r) => r.id);
-  // 2,000 shots for the measured reads, and 400 others for the warm-up, so no measured read of a
-  // random shot finds an answer the warm-up left kept.
+  // 2,000 shots for the measured reads, and others for the warm-up (one each, at least 400), so no
+  // measured read of a random shot finds an answer the warm-up left kept, and no warm-up read does.
   const shotIds = picked.slice(0, 2000);
   const warmShotIds = picked.slice(2000);
   const player = seeded.players[0];
