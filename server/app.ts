@@ -18,6 +18,7 @@ import { refuseCrossSiteWrite } from "./security/same-origin";
 import { helmetOptions, securityHeaders } from "./security/headers";
 import { trustedOrigins } from "./security/origins";
 import { refuseWritesWhenUnpaid } from "./billing/read-only-guard";
+import { clientEntryOf, nameClientBuild } from "./http/client-build";
 
 export const TRACKING_WORKER_CSP =
   "default-src 'self'; script-src 'self' 'unsafe-eval' 'wasm-unsafe-eval'; connect-src 'self'; img-src 'self' data: blob:; object-src 'none'";
@@ -56,13 +57,15 @@ export function createApp() {
   const authHandler = toNodeHandler(async (request: Request) => asProblemResponse(await auth().handler(request)));
   app.all("/api/auth/*splat", (req, res) => void authHandler(req, res));
 
+  const dist = path.resolve("dist");
+  const built = fs.existsSync(path.join(dist, "index.html"));
+  nameClientBuild(app, built ? clientEntryOf(fs.readFileSync(path.join(dist, "index.html"), "utf8")) : null);
+
   mountRawRoutes(app);
   app.use("/api", express.json({ limit: "2mb" }));
   app.use("/api", apiRouter());
   app.use("/api", (_req, res) => sendProblem(res, 404, "not_found", "No such API route."));
 
-  const dist = path.resolve("dist");
-  const built = fs.existsSync(path.join(dist, "index.html"));
   if (built) {
     // The tracking worker runs opencv.js, whose build evaluates generated code. A worker obeys the
     // policy sent with its own script, so only that one file gets 'unsafe-eval'; pages keep theirs.

@@ -1,5 +1,6 @@
 import { isProblemCode, type ProblemCode } from "@shared/schemas/problem-codes";
 import { env } from "./env";
+import { noteServerBuild } from "./client-build";
 
 /**
  * A failed call's code: one of the API's (the list the server's errors are typed with), or one
@@ -145,6 +146,7 @@ export async function api<T>(path: string, opts: RequestOptions = {}): Promise<T
   }
 
   if (!res.ok) throw await problemFrom(res);
+  noteServerBuild(res);
   if (res.status === 204 || res.headers.get("content-length") === "0") return undefined as T;
   const type = res.headers.get("content-type") ?? "";
   if (!type.includes("json")) return undefined as T;

@@ -118,3 +118,39 @@ test("an unknown invitation link says so instead of showing a form", async ({ pa
   await expect(page.getByRole("heading", { name: "This invitation link isn't valid" })).toBeVisible();
   await expect(page.getByLabel("Password")).toHaveCount(0);
 });
+
+test("a tab left open across an update says so under the top bar, and one click reloads it", async ({ page }) => {
+  await page.goto("/sign-in");
+  await signIn(page, person("coach").email);
+  await expect(page.getByRole("button", { name: /Account:/ })).toBeVisible(); // signed in, in the app's layout
+  // The server names the page build it serves on /api/me: the entry script this tab was loaded with.
+  const me = await page.request.get("/api/me");
+  const entry = await page.locator('script[type="module"][src^="/assets/"]').getAttribute("src");
+  expect(entry).toMatch(/^\/assets\/index-[\w-]+\.js$/);
+  expect(me.status()).toBe(200);
+  expect(me.headers()["x-client-build"]).toBe(entry);
+  await expect(page.getByText("Loadframe has been updated")).toHaveCount(0);
+
+  // The server now serves a newer build than this tab's (as after a deploy): the next /api/me says so.
+  await page.route("**/api/me", async (route) => {
+    const r = await route.fetch();
+    await route.fulfill({ response: r, headers: { ...r.headers(), "x-client-build": "/assets/index-newer.js" } });
+  });
+  await page.reload();
+  const banner = page.getByRole("status").filter({ hasText: "Loadframe has been updated" });
+  await expect(banner).toBeVisible();
+  await page.unroute("**/api/me");
+  await banner.getByRole("button", { name: "Reload" }).click();
+  await expect(page.getByRole("button", { name: /Account:/ })).toBeVisible();
+  await expect(page.getByText("Loadframe has been updated")).toHaveCount(0);
+});
+
+test("a page of the old build that the server no longer has shows the same notice", async ({ page }) => {
+  await page.goto("/sign-in");
+  await signIn(page, person("coach").email);
+  await expect(page.getByRole("button", { name: /Account:/ })).toBeVisible(); // signed in, in the app's layout
+  // After a deploy the old build's lazily loaded pages are gone: the Stick lab's list here.
+  await page.route(/\/assets\/SticksPage-[^/]*\.js$/, (route) => route.fulfill({ status: 404, body: "" }));
+  await page.getByRole("navigation", { name: "Areas" }).getByRole("link", { name: "Stick lab" }).click();
+  await expect(page.getByRole("status").filter({ hasText: "Loadframe has been updated" })).toBeVisible();
+});

@@ -8,6 +8,7 @@ import { Brand } from "./Brand";
 import { TeamSwitcher } from "./TeamSwitcher";
 import { UserMenu } from "./UserMenu";
 import { BillingBanner } from "@/features/billing/components/BillingBanner";
+import { UpdateBanner } from "./UpdateBanner";
 
 /** Routes may carry `handle: { title }`; the deepest one names the browser tab. */
 export function useDocumentTitle() {
@@ -55,6 +56,7 @@ export function AppLayout() {
         <div aria-hidden className={cn("h-0.5 origin-left bg-accent transition-transform duration-500", navigation.state === "idle" ? "scale-x-0" : "scale-x-75")} />
       </header>
       <main id="main" className="mx-auto w-full max-w-7xl flex-1 px-4 py-8 sm:px-6">
+        <UpdateBanner />
         <BillingBanner />
         <Outlet />
       </main>
