@@ -223,10 +223,11 @@ try {
   const readoutRepo = await import("../../server/entities/shot/readout");
   const { shotListPage } = await import("../../server/entities/shot/list-page");
   const picked = (await (await import("../../server/db/client")).db().execute<{ id: string }>(
-    (await import("drizzle-orm")).sql`select id from shot where team_id = ${ids.teamId} order by random() limit ${2000 + Math.max(400, WARMUP)}`,
+    (await import("drizzle-orm")).sql`select id from shot where team_id = ${ids.teamId} order by random() limit ${2000 + Math.max(400, 2 * WARMUP)}`,
   )).rows.map((r) => r.id);
-  // 2,000 shots for the measured reads, and others for the warm-up (one each, at least 400), so no
-  // measured read of a random shot finds an answer the warm-up left kept, and no warm-up read does.
+  // 2,000 shots for the measured reads, and others for the warm-up (one a warm-up request, for up to
+  // two processes; at least 400), so no measured read of a random shot finds an answer the warm-up
+  // left kept, and no warm-up read does.
   const shotIds = picked.slice(0, 2000);
   const warmShotIds = picked.slice(2000);
   const player = seeded.players[0];

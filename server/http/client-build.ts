@@ -1,4 +1,5 @@
 import type { Express } from "express";
+import { CLIENT_BUILD_HEADER } from "../../shared/client-build";
 
 // The page build the server serves, named on /api/me answers so a tab left open across an update
 // learns it runs an older one (src/lib/client-build.ts, decision 203). Only /api/me carries it: the
@@ -12,7 +13,7 @@ export function clientEntryOf(indexHtml: string): string | null {
 export function nameClientBuild(app: Express, entry: string | null) {
   if (!entry) return;
   app.get("/api/me", (_req, res, next) => {
-    res.setHeader("X-Client-Build", entry);
+    res.setHeader(CLIENT_BUILD_HEADER, entry);
     next();
   });
 }

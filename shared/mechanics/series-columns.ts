@@ -3,7 +3,7 @@ import type { SegmentLabel, Series, SeriesPoint } from "../schemas/shot-results"
 // A readout chart's samples as the results store them: columns, and numbers to the digits a chart
 // or a reader can use (decision 202). What they round away is far below any result's ±: a value
 // keeps 6 significant digits (1 part in 10⁶; a speed's u is a part in 10² or more), a time
-// 1 ns (the finest camera timestamps are µs; from memory, no source).
+// 1 ns (the finest camera timestamps are µs [M]).
 
 const VALUE_DIGITS = 6;
 const TIME_STEPS_PER_MS = 1e6;
@@ -52,6 +52,3 @@ export function seriesPoints(s: Series): SeriesPoint[] {
     for (let k = 0; k < n; k++, i++) out.push({ frame: s.frame[i], tFromStrikeMs: s.tFromStrikeMs[i], value: s.value[i], segment });
   return out;
 }
-
-/** How many samples a series has. */
-export const seriesLength = (s: Series) => s.frame.length;

@@ -3,8 +3,7 @@
 // charts for results stored in a newer shape), and its lazily loaded pages are gone from the
 // server (decision 203).
 
-/** The answer header that names the server's page build: the entry script of its index.html. */
-export const CLIENT_BUILD_HEADER = "X-Client-Build";
+import { CLIENT_BUILD_HEADER } from "@shared/client-build";
 
 let stale = false;
 const listeners = new Set<() => void>();

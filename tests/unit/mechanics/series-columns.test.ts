@@ -15,7 +15,7 @@ describe("toSignificant", () => {
       [0, "0"],
     ];
     for (const [v, printed] of cases) expect(JSON.stringify(toSignificant(v))).toBe(printed);
-    // Against JavaScript's own decimal rounding (ECMA-262 Number.prototype.toPrecision), 10,000 values over 12 decades.
+    // Against JavaScript's own decimal rounding (ECMA-262 Number.prototype.toPrecision [P]), 10,000 values over 12 decades.
     let x = 0.7;
     for (let i = 0; i < 10_000; i++) {
       x = (x * 9301 + 49297) % 233280;
